@@ -1,0 +1,45 @@
+import type { ComponentProps, ReactNode } from 'react';
+import { buttonBaseClass, buttonVariantClass, type ButtonVariant } from './Button';
+import { cn } from './cn';
+import { Spinner } from './Spinner';
+
+export interface IconButtonProps extends Omit<ComponentProps<'button'>, 'children'> {
+  /** Accessible name, also shown as a tooltip. Required: an icon alone has no name. */
+  label: string;
+  /** The icon, e.g. `<Icon name="x" />`. */
+  icon: ReactNode;
+  variant?: ButtonVariant;
+  /** sm 40 px, md 44 px square. */
+  size?: 'sm' | 'md';
+  loading?: boolean;
+}
+
+export function IconButton({
+  label,
+  icon,
+  variant = 'ghost',
+  size = 'md',
+  loading = false,
+  type = 'button',
+  title,
+  disabled,
+  className,
+  onClick,
+  ...rest
+}: IconButtonProps) {
+  return (
+    <button
+      type={type}
+      aria-label={label}
+      title={title ?? label}
+      disabled={disabled && !loading}
+      aria-disabled={loading || disabled || undefined}
+      aria-busy={loading || undefined}
+      onClick={loading ? (event) => event.preventDefault() : onClick}
+      className={cn(buttonBaseClass, buttonVariantClass[variant], size === 'sm' ? 'size-10' : 'size-11', 'p-0', className)}
+      {...rest}
+    >
+      {loading ? <Spinner size={18} /> : icon}
+    </button>
+  );
+}
