@@ -1,0 +1,14 @@
+import type { AppConfig } from './config/env';
+import type { Orm } from './db/orm';
+import type { ObjectStore } from './lib/storage/object-store';
+import type { Mailer } from './lib/mail/mailer';
+import type { Outbox } from './lib/mail/outbox';
+
+/** What the app is built from. Tests build the same thing against the test services. */
+export interface AppDeps {
+  config: AppConfig;
+  orm: Orm;
+  storage: ObjectStore;
+  mailer: Mailer;
+  outbox: Outbox;
+}

@@ -1,0 +1,63 @@
+import express from 'express';
+import fs from 'node:fs';
+import path from 'node:path';
+import { randomUUID } from 'node:crypto';
+import { RequestContext } from '@mikro-orm/core';
+import type { AppDeps } from './app-deps';
+import { installSessions } from './http/session';
+import { sameOriginOnly } from './middleware/same-origin';
+import { errorHandler } from './middleware/error-handler';
+import { allRouters } from './modules';
+import type { RegisteredRoute } from './http/api-router';
+import { AppError } from './lib/errors';
+
+export interface CreatedApp {
+  app: express.Express;
+  /** Every API route with its access rule (the route × role test reads this). */
+  routes: RegisteredRoute[];
+  close(): Promise<void>;
+}
+
+/**
+ * Build the Express app from its dependencies. Never listens: server/main.ts does that, and
+ * tests drive the app through supertest.
+ */
+export function createApp(deps: AppDeps, opts: { clientDir?: string } = {}): CreatedApp {
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('query parser', 'extended');
+
+  app.use((req, res, next) => {
+    res.locals.requestId = req.get('x-request-id') ?? randomUUID().slice(0, 8);
+    res.set('X-Content-Type-Options', 'nosniff');
+    res.set('Referrer-Policy', 'same-origin');
+    next();
+  });
+  app.use('/api', express.json({ limit: '2mb' }));
+  app.use('/api', sameOriginOnly(deps.config.PUBLIC_URL));
+  // One EntityManager per request; services get it explicitly, never a global.
+  app.use((_req, res, next) => {
+    const em = deps.orm.em.fork();
+    res.locals.em = em;
+    RequestContext.create(em, next);
+  });
+  const sessions = installSessions(app, deps);
+
+  const routers = allRouters(deps);
+  for (const r of routers) app.use(r.prefix, r.router);
+  app.use('/api', (req, _res, next) => next(new AppError('NOT_FOUND', `No API route ${req.method} ${req.path}`, 404)));
+
+  if (opts.clientDir && fs.existsSync(path.join(opts.clientDir, 'index.html'))) {
+    const clientDir = opts.clientDir;
+    app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
+    // Client-side routes (including the public /share/:token page) get the app shell.
+    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(clientDir, 'index.html')));
+  }
+  app.use(errorHandler());
+
+  return {
+    app,
+    routes: routers.flatMap((r) => r.routes),
+    close: () => sessions.close(),
+  };
+}

@@ -1,0 +1,39 @@
+import nodemailer from 'nodemailer';
+
+export interface MailAttachment {
+  filename: string;
+  content: Buffer;
+  contentType?: string;
+}
+
+export interface OutgoingMail {
+  to: string;
+  subject: string;
+  text: string;
+  html?: string;
+  attachments?: MailAttachment[];
+}
+
+/** Sends mail through SMTP_URL, whatever relay that names (the local fake included). */
+export interface Mailer {
+  send(mail: OutgoingMail): Promise<{ messageId: string }>;
+}
+
+export function createSmtpMailer(smtpUrl: string, from: string): Mailer {
+  const url = new URL(smtpUrl);
+  const secure = url.protocol === 'smtps:';
+  const transport = nodemailer.createTransport({
+    host: url.hostname,
+    port: Number(url.port || (secure ? 465 : 587)),
+    secure,
+    auth: url.username ? { user: decodeURIComponent(url.username), pass: decodeURIComponent(url.password) } : undefined,
+    // Plain SMTP to a loopback fake; a real relay on 587 still upgrades with STARTTLS when offered.
+    ignoreTLS: url.hostname === '127.0.0.1' || url.hostname === 'localhost',
+  });
+  return {
+    async send(mail) {
+      const info = await transport.sendMail({ from, ...mail });
+      return { messageId: info.messageId };
+    },
+  };
+}

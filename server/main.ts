@@ -1,0 +1,62 @@
+import http from 'node:http';
+import type { AppConfig } from './config/env';
+import type { AppDeps } from './app-deps';
+import { initOrm, migrateToLatest } from './db/orm';
+import { createS3ObjectStore } from './lib/storage/object-store';
+import { createSmtpMailer } from './lib/mail/mailer';
+import { createOutbox } from './lib/mail/outbox';
+import { createApp } from './app';
+import { runStartupTasks } from './startup';
+
+/** Connect to the database, object storage and mail relay named by the config. */
+export async function buildDeps(config: AppConfig, opts: { poolMax?: number } = {}): Promise<AppDeps> {
+  const orm = await initOrm(config.DATABASE_URL, opts);
+  const storage = createS3ObjectStore({
+    endpoint: config.S3_ENDPOINT,
+    region: config.S3_REGION,
+    bucket: config.S3_BUCKET,
+    accessKeyId: config.S3_ACCESS_KEY_ID,
+    secretAccessKey: config.S3_SECRET_ACCESS_KEY,
+    forcePathStyle: config.S3_FORCE_PATH_STYLE,
+  });
+  return {
+    config,
+    orm,
+    storage,
+    mailer: createSmtpMailer(config.SMTP_URL, config.MAIL_FROM),
+    outbox: createOutbox(config.MAIL_CAPTURE_DIR),
+  };
+}
+
+export interface RunningServer {
+  url: string;
+  deps: AppDeps;
+  close(): Promise<void>;
+}
+
+/** Migrate, run start-up tasks, then listen. */
+export async function startServer(config: AppConfig, opts: { clientDir?: string; migrate?: boolean; beforeListen?: (deps: AppDeps, app: import('express').Express) => Promise<void> } = {}): Promise<RunningServer> {
+  const deps = await buildDeps(config);
+  if (opts.migrate !== false) {
+    const applied = await migrateToLatest(deps.orm);
+    if (applied.length) console.log(`[pullbook] applied migrations: ${applied.join(', ')}`);
+  }
+  await runStartupTasks(deps);
+  const created = createApp(deps, { clientDir: opts.clientDir });
+  if (opts.beforeListen) await opts.beforeListen(deps, created.app);
+  const server = http.createServer(created.app);
+  await new Promise<void>((resolve, reject) => {
+    server.once('error', reject);
+    server.listen(config.PORT, config.HOST, () => resolve());
+  });
+  return {
+    url: `http://${config.HOST}:${config.PORT}`,
+    deps,
+    async close() {
+      await new Promise<void>((resolve) => server.close(() => resolve()));
+      server.closeAllConnections();
+      await created.close();
+      await deps.orm.close();
+    },
+  };
+}

@@ -1,0 +1,45 @@
+import type { EntityManager } from '@mikro-orm/postgresql';
+import type { Actor } from '../../http/actor';
+import { AuditEntry } from './audit-entry.entity';
+import { Shop } from '../shops/shop.entity';
+import { User } from '../users/user.entity';
+
+/** Append one line to the shop's audit log. */
+export async function recordAudit(em: EntityManager, actor: Actor, action: string, entityType: string, entityId: string, details?: Record<string, unknown>) {
+  em.create(AuditEntry, {
+    shop: em.getReference(Shop, actor.shopId),
+    user: em.getReference(User, actor.id),
+    action,
+    entityType,
+    entityId,
+    details: details ?? null,
+  } as AuditEntry);
+  await em.flush();
+}
+
+export interface AuditDto {
+  id: string;
+  at: string;
+  userName: string | null;
+  action: string;
+  entityType: string;
+  entityId: string;
+  details: Record<string, unknown> | null;
+}
+
+export async function listAudit(em: EntityManager, actor: Actor, opts: { before?: string; limit: number }): Promise<AuditDto[]> {
+  const rows = await em.find(
+    AuditEntry,
+    { shop: actor.shopId, ...(opts.before ? { createdAt: { $lt: new Date(opts.before) } } : {}) },
+    { orderBy: { createdAt: 'desc' }, limit: opts.limit, populate: ['user'] },
+  );
+  return rows.map((r) => ({
+    id: r.id,
+    at: r.createdAt.toISOString(),
+    userName: r.user?.name ?? null,
+    action: r.action,
+    entityType: r.entityType,
+    entityId: r.entityId,
+    details: r.details,
+  }));
+}

@@ -1,0 +1,107 @@
+import passport from 'passport';
+import type { Request } from 'express';
+import { ApiRouter } from '../../http/api-router';
+import type { AppDeps } from '../../app-deps';
+import { AppError } from '../../lib/errors';
+import { changePasswordInput, forgotPasswordInput, loginInput, setPasswordInput } from '@shared/schemas/auth';
+import { changePassword, consumeToken, peekToken, requestPasswordReset, toActor } from './auth.service';
+import type { Actor } from '../../http/actor';
+import type { User } from '../users/user.entity';
+import { z } from 'zod';
+
+function logIn(req: Request, user: User): Promise<Actor> {
+  const actor = toActor(user);
+  // passport ≥ 0.6 regenerates the session id here, so a planted id is never promoted.
+  return new Promise((resolve, reject) => req.login(actor, (err) => (err ? reject(err) : resolve(actor))));
+}
+
+export function authRoutes(deps: AppDeps) {
+  const api = new ApiRouter('/api/auth', deps);
+
+  api.route({
+    method: 'post',
+    path: '/login',
+    access: 'public',
+    summary: 'Sign in with e-mail and password',
+    body: loginInput,
+    handler: async ({ req, res }) => {
+      const user = await new Promise<User | false>((resolve, reject) =>
+        passport.authenticate('local', { session: false }, (err: unknown, u: User | false) => (err ? reject(err) : resolve(u)))(req, res, reject),
+      );
+      if (!user) throw new AppError('BAD_CREDENTIALS', 'E-mail or password is not right', 401);
+      return { user: await logIn(req, user) };
+    },
+  });
+
+  api.route({
+    method: 'post',
+    path: '/logout',
+    access: 'public',
+    summary: 'Sign out',
+    handler: async ({ req, res }) => {
+      await new Promise<void>((resolve, reject) => req.logout((err) => (err ? reject(err) : resolve())));
+      await new Promise<void>((resolve) => req.session.destroy(() => resolve()));
+      res.clearCookie('pullbook.sid');
+      return { ok: true };
+    },
+  });
+
+  api.route({
+    method: 'get',
+    path: '/me',
+    access: 'signed-in',
+    summary: 'The signed-in user',
+    handler: async ({ actor }) => actor,
+  });
+
+  api.route({
+    method: 'post',
+    path: '/password',
+    access: 'signed-in',
+    summary: 'Change own password',
+    body: changePasswordInput,
+    handler: async ({ em, actor, body }) => {
+      await changePassword(em, actor, body.currentPassword, body.newPassword, deps.config.BCRYPT_ROUNDS);
+      return { ok: true };
+    },
+  });
+
+  api.route({
+    method: 'post',
+    path: '/forgot',
+    access: 'public',
+    summary: 'E-mail a password reset link',
+    body: forgotPasswordInput,
+    status: 202,
+    handler: async ({ em, body, req }) => {
+      await requestPasswordReset(em, deps.mailer, deps.config.PUBLIC_URL, body.email, req.ip ?? 'unknown');
+      return { ok: true, message: 'If that address has an account, a reset link is on its way.' };
+    },
+  });
+
+  api.route({
+    method: 'get',
+    path: '/token/:token',
+    access: 'public',
+    summary: 'Check an invitation or reset link',
+    params: z.object({ token: z.string().min(20).max(200) }),
+    handler: async ({ em, params }) => {
+      const row = await peekToken(em, params.token);
+      return { purpose: row.purpose, email: row.user.email, name: row.user.name };
+    },
+  });
+
+  api.route({
+    method: 'post',
+    path: '/set-password',
+    access: 'public',
+    summary: 'Set a password from an invitation or reset link, then sign in',
+    body: setPasswordInput,
+    handler: async ({ em, body, req }) => {
+      const user = await consumeToken(em, body.token, body.password, deps.config.BCRYPT_ROUNDS, body.name);
+      return { user: await logIn(req, user) };
+    },
+  });
+
+  return api;
+}

@@ -1,0 +1,111 @@
+import bcrypt from 'bcrypt';
+import { createHash, randomBytes } from 'node:crypto';
+import type { EntityManager } from '@mikro-orm/postgresql';
+import { AppError } from '../../lib/errors';
+import { hitRateLimit, resetRateLimit } from '../../lib/rate-limit';
+import type { Mailer } from '../../lib/mail/mailer';
+import type { Actor } from '../../http/actor';
+import { AuthToken, User, type AuthTokenPurpose } from '../users/user.entity';
+
+/** Attempts allowed per account and per client address in 15 minutes. */
+export const LOGIN_LIMITS = {
+  perAccount: { limit: 10, windowSeconds: 15 * 60 },
+  perIp: { limit: 50, windowSeconds: 15 * 60 },
+};
+const TOKEN_LIFETIME_MS: Record<AuthTokenPurpose, number> = {
+  invite: 7 * 24 * 3600 * 1000,
+  reset: 60 * 60 * 1000,
+};
+
+export const hashToken = (token: string) => createHash('sha256').update(token).digest('hex');
+
+export function toActor(user: User): Actor {
+  return {
+    id: user.id,
+    shopId: user.shop.id,
+    role: user.role,
+    email: user.email,
+    name: user.name,
+    customerId: user.customer?.id ?? null,
+  };
+}
+
+export async function hashPassword(password: string, rounds: number) {
+  return bcrypt.hash(password, rounds);
+}
+
+// A real hash to compare against when the account does not exist, so timing does not tell.
+const DUMMY_HASH = bcrypt.hashSync('not-a-real-password', 10);
+
+/**
+ * Check an e-mail and password. Rate-limited per account and per address before any hashing,
+ * so guessing is slow whichever is targeted. Returns null on bad credentials.
+ */
+export async function verifyCredentials(em: EntityManager, email: string, password: string, ip: string): Promise<User | null> {
+  const normalized = email.trim().toLowerCase();
+  const message = 'Too many sign-in attempts; wait a few minutes and try again';
+  await hitRateLimit(em, `login:ip:${ip}`, LOGIN_LIMITS.perIp, message);
+  await hitRateLimit(em, `login:account:${normalized}`, LOGIN_LIMITS.perAccount, message);
+  const user = await em.findOne(User, { email: normalized });
+  const ok = await bcrypt.compare(password, user?.passwordHash ?? DUMMY_HASH);
+  if (!user || !user.passwordHash || !ok || user.disabled) return null;
+  await resetRateLimit(em, `login:account:${normalized}`);
+  user.lastLoginAt = new Date();
+  await em.flush();
+  return user;
+}
+
+/** Issue a single-use token; only its hash is stored. Returns the token to put in the link. */
+export async function issueToken(em: EntityManager, user: User, purpose: AuthTokenPurpose): Promise<string> {
+  const token = randomBytes(32).toString('base64url');
+  // An older unused token of the same purpose stops working when a new one is issued.
+  await em.nativeUpdate(AuthToken, { user, purpose, usedAt: null }, { usedAt: new Date() });
+  em.create(AuthToken, { user, purpose, tokenHash: hashToken(token), expiresAt: new Date(Date.now() + TOKEN_LIFETIME_MS[purpose]) } as AuthToken);
+  await em.flush();
+  return token;
+}
+
+const badToken = () => new AppError('TOKEN_INVALID', 'This link is invalid or has expired; ask for a new one', 400);
+
+/** Find a live token without using it up (for the set-password page to show whose it is). */
+export async function peekToken(em: EntityManager, token: string) {
+  const row = await em.findOne(AuthToken, { tokenHash: hashToken(token) }, { populate: ['user'] });
+  if (!row || row.usedAt || row.expiresAt < new Date() || row.user.disabled) throw badToken();
+  return row;
+}
+
+/** Use a token to set a password (invitation or reset). */
+export async function consumeToken(em: EntityManager, token: string, password: string, rounds: number, name?: string): Promise<User> {
+  const row = await peekToken(em, token);
+  // Mark used atomically so two concurrent submissions cannot both succeed.
+  const claimed = await em.nativeUpdate(AuthToken, { id: row.id, usedAt: null }, { usedAt: new Date() });
+  if (claimed !== 1) throw badToken();
+  row.user.passwordHash = await hashPassword(password, rounds);
+  if (name && row.purpose === 'invite') row.user.name = name;
+  await em.flush();
+  return row.user;
+}
+
+export async function changePassword(em: EntityManager, actor: Actor, current: string, next: string, rounds: number) {
+  const user = await em.findOneOrFail(User, actor.id);
+  if (!user.passwordHash || !(await bcrypt.compare(current, user.passwordHash))) {
+    throw new AppError('PASSWORD_WRONG', 'The current password is not right', 400, { fields: [{ path: 'currentPassword', message: 'Not right' }] });
+  }
+  user.passwordHash = await hashPassword(next, rounds);
+  await em.flush();
+}
+
+/** Send a reset link if the account exists; says nothing either way (no account discovery). */
+export async function requestPasswordReset(em: EntityManager, mailer: Mailer, publicUrl: string, email: string, ip: string) {
+  await hitRateLimit(em, `reset:ip:${ip}`, { limit: 20, windowSeconds: 3600 }, 'Too many reset requests; try again later');
+  await hitRateLimit(em, `reset:account:${email}`, { limit: 5, windowSeconds: 3600 }, 'Too many reset requests; try again later');
+  const user = await em.findOne(User, { email, disabled: false });
+  if (!user) return;
+  const token = await issueToken(em, user, 'reset');
+  const link = `${publicUrl.replace(/\/$/, '')}/reset-password/${token}`;
+  await mailer.send({
+    to: user.email,
+    subject: 'Reset your Pullbook password',
+    text: `Hello ${user.name},\n\nSomeone (hopefully you) asked to reset your Pullbook password. Open this link within an hour to choose a new one:\n\n${link}\n\nIf you did not ask, ignore this message; your password stays as it is.\n`,
+  });
+}

@@ -1,0 +1,100 @@
+import type { EntityManager } from '@mikro-orm/postgresql';
+import type { FilterQuery } from '@mikro-orm/core';
+import type { z } from 'zod';
+import type { Actor } from '../../http/actor';
+import { notFound } from '../../lib/errors';
+import { parseSort, type Page } from '@shared/schemas/common';
+import type { BikeDto, BikeInput, bikeListQuery } from '@shared/schemas/bike';
+import { Bike } from './bike.entity';
+import { Customer } from '../customers/customer.entity';
+import { Shop } from '../shops/shop.entity';
+import { recordAudit } from '../audit/audit.service';
+
+type ListQuery = z.output<typeof bikeListQuery>;
+
+export const toBikeDto = (b: Bike): BikeDto => ({
+  id: b.id,
+  customerId: b.customer.id,
+  customerName: b.customer.name,
+  make: b.make,
+  model: b.model,
+  year: b.year,
+  vin: b.vin,
+  engineFamily: b.engineFamily,
+  displacementCc: b.displacementCc,
+  cylinders: b.cylinders,
+  notes: b.notes,
+  createdAt: b.createdAt.toISOString(),
+});
+
+/** Shop scope plus, for customers, their own bikes only. Every bike query starts here. */
+export function bikeScope(actor: Actor): FilterQuery<Bike> {
+  return actor.role === 'customer' ? { shop: actor.shopId, customer: actor.customerId ?? '00000000-0000-0000-0000-000000000000' } : { shop: actor.shopId };
+}
+
+const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
+
+export async function listBikes(em: EntityManager, actor: Actor, query: ListQuery): Promise<Page<BikeDto>> {
+  const where: FilterQuery<Bike> = { ...(bikeScope(actor) as object) };
+  if (query.customerId) Object.assign(where, { customer: actor.role === 'customer' ? actor.customerId : query.customerId });
+  if (query.q) {
+    const like = `%${escapeLike(query.q)}%`;
+    where.$or = [
+      { make: { $ilike: like } },
+      { model: { $ilike: like } },
+      { vin: { $ilike: like } },
+      { engineFamily: { $ilike: like } },
+      { customer: { name: { $ilike: like } } },
+    ];
+  }
+  const { field, dir } = parseSort(query.sort, 'make');
+  const orderBy = field === 'customer' ? { customer: { name: dir } } : { [field]: dir };
+  const [rows, total] = await em.findAndCount(Bike, where, {
+    populate: ['customer'],
+    orderBy: [orderBy, { id: 'asc' }],
+    limit: query.pageSize,
+    offset: (query.page - 1) * query.pageSize,
+  });
+  return { items: rows.map(toBikeDto), total, page: query.page, pageSize: query.pageSize };
+}
+
+/** Load a bike the actor may see, or 404 (never 403: do not confirm it exists elsewhere). */
+export async function getBikeEntity(em: EntityManager, actor: Actor, id: string): Promise<Bike> {
+  const bike = await em.findOne(Bike, { ...(bikeScope(actor) as object), id }, { populate: ['customer'] });
+  if (!bike) throw notFound('Bike');
+  return bike;
+}
+
+async function customerOfShop(em: EntityManager, actor: Actor, customerId: string) {
+  const customer = await em.findOne(Customer, { id: customerId, shop: actor.shopId });
+  if (!customer) throw notFound('Customer');
+  return customer;
+}
+
+export async function createBike(em: EntityManager, actor: Actor, input: BikeInput): Promise<BikeDto> {
+  const { customerId, ...data } = input;
+  const customer = await customerOfShop(em, actor, customerId);
+  const bike = em.create(Bike, { ...data, customer, shop: em.getReference(Shop, actor.shopId) } as Bike);
+  await em.flush();
+  await recordAudit(em, actor, 'bike.create', 'bike', bike.id, { make: bike.make, model: bike.model });
+  return toBikeDto(bike);
+}
+
+export async function updateBike(em: EntityManager, actor: Actor, id: string, input: BikeInput): Promise<BikeDto> {
+  const bike = await getBikeEntity(em, actor, id);
+  const { customerId, ...data } = input;
+  if (customerId !== bike.customer.id) bike.customer = await customerOfShop(em, actor, customerId);
+  em.assign(bike, data);
+  await em.flush();
+  await recordAudit(em, actor, 'bike.update', 'bike', bike.id, data);
+  return toBikeDto(bike);
+}
+
+/** Engine families already used in this shop, most common first, for the form's suggestions. */
+export async function engineFamilies(em: EntityManager, actor: Actor): Promise<string[]> {
+  const rows = (await em.getConnection().execute(
+    `select engine_family, count(*) as n from bike where shop_id = ? and engine_family is not null group by engine_family order by n desc, engine_family limit 100`,
+    [actor.shopId],
+  )) as { engine_family: string }[];
+  return rows.map((r) => r.engine_family);
+}

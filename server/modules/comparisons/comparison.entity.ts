@@ -1,0 +1,39 @@
+import { EntitySchema } from '@mikro-orm/core';
+import { randomUUID } from 'node:crypto';
+import { Shop } from '../shops/shop.entity';
+import { Bike } from '../bikes/bike.entity';
+import { Run } from '../runs/run.entity';
+import { User } from '../users/user.entity';
+
+/** A saved set of runs, one of them the baseline, with the options used. Reports are made from these. */
+export class Comparison {
+  id: string = randomUUID();
+  shop!: Shop;
+  name!: string;
+  /** The bike the comparison is about (the baseline run's bike). */
+  bike!: Bike;
+  baselineRun!: Run;
+  runIds!: string[];
+  options!: Record<string, unknown>;
+  note: string | null = null;
+  createdBy: User | null = null;
+  createdAt: Date = new Date();
+}
+
+export const ComparisonSchema = new EntitySchema<Comparison>({
+  class: Comparison,
+  tableName: 'comparison',
+  indexes: [{ properties: ['shop', 'bike'] }],
+  properties: {
+    id: { type: 'uuid', primary: true },
+    shop: { kind: 'm:1', entity: () => Shop, deleteRule: 'cascade' },
+    name: { type: 'string', length: 200 },
+    bike: { kind: 'm:1', entity: () => Bike, deleteRule: 'cascade' },
+    baselineRun: { kind: 'm:1', entity: () => Run, deleteRule: 'cascade' },
+    runIds: { type: 'json' },
+    options: { type: 'json' },
+    note: { type: 'text', nullable: true },
+    createdBy: { kind: 'm:1', entity: () => User, nullable: true, deleteRule: 'set null' },
+    createdAt: { type: 'datetime', columnType: 'timestamptz' },
+  },
+});

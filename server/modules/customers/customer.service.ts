@@ -1,0 +1,92 @@
+import type { EntityManager } from '@mikro-orm/postgresql';
+import type { FilterQuery } from '@mikro-orm/core';
+import type { Actor } from '../../http/actor';
+import { AppError, notFound } from '../../lib/errors';
+import { parseSort, type Page } from '@shared/schemas/common';
+import type { CustomerDto } from '@shared/schemas/customer';
+import type { z } from 'zod';
+import type { customerInput, customerListQuery } from '@shared/schemas/customer';
+import { Customer } from './customer.entity';
+import { Shop } from '../shops/shop.entity';
+import { Bike } from '../bikes/bike.entity';
+import { User } from '../users/user.entity';
+import { recordAudit } from '../audit/audit.service';
+
+type CustomerData = z.output<typeof customerInput>;
+type ListQuery = z.output<typeof customerListQuery>;
+
+const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
+
+async function decorate(em: EntityManager, customers: Customer[]): Promise<CustomerDto[]> {
+  if (!customers.length) return [];
+  const ids = customers.map((c) => c.id);
+  const counts = (await em.getConnection().execute(
+    `select customer_id, count(*)::int as n from bike where customer_id in (${ids.map(() => '?').join(',')}) group by customer_id`,
+    ids,
+  )) as { customer_id: string; n: number }[];
+  const portal = await em.find(User, { customer: { $in: ids } }, { fields: ['customer'] });
+  const bikeCount = new Map(counts.map((r) => [r.customer_id, r.n]));
+  const withPortal = new Set(portal.map((u) => u.customer?.id));
+  return customers.map((c) => ({
+    id: c.id,
+    name: c.name,
+    email: c.email,
+    phone: c.phone,
+    notes: c.notes,
+    bikeCount: bikeCount.get(c.id) ?? 0,
+    hasPortalAccess: withPortal.has(c.id),
+    createdAt: c.createdAt.toISOString(),
+  }));
+}
+
+/** The shop's customers, searched by name, e-mail or phone, sorted and paged on the server. */
+export async function listCustomers(em: EntityManager, actor: Actor, query: ListQuery): Promise<Page<CustomerDto>> {
+  const where: FilterQuery<Customer> = { shop: actor.shopId };
+  if (query.q) {
+    const like = `%${escapeLike(query.q)}%`;
+    where.$or = [{ name: { $ilike: like } }, { email: { $ilike: like } }, { phone: { $ilike: like } }];
+  }
+  const { field, dir } = parseSort(query.sort, 'name');
+  const [rows, total] = await em.findAndCount(Customer, where, {
+    orderBy: { [field]: dir, id: 'asc' },
+    limit: query.pageSize,
+    offset: (query.page - 1) * query.pageSize,
+  });
+  return { items: await decorate(em, rows), total, page: query.page, pageSize: query.pageSize };
+}
+
+export async function getCustomerEntity(em: EntityManager, actor: Actor, id: string): Promise<Customer> {
+  const customer = await em.findOne(Customer, { id, shop: actor.shopId });
+  if (!customer || (actor.role === 'customer' && actor.customerId !== id)) throw notFound('Customer');
+  return customer;
+}
+
+export async function getCustomer(em: EntityManager, actor: Actor, id: string): Promise<CustomerDto> {
+  const [dto] = await decorate(em, [await getCustomerEntity(em, actor, id)]);
+  return dto;
+}
+
+export async function createCustomer(em: EntityManager, actor: Actor, data: CustomerData): Promise<CustomerDto> {
+  const customer = em.create(Customer, { ...data, shop: em.getReference(Shop, actor.shopId) } as Customer);
+  await em.flush();
+  await recordAudit(em, actor, 'customer.create', 'customer', customer.id, { name: customer.name });
+  return (await decorate(em, [customer]))[0];
+}
+
+export async function updateCustomer(em: EntityManager, actor: Actor, id: string, data: CustomerData): Promise<CustomerDto> {
+  const customer = await getCustomerEntity(em, actor, id);
+  em.assign(customer, data);
+  await em.flush();
+  await recordAudit(em, actor, 'customer.update', 'customer', customer.id, data);
+  return (await decorate(em, [customer]))[0];
+}
+
+export async function deleteCustomer(em: EntityManager, actor: Actor, id: string): Promise<void> {
+  const customer = await getCustomerEntity(em, actor, id);
+  const bikes = await em.count(Bike, { customer });
+  if (bikes > 0) {
+    throw new AppError('CUSTOMER_HAS_BIKES', `This customer still has ${bikes} bike(s); move or remove them first`, 409);
+  }
+  await em.removeAndFlush(customer);
+  await recordAudit(em, actor, 'customer.delete', 'customer', id, { name: customer.name });
+}

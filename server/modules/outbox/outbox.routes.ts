@@ -1,0 +1,43 @@
+import { z } from 'zod';
+import { ApiRouter } from '../../http/api-router';
+import type { AppDeps } from '../../app-deps';
+import { AppError } from '../../lib/errors';
+
+const messageParams = z.object({ id: z.string().regex(/^[\w.-]+\.eml$/, 'Not a message id') });
+
+/** The local SMTP fake's captured mail, for demonstrating e-mail flows without a real relay. */
+export function outboxRoutes(deps: AppDeps) {
+  const api = new ApiRouter('/api/outbox', deps);
+  api.route({
+    method: 'get',
+    path: '/',
+    access: ['owner'],
+    summary: 'Messages captured by the local mail fake',
+    handler: async () => ({ enabled: deps.outbox.enabled, items: deps.outbox.enabled ? await deps.outbox.list() : [] }),
+  });
+  api.route({
+    method: 'get',
+    path: '/:id',
+    access: ['owner'],
+    summary: 'One captured message',
+    params: messageParams,
+    handler: async ({ params }) => {
+      const { raw: _raw, parsed, ...msg } = await deps.outbox.get(params.id);
+      return { ...msg, html: typeof parsed.html === 'string' ? parsed.html : null };
+    },
+  });
+  api.route({
+    method: 'get',
+    path: '/:id/attachments/:index',
+    access: ['owner'],
+    summary: 'Download an attachment of a captured message',
+    params: messageParams.extend({ index: z.coerce.number().int().min(0) }),
+    handler: async ({ params, res }) => {
+      const { parsed } = await deps.outbox.get(params.id);
+      const att = parsed.attachments[params.index];
+      if (!att) throw new AppError('NOT_FOUND', 'Attachment not found', 404);
+      res.type(att.contentType).attachment(att.filename ?? 'attachment').send(att.content);
+    },
+  });
+  return api;
+}

@@ -1,0 +1,46 @@
+import { EntitySchema } from '@mikro-orm/core';
+import { randomUUID } from 'node:crypto';
+import { Shop } from '../shops/shop.entity';
+import { Bike } from '../bikes/bike.entity';
+import { Dyno } from '../dynos/dyno.entity';
+import { User } from '../users/user.entity';
+
+/** One visit of a bike on the dyno, with the ambient conditions of that day. */
+export class DynoSession {
+  id: string = randomUUID();
+  shop!: Shop;
+  bike!: Bike;
+  startedAt: Date = new Date();
+  dyno: Dyno | null = null;
+  operator: User | null = null;
+  ambientTempC: number | null = null;
+  baroKpa: number | null = null;
+  humidityPct: number | null = null;
+  correctionStandard = 'sae-j1349';
+  notes: string | null = null;
+  safetyConfirmedBy: User | null = null;
+  safetyConfirmedAt: Date | null = null;
+  createdAt: Date = new Date();
+}
+
+export const DynoSessionSchema = new EntitySchema<DynoSession>({
+  class: DynoSession,
+  tableName: 'dyno_session',
+  indexes: [{ properties: ['shop', 'bike', 'startedAt'] }],
+  properties: {
+    id: { type: 'uuid', primary: true },
+    shop: { kind: 'm:1', entity: () => Shop, deleteRule: 'cascade' },
+    bike: { kind: 'm:1', entity: () => Bike, deleteRule: 'cascade' },
+    startedAt: { type: 'datetime', columnType: 'timestamptz' },
+    dyno: { kind: 'm:1', entity: () => Dyno, nullable: true, deleteRule: 'set null' },
+    operator: { kind: 'm:1', entity: () => User, nullable: true, deleteRule: 'set null' },
+    ambientTempC: { type: 'double', nullable: true },
+    baroKpa: { type: 'double', nullable: true },
+    humidityPct: { type: 'double', nullable: true },
+    correctionStandard: { type: 'string', length: 32 },
+    notes: { type: 'text', nullable: true },
+    safetyConfirmedBy: { kind: 'm:1', entity: () => User, nullable: true, deleteRule: 'set null' },
+    safetyConfirmedAt: { type: 'datetime', columnType: 'timestamptz', nullable: true },
+    createdAt: { type: 'datetime', columnType: 'timestamptz' },
+  },
+});

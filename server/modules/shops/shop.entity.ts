@@ -1,0 +1,40 @@
+import { EntitySchema } from '@mikro-orm/core';
+import { randomUUID } from 'node:crypto';
+
+export type UnitSystem = 'imperial' | 'metric';
+export type PaperSize = 'letter' | 'a4';
+
+/** A performance shop: the tenant. Every other row belongs to exactly one shop. */
+export class Shop {
+  id: string = randomUUID();
+  name!: string;
+  address: string | null = null;
+  phone: string | null = null;
+  email: string | null = null;
+  /** Object-storage key of the logo shown on reports. */
+  logoKey: string | null = null;
+  /** Units printed on reports: hp/lb·ft or kW/N·m. */
+  units: UnitSystem = 'imperial';
+  paperSize: PaperSize = 'letter';
+  /** Correction standard proposed for new sessions and comparisons. */
+  defaultCorrection = 'sae-j1349';
+  /** Labour rate used when a part row has no labour cost of its own (cents per hour). */
+  createdAt: Date = new Date();
+}
+
+export const ShopSchema = new EntitySchema<Shop>({
+  class: Shop,
+  tableName: 'shop',
+  properties: {
+    id: { type: 'uuid', primary: true },
+    name: { type: 'string', length: 200 },
+    address: { type: 'text', nullable: true },
+    phone: { type: 'string', length: 60, nullable: true },
+    email: { type: 'string', length: 320, nullable: true },
+    logoKey: { type: 'string', length: 500, nullable: true, fieldName: 'logo_key' },
+    units: { type: 'string', length: 16, default: 'imperial' },
+    paperSize: { type: 'string', length: 16, default: 'letter' },
+    defaultCorrection: { type: 'string', length: 32, default: 'sae-j1349' },
+    createdAt: { type: 'datetime', columnType: 'timestamptz' },
+  },
+});

@@ -1,0 +1,93 @@
+import type { EntityManager } from '@mikro-orm/postgresql';
+import type { Actor } from '../../http/actor';
+import { AppError, conflict, notFound } from '../../lib/errors';
+import type { Mailer } from '../../lib/mail/mailer';
+import type { InviteUserInput } from '@shared/schemas/auth';
+import type { Role } from '@shared/roles';
+import { User } from './user.entity';
+import { Customer } from '../customers/customer.entity';
+import { Shop } from '../shops/shop.entity';
+import { issueToken } from '../auth/auth.service';
+
+export interface UserDto {
+  id: string;
+  email: string;
+  name: string;
+  role: Role;
+  disabled: boolean;
+  invitePending: boolean;
+  customerId: string | null;
+  lastLoginAt: string | null;
+}
+
+export const toUserDto = (u: User): UserDto => ({
+  id: u.id,
+  email: u.email,
+  name: u.name,
+  role: u.role,
+  disabled: u.disabled,
+  invitePending: !u.passwordHash,
+  customerId: u.customer?.id ?? null,
+  lastLoginAt: u.lastLoginAt?.toISOString() ?? null,
+});
+
+export async function listUsers(em: EntityManager, actor: Actor): Promise<UserDto[]> {
+  const users = await em.find(User, { shop: actor.shopId }, { orderBy: { role: 'asc', name: 'asc' } });
+  return users.map(toUserDto);
+}
+
+async function sendInvite(em: EntityManager, mailer: Mailer, publicUrl: string, user: User, shopName: string) {
+  const token = await issueToken(em, user, 'invite');
+  const link = `${publicUrl.replace(/\/$/, '')}/invite/${token}`;
+  await mailer.send({
+    to: user.email,
+    subject: `You're invited to ${shopName} on Pullbook`,
+    text: `Hello ${user.name},\n\n${shopName} has given you a Pullbook account. Open this link within 7 days to choose your password:\n\n${link}\n`,
+  });
+}
+
+/** Create a user without a password and e-mail them a link to set one. */
+export async function inviteUser(em: EntityManager, mailer: Mailer, publicUrl: string, actor: Actor, input: InviteUserInput): Promise<UserDto> {
+  if (await em.findOne(User, { email: input.email })) {
+    throw conflict('EMAIL_TAKEN', 'A user with that e-mail address already exists');
+  }
+  let customer: Customer | null = null;
+  if (input.role === 'customer') {
+    if (!input.customerId) throw new AppError('CUSTOMER_REQUIRED', 'Choose which customer record this sign-in belongs to', 400, { fields: [{ path: 'customerId', message: 'Required for customers' }] });
+    customer = await em.findOne(Customer, { id: input.customerId, shop: actor.shopId });
+    if (!customer) throw notFound('Customer');
+  }
+  const shop = await em.findOneOrFail(Shop, actor.shopId);
+  const user = em.create(User, { shop, email: input.email, name: input.name, role: input.role, customer } as User);
+  await em.flush();
+  await sendInvite(em, mailer, publicUrl, user, shop.name);
+  return toUserDto(user);
+}
+
+export async function resendInvite(em: EntityManager, mailer: Mailer, publicUrl: string, actor: Actor, id: string) {
+  const user = await em.findOne(User, { id, shop: actor.shopId }, { populate: ['shop'] });
+  if (!user) throw notFound('User');
+  if (user.passwordHash) throw conflict('ALREADY_ACTIVE', 'This user has already set a password');
+  await sendInvite(em, mailer, publicUrl, user, user.shop.name);
+}
+
+export async function updateUser(em: EntityManager, actor: Actor, id: string, patch: { name?: string; role?: Role; disabled?: boolean }): Promise<UserDto> {
+  const user = await em.findOne(User, { id, shop: actor.shopId });
+  if (!user) throw notFound('User');
+  if (user.id === actor.id && (patch.disabled || (patch.role && patch.role !== 'owner'))) {
+    throw new AppError('CANNOT_DEMOTE_SELF', 'You cannot disable yourself or give up the owner role; ask another owner', 400);
+  }
+  if (patch.role === 'customer' && !user.customer) {
+    throw new AppError('CUSTOMER_REQUIRED', 'A customer sign-in must belong to a customer record; invite them from the customer page', 400);
+  }
+  if (patch.name !== undefined) user.name = patch.name;
+  if (patch.role !== undefined) user.role = patch.role;
+  if (patch.disabled !== undefined) user.disabled = patch.disabled;
+  await em.flush();
+  if (patch.disabled) {
+    // Signed-in sessions of a disabled user end at their next request (deserializeUser refuses
+    // them); removing them here also frees the rows.
+    await em.getConnection().execute(`delete from http_session where sess->'passport'->>'user' = ?`, [user.id]);
+  }
+  return toUserDto(user);
+}

@@ -1,0 +1,38 @@
+import { z } from 'zod';
+import { ROLES } from '../roles';
+
+export const passwordSchema = z.string().min(10, 'Use at least 10 characters').max(200, 'At most 200 characters');
+
+export const loginInput = z.object({
+  email: z.string().trim().toLowerCase().email('Enter a valid e-mail address'),
+  password: z.string().min(1, 'Enter your password').max(200),
+});
+
+export const changePasswordInput = z.object({
+  currentPassword: z.string().min(1, 'Enter your current password'),
+  newPassword: passwordSchema,
+});
+
+export const forgotPasswordInput = z.object({ email: z.string().trim().toLowerCase().email('Enter a valid e-mail address') });
+
+export const setPasswordInput = z.object({
+  token: z.string().min(20).max(200),
+  password: passwordSchema,
+  name: z.string().trim().min(1).max(200).optional(),
+});
+
+export const inviteUserInput = z.object({
+  email: z.string().trim().toLowerCase().email('Enter a valid e-mail address'),
+  name: z.string().trim().min(1, 'Name is required').max(200),
+  role: z.enum(ROLES),
+  customerId: z.string().uuid().optional(),
+});
+
+export const updateUserInput = z.object({
+  name: z.string().trim().min(1).max(200).optional(),
+  role: z.enum(ROLES).optional(),
+  disabled: z.boolean().optional(),
+});
+
+export type LoginInput = z.infer<typeof loginInput>;
+export type InviteUserInput = z.infer<typeof inviteUserInput>;
