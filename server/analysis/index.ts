@@ -1,0 +1,31 @@
+/**
+ * Run-file ingest engine: read the files dynos export, normalise them, cross-check power against
+ * torque × rpm, correct to standard air, and compare runs. Pure functions; no database or HTTP.
+ *
+ * Browser-safe parts (import them directly for the client): units.ts, correction.ts, compare.ts,
+ * curve.ts, errors.ts. This index also exports the Node-only `analyzeFile`.
+ */
+export { AnalysisError, type AnalysisErrorCode, isAnalysisError } from './errors.js';
+export * from './units.js';
+export { type Conditions } from './preamble.js';
+export { type ColumnMapping, type MappingHelp, MAX_COLUMNS } from './columns.js';
+export {
+  type CorrectionStandard,
+  CORRECTION_STANDARDS,
+  REFERENCE_CONDITIONS,
+  correctionFactor,
+  dryAirPressureKpa,
+  isCorrectionStandard,
+} from './correction.js';
+export { type NormalizedCurve, type Peaks, applyCorrection, peaksOf } from './curve.js';
+export { type CompareOptions, type ComparisonFigures, type Repeatability, compareCurves, repeatability, integrate } from './compare.js';
+export { savitzkyGolayCoefficients, smoothSavitzkyGolay } from './smoothing.js';
+export {
+  type AnalysisResult,
+  type AnalyzeOptions,
+  DEFAULT_GRID_RPM,
+  DEFAULT_MAX_BYTES,
+  DEFAULT_SMOOTH,
+  analyzeBuffer,
+} from './analyze.js';
+export { analyzeFile } from './analyze-file.js';

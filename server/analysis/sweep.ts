@@ -1,0 +1,55 @@
+/**
+ * Sweep isolation: a dyno log usually holds a steady or idle part before the pull and the
+ * throttle-off deceleration after it. The main sweep is the stretch with the largest rpm rise in
+ * which rpm never falls more than a jitter tolerance below its running maximum.
+ */
+
+/** Index range [start, end] (inclusive) of the main sweep, and its rpm rise. */
+export interface SweepRange {
+  start: number;
+  end: number;
+  riseRpm: number;
+}
+
+/** Allowed fall below the running maximum before a stretch is considered ended (sensor jitter). */
+export function jitterTolerance(rpm: number): number {
+  return Math.max(40, 0.015 * rpm);
+}
+
+/** Finds the main accelerating sweep in `rpm[0..n)`. Returns null for fewer than two points. */
+export function findSweep(rpm: ArrayLike<number>, n = rpm.length): SweepRange | null {
+  if (n < 2) return null;
+  let best: { start: number; maxIdx: number; minBefore: number; gain: number } | null = null;
+  let start = 0;
+  let runMax = rpm[0];
+  let maxIdx = 0;
+  let runMin = rpm[0];
+  let minBeforeMax = rpm[0];
+  const close = () => {
+    const gain = runMax - minBeforeMax;
+    if (!best || gain > best.gain) best = { start, maxIdx, minBefore: minBeforeMax, gain };
+  };
+  for (let i = 1; i < n; i++) {
+    const r = rpm[i];
+    if (r >= runMax - jitterTolerance(runMax)) {
+      if (r < runMin) runMin = r;
+      if (r > runMax) {
+        runMax = r;
+        maxIdx = i;
+        minBeforeMax = runMin;
+      }
+    } else {
+      close();
+      start = i;
+      runMax = runMin = minBeforeMax = r;
+      maxIdx = i;
+    }
+  }
+  close();
+  const b = best as unknown as { start: number; maxIdx: number; minBefore: number; gain: number };
+  // Drop the steady lead-in: the sweep starts where rpm last sat near the stretch's minimum.
+  const tol = jitterTolerance(b.minBefore);
+  let sweepStart = b.start;
+  for (let i = b.start; i <= b.maxIdx; i++) if (rpm[i] <= b.minBefore + tol) sweepStart = i;
+  return { start: sweepStart, end: b.maxIdx, riseRpm: b.gain };
+}

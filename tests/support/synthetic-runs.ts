@@ -1,0 +1,382 @@
+/**
+ * Synthetic dyno runs from an invented engine model with known answers, and run-file text in
+ * every format the reader supports. Deterministic for a given seed. Usable by tests, the demo
+ * seed and the benches (no Node imports; callers write the text or bytes where they like).
+ *
+ * The engine model is invented (no real engine): torque is a smooth hump,
+ *   T(rpm) = peakTorque · (1 − falloff · ((rpm − peakTorqueRpm) / 1000)²),
+ * and power follows from hp = lb·ft × rpm / 5252.113. A run is a steady lead-in at the start
+ * rpm, a linear sweep to the end rpm, and a throttle-off deceleration tail.
+ */
+import { HP_TORQUE_CONSTANT, type PowerUnit, type TorqueUnit, hpTo, lbftTo } from '../../server/analysis/units.js';
+
+/** The invented engine: a torque hump. */
+export interface EngineModel {
+  peakTorqueLbft: number;
+  peakTorqueRpm: number;
+  /** Fractional torque loss per (1000 rpm)² away from the peak. */
+  falloff: number;
+}
+
+/** A default invented engine, roughly a large air-cooled V-twin at the wheel. */
+export const DEFAULT_ENGINE: EngineModel = { peakTorqueLbft: 96, peakTorqueRpm: 3400, falloff: 0.035 };
+
+/** Model torque (lb·ft) at an rpm. */
+export function modelTorqueLbft(engine: EngineModel, rpm: number): number {
+  const x = (rpm - engine.peakTorqueRpm) / 1000;
+  return engine.peakTorqueLbft * (1 - engine.falloff * x * x);
+}
+/** Model power (hp) at an rpm. */
+export function modelPowerHp(engine: EngineModel, rpm: number): number {
+  return (modelTorqueLbft(engine, rpm) * rpm) / HP_TORQUE_CONSTANT;
+}
+
+/** Known answers of the model over an rpm range (peaks found by dense 0.5-rpm evaluation). */
+export function modelPeaks(engine: EngineModel, fromRpm: number, toRpm: number): { peakPower: { hp: number; rpm: number }; peakTorque: { lbft: number; rpm: number } } {
+  let bestP = { hp: -Infinity, rpm: fromRpm };
+  let bestT = { lbft: -Infinity, rpm: fromRpm };
+  for (let r = fromRpm; r <= toRpm; r += 0.5) {
+    const p = modelPowerHp(engine, r);
+    const t = modelTorqueLbft(engine, r);
+    if (p > bestP.hp) bestP = { hp: p, rpm: r };
+    if (t > bestT.lbft) bestT = { lbft: t, rpm: r };
+  }
+  return { peakPower: bestP, peakTorque: bestT };
+}
+
+/** Seeded PRNG (mulberry32) with a Gaussian helper. */
+export function createRandom(seed: number): { next: () => number; gaussian: (sd?: number) => number } {
+  let a = seed >>> 0;
+  const next = () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+  const gaussian = (sd = 1) => {
+    const u = Math.max(next(), 1e-12);
+    const v = next();
+    return sd * Math.sqrt(-2 * Math.log(u)) * Math.cos(2 * Math.PI * v);
+  };
+  return { next, gaussian };
+}
+
+/** Options of a synthetic run. */
+export interface SyntheticRunOptions {
+  seed?: number;
+  engine?: Partial<EngineModel>;
+  startRpm?: number;
+  endRpm?: number;
+  /** Sweep rate, rpm per second. */
+  sweepRate?: number;
+  /** Samples per second (ignored when `totalRows` is given). */
+  sampleHz?: number;
+  /** Exact number of rows wanted (sets the sample rate). */
+  totalRows?: number;
+  /** Seconds of steady running at the start rpm before the sweep. */
+  leadInSeconds?: number;
+  /** Seconds of throttle-off deceleration after the sweep. */
+  tailSeconds?: number;
+  /** Standard deviation of rpm noise. */
+  rpmNoise?: number;
+  /** Standard deviation of torque noise, lb·ft. */
+  torqueNoise?: number;
+  /** Number of AFR channels (front, rear …). */
+  afrChannels?: number;
+  /** Overall scale applied to torque (e.g. 1.06 for a 6 % gain). */
+  gain?: number;
+}
+
+/** One sample row, always in lb·ft / hp / mph internally. */
+export interface SyntheticSample {
+  time: number;
+  rpm: number;
+  torqueLbft: number;
+  powerHp: number;
+  speedMph: number;
+  afr: number[];
+  manifoldKpa: number;
+  intakeAirC: number;
+}
+
+/** A generated run with its known answers. */
+export interface SyntheticRun {
+  samples: SyntheticSample[];
+  engine: EngineModel;
+  /** Indices of the first and last sweep sample, and the model's peaks over the sweep. */
+  truth: {
+    sweepStart: number;
+    sweepEnd: number;
+    startRpm: number;
+    endRpm: number;
+    peakPower: { hp: number; rpm: number };
+    peakTorque: { lbft: number; rpm: number };
+  };
+}
+
+function resolved(o: SyntheticRunOptions) {
+  const engine = { ...DEFAULT_ENGINE, ...o.engine };
+  const startRpm = o.startRpm ?? 2000;
+  const endRpm = o.endRpm ?? 5800;
+  const sweepRate = o.sweepRate ?? 500;
+  const leadIn = o.leadInSeconds ?? 2;
+  const tail = o.tailSeconds ?? 1.5;
+  const sweepSeconds = (endRpm - startRpm) / sweepRate;
+  const totalSeconds = leadIn + sweepSeconds + tail;
+  const sampleHz = o.totalRows ? o.totalRows / totalSeconds : (o.sampleHz ?? 20);
+  const totalRows = o.totalRows ?? Math.round(totalSeconds * sampleHz);
+  return {
+    seed: o.seed ?? 1,
+    engine,
+    startRpm,
+    endRpm,
+    sweepRate,
+    leadIn,
+    tail,
+    sweepSeconds,
+    sampleHz,
+    totalRows,
+    rpmNoise: o.rpmNoise ?? 4,
+    torqueNoise: o.torqueNoise ?? 0.25,
+    afrChannels: o.afrChannels ?? 2,
+    gain: o.gain ?? 1,
+  };
+}
+
+/**
+ * Samples of a run, generated one at a time (so very large files need no big arrays). The
+ * sample count is known in advance: `syntheticRowCount(options)`.
+ */
+export function* syntheticSamples(options: SyntheticRunOptions = {}): Generator<SyntheticSample> {
+  const o = resolved(options);
+  const rnd = createRandom(o.seed);
+  for (let i = 0; i < o.totalRows; i++) {
+    const t = i / o.sampleHz;
+    let rpm: number;
+    let throttle = true;
+    if (t < o.leadIn) rpm = o.startRpm;
+    else if (t < o.leadIn + o.sweepSeconds) rpm = o.startRpm + (t - o.leadIn) * o.sweepRate;
+    else {
+      rpm = Math.max(1000, o.endRpm - (t - o.leadIn - o.sweepSeconds) * o.sweepRate * 2);
+      throttle = false;
+    }
+    const noisyRpm = rpm + rnd.gaussian(o.rpmNoise);
+    const torque = throttle
+      ? (t < o.leadIn ? 0.35 : 1) * o.gain * modelTorqueLbft(o.engine, rpm) + rnd.gaussian(o.torqueNoise)
+      : -4 + rnd.gaussian(o.torqueNoise);
+    const afr = Array.from({ length: o.afrChannels }, (_, k) => (throttle ? 13.1 + 0.2 * k : 15.5) + rnd.gaussian(0.05));
+    yield {
+      time: t,
+      rpm: noisyRpm,
+      torqueLbft: torque,
+      powerHp: (torque * noisyRpm) / HP_TORQUE_CONSTANT,
+      speedMph: noisyRpm / 46,
+      afr,
+      manifoldKpa: throttle ? 98 : 30,
+      intakeAirC: 28 + 0.001 * i,
+    };
+  }
+}
+
+/** Number of samples `syntheticSamples(options)` yields. */
+export function syntheticRowCount(options: SyntheticRunOptions = {}): number {
+  return resolved(options).totalRows;
+}
+
+/** Generates a whole run with known answers. */
+export function syntheticRun(options: SyntheticRunOptions = {}): SyntheticRun {
+  const o = resolved(options);
+  const samples = [...syntheticSamples(options)];
+  const sweepStart = Math.ceil(o.leadIn * o.sampleHz);
+  const sweepEnd = Math.min(samples.length - 1, Math.floor((o.leadIn + o.sweepSeconds) * o.sampleHz));
+  const scaled = { ...o.engine, peakTorqueLbft: o.engine.peakTorqueLbft * o.gain };
+  return { samples, engine: scaled, truth: { sweepStart, sweepEnd, startRpm: o.startRpm, endRpm: o.endRpm, ...modelPeaks(scaled, o.startRpm, o.endRpm) } };
+}
+
+/** Columns a file may carry. */
+export type SyntheticColumn = 'time' | 'rpm' | 'torque' | 'power' | 'speed' | 'afr' | 'lambda' | 'map' | 'iat';
+
+/** How a run is written to a file. */
+export interface RunFileFormat {
+  delimiter?: ',' | ';' | '\t' | '|';
+  /** Decimal comma (only sensible with a delimiter other than comma). */
+  decimalComma?: boolean;
+  lineEnding?: '\n' | '\r\n' | '\r';
+  encoding?: 'utf-8' | 'utf-8-bom' | 'utf-16le' | 'utf-16be' | 'latin1';
+  /** Header style: units in brackets, in parentheses, abbreviated names, a units-only second row, or no header. */
+  headerStyle?: 'brackets' | 'parentheses' | 'abbreviated' | 'units-row' | 'none';
+  torqueUnit?: TorqueUnit;
+  powerUnit?: PowerUnit;
+  /** Columns in order (default time, rpm, torque, power, afr). */
+  columns?: SyntheticColumn[];
+  /** Preamble style. */
+  preamble?: 'colon' | 'delimited' | 'none';
+  conditions?: { temperatureC?: number; baroKpa?: number; humidityPct?: number; date?: string; operator?: string; notes?: string };
+  /** Write numbers ≥ 1000 as quoted thousands ("5,012"); comma delimiter only. */
+  quoteThousands?: boolean;
+  /** Decimals written for torque and power. */
+  decimals?: number;
+  /** Label the torque/power columns with these units while writing the values in `torqueUnit`/`powerUnit` (simulates a mix-up). */
+  labelTorqueUnit?: TorqueUnit;
+  labelPowerUnit?: PowerUnit;
+}
+
+const UNIT_LABEL: Record<string, Record<string, string>> = {
+  brackets: { lbft: 'lb-ft', nm: 'Nm', kgfm: 'kgm', hp: 'hp', kw: 'kW', ps: 'PS' },
+  parentheses: { lbft: 'ft-lb', nm: 'N·m', kgfm: 'kgf·m', hp: 'hp', kw: 'kW', ps: 'PS' },
+  abbreviated: { lbft: 'ftlb', nm: 'nm', kgfm: 'kgm', hp: 'hp', kw: 'kw', ps: 'ps' },
+};
+
+function headerCells(columns: SyntheticColumn[], f: Required<Pick<RunFileFormat, 'headerStyle'>> & RunFileFormat, afrChannels: number): { names: string[]; units: string[] } {
+  const tu = f.labelTorqueUnit ?? f.torqueUnit ?? 'lbft';
+  const pu = f.labelPowerUnit ?? f.powerUnit ?? 'hp';
+  const style = f.headerStyle === 'units-row' || f.headerStyle === 'none' ? 'brackets' : f.headerStyle;
+  const L = UNIT_LABEL[style];
+  const names: string[] = [];
+  const units: string[] = [];
+  const side = ['Front', 'Rear', 'Third', 'Fourth'];
+  for (const c of columns) {
+    const push = (name: string, unit: string, abbr: string) => {
+      if (f.headerStyle === 'abbreviated') names.push(abbr);
+      else if (f.headerStyle === 'units-row') names.push(name);
+      else names.push(unit ? (style === 'brackets' ? `${name} [${unit}]` : `${name} (${unit})`) : name);
+      units.push(unit || '-');
+    };
+    if (c === 'time') push('Time', 's', 'time');
+    else if (c === 'rpm') push(f.headerStyle === 'parentheses' ? 'Engine RPM' : 'Engine Speed', 'rpm', 'rpm');
+    else if (c === 'torque') push('Torque', L[tu], `tq_${UNIT_LABEL.abbreviated[tu]}`);
+    else if (c === 'power') push('Power', L[pu], UNIT_LABEL.abbreviated[pu]);
+    else if (c === 'speed') push('Road Speed', 'mph', 'mph');
+    else if (c === 'map') push('MAP', 'kPa', 'map_kpa');
+    else if (c === 'iat') push('IAT', '°C', 'iat');
+    else if (c === 'afr') for (let k = 0; k < afrChannels; k++) push(`AFR ${side[k] ?? k + 1}`, 'AFR', `afr${k + 1}`);
+    else if (c === 'lambda') for (let k = 0; k < afrChannels; k++) push(`Lambda ${side[k] ?? k + 1}`, 'λ', `lambda${k + 1}`);
+  }
+  return { names, units };
+}
+
+function formatNumber(v: number, decimals: number, f: RunFileFormat): string {
+  let s = v.toFixed(decimals);
+  if (f.quoteThousands && Math.abs(v) >= 1000) {
+    const [int, frac] = s.split('.');
+    s = `"${int.replace(/\B(?=(\d{3})+(?!\d))/g, ',')}${frac ? `.${frac}` : ''}"`;
+  }
+  if (f.decimalComma) s = s.replace('.', ',');
+  return s;
+}
+
+function preambleLines(f: RunFileFormat): string[] {
+  const c = f.conditions ?? {};
+  if (!f.preamble || f.preamble === 'none') return [];
+  const d = f.delimiter ?? ',';
+  const num = (v: number) => (f.decimalComma ? String(v).replace('.', ',') : String(v));
+  const entries: [string, string, string][] = [];
+  entries.push(['Pullbook synthetic run', '', '']);
+  if (c.date) entries.push(['Date', c.date, '']);
+  if (c.operator) entries.push(['Operator', c.operator, '']);
+  if (c.temperatureC !== undefined) entries.push(['Ambient temperature', num(c.temperatureC), '°C']);
+  if (c.baroKpa !== undefined) entries.push(['Barometric pressure', num(c.baroKpa), 'kPa']);
+  if (c.humidityPct !== undefined) entries.push(['Relative humidity', num(c.humidityPct), '%']);
+  if (c.notes) entries.push(['Notes', c.notes, '']);
+  return entries.map(([k, v, u]) => {
+    if (!v) return k;
+    if (f.preamble === 'colon') return `${k}: ${v}${u ? ` ${u}` : ''}`;
+    return [k, v, u].filter(Boolean).join(d);
+  });
+}
+
+/** Header and preamble lines of a file (everything before the data rows). */
+export function renderFileHead(format: RunFileFormat = {}, afrChannels = 2): string[] {
+  const f = { headerStyle: 'brackets' as const, ...format };
+  const d = f.delimiter ?? ',';
+  const columns = f.columns ?? ['time', 'rpm', 'torque', 'power', 'afr'];
+  const lines = preambleLines(f);
+  if (f.headerStyle !== 'none') {
+    const { names, units } = headerCells(columns, f, afrChannels);
+    lines.push(names.join(d));
+    if (f.headerStyle === 'units-row') lines.push(units.join(d));
+  }
+  return lines;
+}
+
+/** One data row as text. */
+export function renderSample(s: SyntheticSample, format: RunFileFormat = {}): string {
+  const d = format.delimiter ?? ',';
+  const columns = format.columns ?? ['time', 'rpm', 'torque', 'power', 'afr'];
+  const dec = format.decimals ?? 2;
+  const tu = format.torqueUnit ?? 'lbft';
+  const pu = format.powerUnit ?? 'hp';
+  const out: string[] = [];
+  for (const c of columns) {
+    if (c === 'time') out.push(formatNumber(s.time, 3, format));
+    else if (c === 'rpm') out.push(formatNumber(s.rpm, 0, format));
+    else if (c === 'torque') out.push(formatNumber(lbftTo(s.torqueLbft, tu), dec, format));
+    else if (c === 'power') out.push(formatNumber(hpTo(s.powerHp, pu), dec, format));
+    else if (c === 'speed') out.push(formatNumber(s.speedMph, 1, format));
+    else if (c === 'map') out.push(formatNumber(s.manifoldKpa, 1, format));
+    else if (c === 'iat') out.push(formatNumber(s.intakeAirC, 1, format));
+    else if (c === 'afr') for (const a of s.afr) out.push(formatNumber(a, 2, format));
+    else if (c === 'lambda') for (const a of s.afr) out.push(formatNumber(a / 14.7, 3, format));
+  }
+  return out.join(d);
+}
+
+/** Encodes text in one of the supported encodings. */
+export function encodeText(text: string, encoding: RunFileFormat['encoding'] = 'utf-8'): Uint8Array {
+  if (encoding === 'utf-8') return new TextEncoder().encode(text);
+  if (encoding === 'utf-8-bom') {
+    const body = new TextEncoder().encode(text);
+    const out = new Uint8Array(body.length + 3);
+    out.set([0xef, 0xbb, 0xbf]);
+    out.set(body, 3);
+    return out;
+  }
+  if (encoding === 'latin1') return Uint8Array.from(text, (ch) => (ch.charCodeAt(0) < 256 ? ch.charCodeAt(0) : 0x3f));
+  const out = new Uint8Array(2 + text.length * 2);
+  const le = encoding === 'utf-16le';
+  out[0] = le ? 0xff : 0xfe;
+  out[1] = le ? 0xfe : 0xff;
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    out[2 + 2 * i] = le ? c & 0xff : c >> 8;
+    out[3 + 2 * i] = le ? c >> 8 : c & 0xff;
+  }
+  return out;
+}
+
+/** Renders a run as a complete file: text and encoded bytes. */
+export function renderRunFile(run: SyntheticRun, format: RunFileFormat = {}): { text: string; bytes: Uint8Array } {
+  const eol = format.lineEnding ?? '\n';
+  const lines = renderFileHead(format, run.samples[0]?.afr.length ?? 0);
+  for (const s of run.samples) lines.push(renderSample(s, format));
+  const text = lines.join(eol) + eol;
+  return { text, bytes: encodeText(text, format.encoding) };
+}
+
+/** Convenience: generate a run and render it in one call. */
+export function syntheticRunFile(options: SyntheticRunOptions = {}, format: RunFileFormat = {}): { run: SyntheticRun; text: string; bytes: Uint8Array } {
+  const run = syntheticRun(options);
+  return { run, ...renderRunFile(run, format) };
+}
+
+/**
+ * Text chunks of a large file of about `targetBytes` (UTF-8, ASCII only), produced lazily for
+ * benches and stress tests: a long, densely sampled run in the default bracket format.
+ */
+export function* largeRunFileChunks(targetBytes: number, options: SyntheticRunOptions = {}, format: RunFileFormat = {}): Generator<string> {
+  const eol = format.lineEnding ?? '\n';
+  const probe = [...syntheticSamples({ ...options, totalRows: 200 })].map((s) => renderSample(s, format).length + eol.length);
+  const bytesPerRow = probe.reduce((a, b) => a + b, 0) / probe.length;
+  const totalRows = Math.max(10, Math.floor(targetBytes / bytesPerRow));
+  yield renderFileHead(format, options.afrChannels ?? 2).join(eol) + eol;
+  let buf: string[] = [];
+  for (const s of syntheticSamples({ ...options, totalRows })) {
+    buf.push(renderSample(s, format));
+    if (buf.length === 5000) {
+      yield buf.join(eol) + eol;
+      buf = [];
+    }
+  }
+  if (buf.length) yield buf.join(eol) + eol;
+}
