@@ -36,11 +36,15 @@ function classifyKey(name: string): Field | undefined {
 }
 
 /** Splits a preamble line into key, value and an optional unit. */
-function splitKeyValue(text: string, delimiter: string): { key: string; value: string; unit: string } | null {
+function splitKeyValue(text: string, delimiter: string): { key: string; value: string; unit: string; rest: string } | null {
   const colon = /^\s*([^:=;,\t|]{1,60}?)\s*[:=]\s*(.*)$/.exec(text);
-  if (colon) return { key: colon[1], value: colon[2].trim(), unit: '' };
+  if (colon) return { key: colon[1], value: colon[2].trim(), unit: '', rest: colon[2].trim() };
   const cells = splitFields(text, delimiter).filter((c) => c.length > 0);
-  if (cells.length >= 2 && !/^[+-]?[\d.,]+$/.test(cells[0])) return { key: cells[0], value: cells[1], unit: cells[2] ?? '' };
+  if (cells.length >= 2 && !/^[+-]?[\d.,]+$/.test(cells[0])) {
+    // Free text (notes) may itself contain the delimiter: keep everything after the key.
+    const rest = text.slice(text.indexOf(delimiter) + 1).trim().replace(/^"|"$/g, '');
+    return { key: cells[0], value: cells[1], unit: cells[2] ?? '', rest };
+  }
   return null;
 }
 
@@ -81,7 +85,9 @@ export function parsePreamble(lines: SourceLine[], delimiter: string, decimalCom
       else out[name.replace(/ /g, '_')] = kv.value;
     } else if (field === 'humidity' && Number.isFinite(n)) {
       out.humidityPct = n <= 1 && !unit.includes('%') && !kv.value.includes('%') ? n * 100 : n;
-    } else if (field === 'date' || field === 'operator' || field === 'notes') {
+    } else if (field === 'notes') {
+      out.notes = kv.rest;
+    } else if (field === 'date' || field === 'operator') {
       out[field] = kv.value;
     } else if (name.length > 0) {
       out[name.replace(/ /g, '_')] = kv.value;

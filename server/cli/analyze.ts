@@ -1,0 +1,65 @@
+/**
+ * `npm run --silent analyze -- [--json] [options] FILE...` — analyses run files.
+ * JSON: an array with one object per file (shape fixed by issue 3); exit 1 when any file failed.
+ */
+import { analyzeFile } from '../analysis/analyze-file.js';
+import type { AnalysisResult } from '../analysis/analyze.js';
+import { AnalysisError } from '../analysis/errors.js';
+import { failureSummary, installCrashGuard, parseCliArgs, round, successSummary } from '../analysis/cli-support.js';
+
+const USAGE = `Usage: analyze [--json] [--curve] [--grid 50] [--smooth N] [--correction none|sae-j1349|sae-j1349-1990|iso-1585|din-70020|sae-j607]
+               [--temp C] [--baro kPa] [--humidity %] [--map JSON] FILE...`;
+
+function tableLine(file: string, r: AnalysisResult): string {
+  const check = r.identity.status === 'derived' ? 'derived' : `${r.identity.status} (max ${r.identity.maxDeviationPct.toFixed(1)} %)`;
+  return [
+    file.padEnd(32),
+    `${r.peakPower.hp.toFixed(1)} hp @ ${r.peakPower.rpm}`.padEnd(20),
+    `${r.peakTorque.lbft.toFixed(1)} lb·ft @ ${r.peakTorque.rpm}`.padEnd(24),
+    `${r.rpmRange[0]}–${r.rpmRange[1]}`.padEnd(12),
+    check.padEnd(20),
+    `${r.correction.standard} ×${round(r.correction.factor, 4)}`,
+  ].join(' ');
+}
+
+async function main(): Promise<number> {
+  installCrashGuard();
+  let args;
+  try {
+    args = parseCliArgs(process.argv.slice(2));
+  } catch (e) {
+    process.stderr.write(`${e instanceof Error ? e.message : String(e)}\n${USAGE}\n`);
+    return 2;
+  }
+  if (args.help || args.files.length === 0) {
+    (args.help ? process.stdout : process.stderr).write(`${USAGE}\n`);
+    return args.help ? 0 : 2;
+  }
+  const summaries: Record<string, unknown>[] = [];
+  let failed = false;
+  if (!args.json) {
+    process.stdout.write(`${'File'.padEnd(32)} ${'Peak power'.padEnd(20)} ${'Peak torque'.padEnd(24)} ${'rpm range'.padEnd(12)} ${'Cross-check'.padEnd(20)} Correction\n`);
+  }
+  for (const file of args.files) {
+    try {
+      const r = await analyzeFile(file, args.options);
+      summaries.push(successSummary(file, r, args.curve));
+      if (!args.json) {
+        process.stdout.write(`${tableLine(file, r)}\n`);
+        for (const w of r.warnings) process.stdout.write(`    ! ${w.code}: ${w.message}\n`);
+      }
+    } catch (e) {
+      failed = true;
+      summaries.push(failureSummary(file, e));
+      if (!args.json) {
+        const err = e instanceof AnalysisError ? e : new AnalysisError('READ_FAILED', 'The file could not be read.');
+        const where = err.line !== undefined ? ` (line ${err.line})` : '';
+        process.stdout.write(`${file.padEnd(32)} FAILED ${err.code}: ${err.message}${where}\n`);
+      }
+    }
+  }
+  if (args.json) process.stdout.write(`${JSON.stringify(summaries, null, 2)}\n`);
+  return failed ? 1 : 0;
+}
+
+process.exitCode = await main();
