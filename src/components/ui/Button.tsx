@@ -1,9 +1,9 @@
 import type { ComponentProps, ReactNode } from 'react';
 import { cn } from './cn';
 import { Spinner } from './Spinner';
+import { buttonBaseClass, buttonSizeClass, buttonVariantClass, type ButtonSize, type ButtonVariant } from './styles';
 
-export type ButtonVariant = 'primary' | 'secondary' | 'ghost' | 'danger';
-export type ButtonSize = 'sm' | 'md' | 'lg';
+export type { ButtonSize, ButtonVariant };
 
 export interface ButtonProps extends ComponentProps<'button'> {
   variant?: ButtonVariant;
@@ -19,24 +19,6 @@ export interface ButtonProps extends ComponentProps<'button'> {
   iconAfter?: ReactNode;
   fullWidth?: boolean;
 }
-
-export const buttonVariantClass: Record<ButtonVariant, string> = {
-  primary: 'bg-accent text-white hover:bg-accent-hover active:bg-accent-active border border-transparent',
-  secondary: 'bg-paper-raised text-ink border border-line-strong hover:bg-paper-sunk active:bg-line',
-  ghost: 'bg-transparent text-ink border border-transparent hover:bg-paper-sunk active:bg-line',
-  danger: 'bg-loss text-white hover:bg-loss-hover border border-transparent',
-};
-
-export const buttonSizeClass: Record<ButtonSize, string> = {
-  sm: 'min-h-10 px-3 text-sm gap-1.5',
-  md: 'min-h-11 px-4 text-base gap-2',
-  lg: 'min-h-12 px-5 text-lg gap-2',
-};
-
-export const buttonBaseClass =
-  'inline-flex items-center justify-center rounded-control font-semibold select-none whitespace-nowrap ' +
-  'transition-colors focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-focus ' +
-  'disabled:cursor-not-allowed disabled:opacity-55 aria-busy:cursor-progress';
 
 export function Button({
   variant = 'secondary',

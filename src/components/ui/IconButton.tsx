@@ -1,7 +1,7 @@
 import type { ComponentProps, ReactNode } from 'react';
-import { buttonBaseClass, buttonVariantClass, type ButtonVariant } from './Button';
 import { cn } from './cn';
 import { Spinner } from './Spinner';
+import { buttonBaseClass, buttonVariantClass, type ButtonVariant } from './styles';
 
 export interface IconButtonProps extends Omit<ComponentProps<'button'>, 'children'> {
   /** Accessible name, also shown as a tooltip. Required: an icon alone has no name. */

@@ -1,15 +1,7 @@
 /** Pullbook's shared UI kit. Features import from '@/components/ui', never from single files. */
 export { cn, type ClassValue } from './cn';
 export { Icon, type IconName, type IconProps } from './Icon';
-export {
-  Button,
-  buttonBaseClass,
-  buttonSizeClass,
-  buttonVariantClass,
-  type ButtonProps,
-  type ButtonSize,
-  type ButtonVariant,
-} from './Button';
+export { Button, type ButtonProps, type ButtonSize, type ButtonVariant } from './Button';
 export { IconButton, type IconButtonProps } from './IconButton';
 export { Spinner, type SpinnerProps } from './Spinner';
 
@@ -51,4 +43,4 @@ export { DropZone, type DropZoneProps } from './DropZone';
 export { fileMatchesAccept, mergeFiles, type FileRejection, type FileRejectionReason } from './file-accept';
 export { SearchInput, type SearchInputProps } from './SearchInput';
 export { useDebouncedValue } from './useDebouncedValue';
-export { controlClass, toneSoftClass, type Tone } from './styles';
+export { buttonBaseClass, buttonSizeClass, buttonVariantClass, controlClass, toneSoftClass, type Tone } from './styles';
