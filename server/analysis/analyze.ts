@@ -14,7 +14,7 @@ import { type Layout, detectLayout } from './layout.js';
 import { type Conditions, parsePreamble } from './preamble.js';
 import { resampleToGrid } from './resample.js';
 import { smoothSavitzkyGolay } from './smoothing.js';
-import { findSweep } from './sweep.js';
+import { findSweep, trimThrottleEdges } from './sweep.js';
 import { RowCollector, csvOptions } from './table.js';
 import {
   GASOLINE_STOICH_AFR,
@@ -152,6 +152,11 @@ export function finishAnalysis(collector: RowCollector, prepared: PreparedRead, 
       column: plan.cells[plan.rpm].original,
     });
   }
+  // Drop part-throttle points at the sweep's edges (end of the lead-in, the throttle-off moment).
+  const rawLoad = plan.torque ? collector.torque.view() : collector.power.view();
+  const edges = trimThrottleEdges(rawLoad.subarray(sweep.start, sweep.end + 1));
+  sweep.end = sweep.start + edges.to - 1;
+  sweep.start += edges.from;
   const count = sweep.end - sweep.start + 1;
   if (count < MIN_POINTS) throw new AnalysisError('TOO_FEW_POINTS', `The sweep has only ${count} data points; at least ${MIN_POINTS} are needed.`);
 

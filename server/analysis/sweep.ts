@@ -53,3 +53,26 @@ export function findSweep(rpm: ArrayLike<number>, n = rpm.length): SweepRange | 
   for (let i = b.start; i <= b.maxIdx; i++) if (rpm[i] <= b.minBefore + tol) sweepStart = i;
   return { start: sweepStart, end: b.maxIdx, riseRpm: b.gain };
 }
+
+function medianOfRange(v: ArrayLike<number>, from: number, to: number): number {
+  const s = Array.from({ length: to - from }, (_, i) => v[from + i]).sort((a, b) => a - b);
+  return s.length ? s[s.length >> 1] : NaN;
+}
+
+/**
+ * Trims part-throttle points at the edges of a sweep: the last lead-in samples and the
+ * throttle-off moment at the top, where rpm is still in the sweep but the load has collapsed.
+ * `load` is torque (or power) per sweep point. Returns the kept index range [from, to).
+ */
+export function trimThrottleEdges(load: ArrayLike<number>): { from: number; to: number } {
+  const n = load.length;
+  const edge = Math.max(3, Math.floor(n * 0.2));
+  if (n < 2 * edge) return { from: 0, to: n };
+  const refStart = medianOfRange(load, 0, edge);
+  const refEnd = medianOfRange(load, n - edge, n);
+  let from = 0;
+  let to = n;
+  while (from < edge && !(load[from] >= 0.7 * refStart)) from++;
+  while (to > n - edge && !(load[to - 1] >= 0.7 * refEnd)) to--;
+  return { from, to };
+}
