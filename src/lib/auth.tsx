@@ -1,0 +1,79 @@
+import { createContext, useContext, type ReactNode } from 'react';
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { Role } from '@shared/roles';
+import { api, ApiError } from './api-client';
+
+export interface CurrentUser {
+  id: string;
+  shopId: string;
+  role: Role;
+  email: string;
+  name: string;
+  customerId: string | null;
+}
+
+interface AuthState {
+  user: CurrentUser | null;
+  isLoading: boolean;
+  signIn(email: string, password: string): Promise<CurrentUser>;
+  signOut(): Promise<void>;
+  setUser(user: CurrentUser): void;
+}
+
+const AuthContext = createContext<AuthState | null>(null);
+export const meQueryKey = ['auth', 'me'] as const;
+
+export function AuthProvider({ children }: { children: ReactNode }) {
+  const qc = useQueryClient();
+  const me = useQuery({
+    queryKey: meQueryKey,
+    queryFn: async () => {
+      try {
+        return await api.get<CurrentUser>('/api/auth/me');
+      } catch (e) {
+        if (e instanceof ApiError && e.status === 401) return null;
+        throw e;
+      }
+    },
+    staleTime: 5 * 60_000,
+  });
+  const login = useMutation({
+    mutationFn: (v: { email: string; password: string }) => api.post<{ user: CurrentUser }>('/api/auth/login', v),
+  });
+  const state: AuthState = {
+    user: me.data ?? null,
+    isLoading: me.isLoading,
+    async signIn(email, password) {
+      const { user } = await login.mutateAsync({ email, password });
+      qc.clear();
+      qc.setQueryData(meQueryKey, user);
+      return user;
+    },
+    async signOut() {
+      await api.post('/api/auth/logout').catch(() => undefined);
+      qc.clear();
+      qc.setQueryData(meQueryKey, null);
+    },
+    setUser(user) {
+      qc.setQueryData(meQueryKey, user);
+    },
+  };
+  return <AuthContext.Provider value={state}>{children}</AuthContext.Provider>;
+}
+
+export function useAuth(): AuthState {
+  const ctx = useContext(AuthContext);
+  if (!ctx) throw new Error('useAuth outside AuthProvider');
+  return ctx;
+}
+
+/** The signed-in user; only for components rendered inside the signed-in shell. */
+export function useCurrentUser(): CurrentUser {
+  const { user } = useAuth();
+  if (!user) throw new Error('useCurrentUser needs a signed-in user');
+  return user;
+}
+
+export function hasRole(user: CurrentUser | null, roles: readonly Role[]) {
+  return Boolean(user && roles.includes(user.role));
+}
