@@ -20,6 +20,7 @@ export {
 export { type NormalizedCurve, type Peaks, applyCorrection, peaksOf } from './curve.js';
 export { type CompareOptions, type ComparisonFigures, type Repeatability, compareCurves, repeatability, integrate } from './compare.js';
 export { savitzkyGolayCoefficients, smoothSavitzkyGolay } from './smoothing.js';
+export { IDENTITY_TOLERANCE_PCT, identityStats } from './identity.js';
 export {
   type AnalysisResult,
   type AnalyzeOptions,

@@ -1,0 +1,58 @@
+import { describe, it } from 'vitest';
+import fc from 'fast-check';
+import { AnalysisError, analyzeBuffer } from '@server/analysis/index';
+import { type RunFileFormat, syntheticRunFile } from '../../support/synthetic-runs';
+
+function resultOrTypedError(bytes: Uint8Array): boolean {
+  try {
+    const r = analyzeBuffer(bytes);
+    return r.ok === true && Number.isFinite(r.peakPower.hp) && r.curve.rpm.length >= 5;
+  } catch (e) {
+    return e instanceof AnalysisError && typeof e.code === 'string' && e.message.length > 0;
+  }
+}
+
+describe('property: any input gives a result or a typed error', () => {
+  it('arbitrary bytes', () => {
+    fc.assert(fc.property(fc.uint8Array({ maxLength: 4096 }), resultOrTypedError), { numRuns: 300 });
+  });
+
+  it('arbitrary text made of table-like characters', () => {
+    const chars = fc.constantFrom(...'0123456789.,;|\t\n\r-" eE:abcRPMTorquePowerhpNm[]()'.split(''));
+    fc.assert(fc.property(fc.array(chars, { maxLength: 3000 }).map((a) => new TextEncoder().encode(a.join(''))), resultOrTypedError), { numRuns: 300 });
+  });
+
+  it('corrupted real files (bytes flipped, truncated)', () => {
+    const base = syntheticRunFile({ seed: 4 }).bytes;
+    fc.assert(
+      fc.property(fc.array(fc.tuple(fc.nat(base.length - 1), fc.integer({ min: 0, max: 255 })), { maxLength: 30 }), fc.nat(base.length), (edits, cut) => {
+        const b = base.slice(0, Math.max(cut, 1));
+        for (const [i, v] of edits) if (i < b.length) b[i] = v;
+        return resultOrTypedError(b);
+      }),
+      { numRuns: 200 },
+    );
+  });
+
+  it('every generated format is read with the model’s peak power (within 1 %)', () => {
+    const format = fc.record({
+      delimiter: fc.constantFrom(',', ';', '\t', '|'),
+      lineEnding: fc.constantFrom('\n', '\r\n', '\r'),
+      encoding: fc.constantFrom('utf-8', 'utf-8-bom', 'utf-16le', 'utf-16be', 'latin1'),
+      headerStyle: fc.constantFrom('brackets', 'parentheses', 'abbreviated', 'units-row'),
+      torqueUnit: fc.constantFrom('lbft', 'nm', 'kgfm'),
+      powerUnit: fc.constantFrom('hp', 'kw', 'ps'),
+      preamble: fc.constantFrom('colon', 'delimited', 'none'),
+      decimalComma: fc.boolean(),
+    });
+    fc.assert(
+      fc.property(format, fc.integer({ min: 1, max: 10_000 }), (f, seed) => {
+        const fmt = { ...f, decimalComma: f.delimiter !== ',' && f.decimalComma, conditions: { temperatureC: 21, baroKpa: 100 } } as RunFileFormat;
+        const { run, bytes } = syntheticRunFile({ seed, torqueNoise: 0.05 }, fmt);
+        const r = analyzeBuffer(bytes);
+        return Math.abs(r.peakPower.hp / run.truth.peakPower.hp - 1) < 0.01 && r.identity.status === 'ok';
+      }),
+      { numRuns: 60 },
+    );
+  });
+});
