@@ -1,0 +1,45 @@
+import { Suspense } from 'react';
+import { createBrowserRouter, RouterProvider, type RouteObject } from 'react-router-dom';
+import { LoadingState } from '@/components/ui';
+import { AppShell } from './shell/AppShell';
+import { RequireAuth } from './shell/RequireAuth';
+import { NotFoundPage, RouteErrorPage } from './shell/RouteError';
+import { authRoutes, accountRoutes } from '@/features/auth/routes';
+import { homeRoutes } from '@/features/home/routes';
+import { customerRoutes } from '@/features/customers/routes';
+import { bikeRoutes } from '@/features/bikes/routes';
+import { adminRoutes } from '@/features/admin/routes';
+import { runRoutes } from '@/features/runs/routes';
+import { comparisonRoutes } from '@/features/comparisons/routes';
+import { publicReportRoutes, reportRoutes } from '@/features/reports/routes';
+import { finderRoutes } from '@/features/finder/routes';
+
+/**
+ * Every screen. Each feature lists its own routes (components lazy-loaded inside them); this
+ * file only decides which need a signed-in user and the app shell.
+ */
+const routes: RouteObject[] = [
+  ...authRoutes,
+  ...publicReportRoutes,
+  {
+    element: <RequireAuth />,
+    errorElement: <RouteErrorPage />,
+    children: [
+      {
+        element: <AppShell />,
+        errorElement: <RouteErrorPage />,
+        children: [...homeRoutes, ...customerRoutes, ...bikeRoutes, ...runRoutes, ...comparisonRoutes, ...reportRoutes, ...finderRoutes, ...adminRoutes, ...accountRoutes, { path: '*', element: <NotFoundPage /> }],
+      },
+    ],
+  },
+];
+
+const router = createBrowserRouter(routes);
+
+export function AppRouter() {
+  return (
+    <Suspense fallback={<LoadingState message="Loading Pullbook…" />}>
+      <RouterProvider router={router} />
+    </Suspense>
+  );
+}

@@ -1,0 +1,2 @@
+/** What the comparisons feature offers other screens (composed in src/app/routes). */
+export {};
