@@ -3,13 +3,14 @@
  * csv-parse into the row collector, so memory is bounded by the used columns, not the file.
  */
 import { open } from 'node:fs/promises';
-import { Parser } from 'csv-parse';
-import { type AnalysisResult, type AnalyzeOptions, HEAD_CHARS, finishAnalysis, normaliseOptions, prepareRead } from './analyze.js';
+import {
+  type AnalysisResult, type AnalyzeOptions, HEAD_CHARS, createFeeder, estimateRows, finishAnalysis, normaliseOptions, prepareRead, utf8Length,
+} from './analyze.js';
 import { SNIFF_BYTES, createStreamDecoder, detectEncoding } from './decode.js';
 import { AnalysisError, toAnalysisError } from './errors.js';
-import { RowCollector, csvOptions } from './table.js';
+import { RowCollector } from './table.js';
 
-const CHUNK_BYTES = 256 * 1024;
+const CHUNK_BYTES = 128 * 1024;
 
 /** Analyses a file on disk with bounded memory. Rejects with AnalysisError only. */
 export async function analyzeFile(path: string, options: AnalyzeOptions = {}): Promise<AnalysisResult> {
@@ -32,7 +33,9 @@ export async function analyzeFile(path: string, options: AnalyzeOptions = {}): P
     const first = await readChunk();
     if (!first) throw new AnalysisError('EMPTY_FILE', 'The file is empty.');
     const guess = detectEncoding(first.subarray(0, SNIFF_BYTES));
+    const utf8 = guess.encoding === 'utf-8';
     const decoder = createStreamDecoder(guess.encoding);
+    const headBytes: Uint8Array[] = [first.slice(guess.bomLength)];
     let head = decoder.write(first.subarray(guess.bomLength));
     let ended = false;
     while (head.length < HEAD_CHARS && !ended) {
@@ -40,29 +43,35 @@ export async function analyzeFile(path: string, options: AnalyzeOptions = {}): P
       if (!chunk) {
         head += decoder.end();
         ended = true;
-      } else head += decoder.write(chunk);
+      } else {
+        if (utf8) headBytes.push(chunk.slice());
+        head += decoder.write(chunk);
+      }
     }
     const prepared = prepareRead(head, ended, opts);
-    const collector = new RowCollector(prepared.plan, prepared.layout.decimalComma, prepared.layout.dataStartLine - 1);
-    const parser = new Parser(csvOptions(prepared.layout, collector));
-    const done = new Promise<void>((resolve, reject) => {
-      parser.on('error', reject);
-      parser.on('end', resolve);
-    });
-    parser.resume();
-    const write = async (text: string) => {
-      if (text.length > 0 && !parser.write(text)) await new Promise((r) => parser.once('drain', r));
-    };
-    await write(head.slice(prepared.layout.dataStart));
-    while (!ended && !collector.error) {
+    const collector = new RowCollector(prepared.plan, prepared.layout.decimalComma, estimateRows(head, prepared.layout.dataStart, size));
+    const feeder = createFeeder(prepared, collector);
+    const encoder = new TextEncoder();
+    if (utf8) {
+      // Pass UTF-8 bytes through untouched from the first data row.
+      let skip = utf8Length(head.slice(0, prepared.layout.dataStart));
+      for (const b of headBytes) {
+        if (skip >= b.length) {
+          skip -= b.length;
+          continue;
+        }
+        feeder.push(b.subarray(skip));
+        skip = 0;
+      }
+    } else feeder.push(encoder.encode(head.slice(prepared.layout.dataStart)));
+    while (!ended) {
       const chunk = await readChunk();
       if (!chunk) {
-        await write(decoder.end());
+        if (!utf8) feeder.push(encoder.encode(decoder.end()));
         ended = true;
-      } else await write(decoder.write(chunk));
+      } else feeder.push(utf8 ? chunk.slice() : encoder.encode(decoder.write(chunk)));
     }
-    parser.end();
-    await done;
+    feeder.end();
     return finishAnalysis(collector, prepared, opts);
   } catch (e) {
     throw toAnalysisError(e, 'READ_FAILED');

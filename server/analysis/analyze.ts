@@ -3,7 +3,7 @@
  * resampled, smoothed curve → peaks and correction. `analyzeBuffer` works in memory; the
  * streaming `analyzeFile` (analyze-file.ts) shares every step after reading.
  */
-import { parse as parseCsvSync } from 'csv-parse/sync';
+import { BLOCK_BYTES, BlockFeeder } from './blocks.js';
 import { type ColumnMapping, type ColumnPlan, recogniseColumns } from './columns.js';
 import { type CorrectionStandard, correctionFactor, isCorrectionStandard } from './correction.js';
 import { type NormalizedCurve, peaksOf } from './curve.js';
@@ -15,7 +15,7 @@ import { type Conditions, parsePreamble } from './preamble.js';
 import { resampleToGrid } from './resample.js';
 import { smoothSavitzkyGolay } from './smoothing.js';
 import { findSweep, trimThrottleEdges } from './sweep.js';
-import { RowCollector, csvOptions } from './table.js';
+import { MAX_LINE_CHARS, RowCollector, csvOptions } from './table.js';
 import {
   GASOLINE_STOICH_AFR,
   HP_TORQUE_CONSTANT,
@@ -121,22 +121,54 @@ export function analyzeBuffer(bytes: Uint8Array, options: AnalyzeOptions = {}): 
     const guess = detectEncoding(bytes);
     const text = new TextDecoder(guess.encoding, { fatal: false, ignoreBOM: true }).decode(bytes.subarray(guess.bomLength));
     const complete = text.length <= HEAD_CHARS;
-    const prepared = prepareRead(complete ? text : text.slice(0, HEAD_CHARS), complete, opts);
-    const collector = new RowCollector(prepared.plan, prepared.layout.decimalComma, prepared.layout.dataStartLine - 1);
-    parseCsvSync(text.slice(prepared.layout.dataStart), csvOptions(prepared.layout, collector));
+    const head = complete ? text : text.slice(0, HEAD_CHARS);
+    const prepared = prepareRead(head, complete, opts);
+    // csv-parse reads UTF-8 bytes: pass UTF-8 input through untouched, transcode anything else.
+    const data =
+      guess.encoding === 'utf-8'
+        ? bytes.subarray(guess.bomLength + utf8Length(head.slice(0, prepared.layout.dataStart)))
+        : new TextEncoder().encode(text.slice(prepared.layout.dataStart));
+    const collector = new RowCollector(prepared.plan, prepared.layout.decimalComma, estimateRows(head, prepared.layout.dataStart, data.length));
+    const feeder = createFeeder(prepared, collector);
+    for (let i = 0; i < data.length; i += BLOCK_BYTES) feeder.push(data.subarray(i, i + BLOCK_BYTES));
+    feeder.end();
     return finishAnalysis(collector, prepared, opts);
   } catch (e) {
     throw toAnalysisError(e);
   }
 }
 
-function scaleInPlace(values: Float64Array, factor: number): void {
+/** UTF-8 byte length of a string. */
+export function utf8Length(s: string): number {
+  return new TextEncoder().encode(s).length;
+}
+
+/** Rough row count of the data part, from the line density of the sniffed head (to pre-size arrays). */
+export function estimateRows(head: string, dataStart: number, dataBytes: number): number {
+  const sample = head.slice(dataStart, dataStart + 65_536);
+  let lines = 0;
+  for (let i = 0; i < sample.length; i++) if (sample.charCodeAt(i) === 10 || sample.charCodeAt(i) === 13) lines++;
+  if (lines === 0 || sample.length === 0) return 1024;
+  return Math.min(50_000_000, Math.ceil((dataBytes * lines) / utf8Length(sample)));
+}
+
+/** Block feeder wired to a collector: rejected records become errors with their file line. */
+export function createFeeder(prepared: PreparedRead, collector: RowCollector): BlockFeeder {
+  return new BlockFeeder(
+    csvOptions(prepared.layout),
+    (records) => collector.addAll(records),
+    (line) => (collector.pendingError as (line: number) => AnalysisError)(line),
+    prepared.layout.dataStartLine,
+    MAX_LINE_CHARS * 4,
+  );
+}
+
+function scaleInPlace(values: Float32Array | Float64Array, factor: number): void {
   for (let i = 0; i < values.length; i++) values[i] *= factor;
 }
 
 /** Turns collected rows into the result: sweep, cross-check, resampling, smoothing, peaks, correction. */
 export function finishAnalysis(collector: RowCollector, prepared: PreparedRead, options: AnalyzeOptions): AnalysisResult {
-  if (collector.error) throw collector.error;
   const opts = normaliseOptions(options);
   const { plan, layout } = prepared;
   const warnings = [...plan.warnings];

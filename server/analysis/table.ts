@@ -20,45 +20,66 @@ export const MAX_TORQUE_LBFT = 2_000;
 /** Highest plausible power, hp. */
 export const MAX_POWER_HP = 5_000;
 
-/** A Float64Array that grows by doubling. */
+/**
+ * A Float32Array that grows by half again (7 significant digits is ample for dyno channels and
+ * halves memory on large logs). `capacity` pre-sizes it from the expected row count.
+ */
 export class GrowableSeries {
-  private data = new Float64Array(1024);
+  private data: Float32Array;
   length = 0;
+  constructor(capacity = 1024) {
+    this.data = new Float32Array(Math.max(16, capacity));
+  }
   push(v: number): void {
     if (this.length === this.data.length) {
-      const next = new Float64Array(this.data.length * 2);
+      const next = new Float32Array(Math.ceil(this.data.length * 1.5));
       next.set(this.data);
       this.data = next;
     }
     this.data[this.length++] = v;
   }
   /** A view of the filled part (no copy). */
-  view(): Float64Array {
+  view(): Float32Array {
     return this.data.subarray(0, this.length);
   }
 }
 
 /** Accumulates the planned columns of every data record. */
 export class RowCollector {
-  readonly rpm = new GrowableSeries();
-  readonly torque = new GrowableSeries();
-  readonly power = new GrowableSeries();
+  readonly rpm: GrowableSeries;
+  readonly torque: GrowableSeries;
+  readonly power: GrowableSeries;
   readonly afr: GrowableSeries[];
+  /** Records seen so far (for locating a rejected one). */
+  seen = 0;
+  /** Builds the error once the file line of the rejected record is known. */
+  pendingError: ((line: number) => AnalysisError) | null = null;
   /** Records that carried numbers. */
   numericRows = 0;
   /** Records skipped because a used cell was blank. */
   blankRows = 0;
   /** Records with no numbers at all (trailer text, repeated header) — ignored. */
   textRows = 0;
-  error: AnalysisError | null = null;
 
   constructor(
     private readonly plan: ColumnPlan,
     private readonly decimalComma: boolean,
-    /** Added to csv-parse's line numbers to give file line numbers. */
-    private readonly lineOffset: number,
+    expectedRows = 1024,
   ) {
-    this.afr = plan.afr.map(() => new GrowableSeries());
+    const cap = Math.ceil(expectedRows * 1.05);
+    this.rpm = new GrowableSeries(cap);
+    this.torque = new GrowableSeries(plan.torque ? cap : 16);
+    this.power = new GrowableSeries(plan.power ? cap : 16);
+    this.afr = plan.afr.map(() => new GrowableSeries(cap));
+  }
+
+  /** Sink for {@link BlockFeeder}: adds records, returns the index of a rejected one or -1. */
+  addAll(records: string[][]): number {
+    for (let i = 0; i < records.length; i++) {
+      this.add(records[i]);
+      if (this.pendingError) return i;
+    }
+    return -1;
   }
 
   private header(index: number): string {
@@ -66,11 +87,12 @@ export class RowCollector {
   }
 
   /** Handles one record; records an error (and stops collecting) on bad input. */
-  add(record: string[], csvLine: number): void {
-    if (this.error) return;
-    const line = csvLine + this.lineOffset;
+  add(record: string[]): void {
+    if (this.pendingError) return;
+    this.seen++;
     if (record.length > MAX_COLUMNS) {
-      this.error = new AnalysisError('TOO_MANY_COLUMNS', `Line ${line} has ${record.length} fields; at most ${MAX_COLUMNS} are accepted.`, { line });
+      const n = record.length;
+      this.pendingError = (line) => new AnalysisError('TOO_MANY_COLUMNS', `Line ${line} has ${n} fields; at most ${MAX_COLUMNS} are accepted.`, { line });
       return;
     }
     const { plan, decimalComma } = this;
@@ -91,23 +113,25 @@ export class RowCollector {
       const garbage = bad.find(([text]) => text.length > 0 && Number.isNaN(parseNumber(text, decimalComma)));
       if (garbage) {
         const column = this.header(garbage[1]);
-        this.error = new AnalysisError('NON_NUMERIC', `Line ${line}, column "${column}": "${garbage[0].slice(0, 40)}" is not a number.`, { line, column });
+        this.pendingError = (line) => new AnalysisError('NON_NUMERIC', `Line ${line}, column "${column}": "${garbage[0].slice(0, 40)}" is not a number.`, { line, column });
       } else this.blankRows++;
       return;
     }
     if (rpm < 0 || rpm > MAX_RPM) {
       const column = this.header(plan.rpm);
-      this.error = new AnalysisError('ABSURD_VALUE', `Line ${line}: an engine speed of ${rpm} rpm is not plausible (0–${MAX_RPM}).`, { line, column });
+      this.pendingError = (line) => new AnalysisError('ABSURD_VALUE', `Line ${line}: an engine speed of ${rpm} rpm is not plausible (0–${MAX_RPM}).`, { line, column });
       return;
     }
     if (plan.torque && Math.abs(torqueToLbft(tq, plan.torque.unit)) > MAX_TORQUE_LBFT) {
       const column = this.header(plan.torque.index);
-      this.error = new AnalysisError('ABSURD_VALUE', `Line ${line}: a torque of ${tq} ${plan.torque.unit} is not plausible (over ${MAX_TORQUE_LBFT} lb·ft).`, { line, column });
+      const unit = plan.torque.unit;
+      this.pendingError = (line) => new AnalysisError('ABSURD_VALUE', `Line ${line}: a torque of ${tq} ${unit} is not plausible (over ${MAX_TORQUE_LBFT} lb·ft).`, { line, column });
       return;
     }
     if (plan.power && Math.abs(powerToHp(pw, plan.power.unit)) > MAX_POWER_HP) {
       const column = this.header(plan.power.index);
-      this.error = new AnalysisError('ABSURD_VALUE', `Line ${line}: a power of ${pw} ${plan.power.unit} is not plausible (over ${MAX_POWER_HP} hp).`, { line, column });
+      const unit = plan.power.unit;
+      this.pendingError = (line) => new AnalysisError('ABSURD_VALUE', `Line ${line}: a power of ${pw} ${unit} is not plausible (over ${MAX_POWER_HP} hp).`, { line, column });
       return;
     }
     this.numericRows++;
@@ -118,8 +142,8 @@ export class RowCollector {
   }
 }
 
-/** csv-parse options for the data part of a file; each record goes to the collector, none are kept. */
-export function csvOptions(layout: Layout, collector: RowCollector): CsvOptions {
+/** csv-parse options for the data part of a file (UTF-8 bytes). */
+export function csvOptions(layout: Layout): CsvOptions {
   return {
     delimiter: layout.delimiter,
     relax_column_count: true,
@@ -128,9 +152,5 @@ export function csvOptions(layout: Layout, collector: RowCollector): CsvOptions 
     trim: true,
     bom: false,
     max_record_size: MAX_LINE_CHARS,
-    on_record: (record: string[], info) => {
-      collector.add(record, info.lines);
-      return null;
-    },
   };
 }

@@ -1,0 +1,24 @@
+/**
+ * `npm run bench` — runs every bench module in turn. Each module exports
+ * `async function run(): Promise<void>` and prints its own table. To add a bench, add a line to
+ * BENCHES.
+ */
+export {};
+
+const BENCHES: { name: string; load: () => Promise<{ run: () => Promise<void> }> }[] = [
+  { name: 'run-file analysis', load: () => import('./analyze.bench.js') },
+];
+
+const only = process.argv.slice(2);
+let failed = false;
+for (const bench of BENCHES) {
+  if (only.length > 0 && !only.some((o) => bench.name.includes(o))) continue;
+  process.stdout.write(`\n== ${bench.name} ==\n`);
+  try {
+    await (await bench.load()).run();
+  } catch (e) {
+    failed = true;
+    process.stdout.write(`bench failed: ${e instanceof Error ? e.message : String(e)}\n`);
+  }
+}
+process.exitCode = failed ? 1 : 0;
