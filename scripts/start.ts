@@ -47,6 +47,8 @@ async function main() {
   env.PUBLIC_URL ??= `http://127.0.0.1:${port}`;
   env.SESSION_SECRET ??= localSessionSecret();
   env.NODE_ENV ??= dev ? 'development' : 'production';
+  // The SDK's notice about Node 20 support is not actionable for a local run.
+  env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED ??= 'true';
 
   if (!env.DATABASE_URL) {
     const pg = await startLocalPostgres({ baseDir: path.join(STORAGE, 'postgres'), port: Number(env.PULLBOOK_PG_PORT ?? 55432), database: 'pullbook', label: 'postgres' });
