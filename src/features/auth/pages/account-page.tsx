@@ -1,0 +1,63 @@
+import { useForm } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { z } from 'zod';
+import { changePasswordInput } from '@shared/schemas/auth';
+import { ROLE_LABELS } from '@shared/roles';
+import { Button, Card, PageHeader, TextField, useToast } from '@/components/ui';
+import { applyFieldErrors } from '@/lib/api-client';
+import { useCurrentUser } from '@/lib/auth';
+import { useChangePassword } from '../api/change-password';
+
+const changePasswordForm = changePasswordInput
+  .extend({ confirm: z.string() })
+  .refine((v) => v.newPassword === v.confirm, { path: ['confirm'], message: 'The two passwords are not the same' });
+type Values = z.input<typeof changePasswordForm>;
+
+export default function AccountPage() {
+  const user = useCurrentUser();
+  const toast = useToast();
+  const change = useChangePassword();
+  const form = useForm<Values>({ resolver: zodResolver(changePasswordForm), defaultValues: { currentPassword: '', newPassword: '', confirm: '' } });
+  const { errors } = form.formState;
+
+  const onSubmit = form.handleSubmit(async ({ currentPassword, newPassword }) => {
+    try {
+      await change.mutateAsync({ currentPassword, newPassword });
+      form.reset();
+      toast.success('Password changed');
+    } catch (err) {
+      if (!applyFieldErrors(err, form.setError)) toast.error('The password was not changed', { description: err instanceof Error ? err.message : undefined });
+    }
+  });
+
+  return (
+    <>
+      <PageHeader title="My account" subtitle="Your sign-in details. The shop owner manages names and roles." />
+      <div className="grid gap-6 lg:grid-cols-2">
+        <Card title="Details">
+          <dl className="grid grid-cols-[max-content_1fr] gap-x-6 gap-y-3">
+            <dt className="text-ink-muted">Name</dt>
+            <dd className="font-medium">{user.name}</dd>
+            <dt className="text-ink-muted">E-mail</dt>
+            <dd className="font-medium break-all">{user.email}</dd>
+            <dt className="text-ink-muted">Role</dt>
+            <dd className="font-medium">{ROLE_LABELS[user.role]}</dd>
+          </dl>
+        </Card>
+        <Card title="Change password">
+          <form onSubmit={onSubmit} noValidate className="space-y-4">
+            <input type="text" name="username" autoComplete="username" value={user.email} readOnly hidden />
+            <TextField label="Current password" type="password" autoComplete="current-password" error={errors.currentPassword} {...form.register('currentPassword')} />
+            <TextField label="New password" type="password" autoComplete="new-password" hint="At least 10 characters." error={errors.newPassword} {...form.register('newPassword')} />
+            <TextField label="Repeat the new password" type="password" autoComplete="new-password" error={errors.confirm} {...form.register('confirm')} />
+            <div className="flex justify-end">
+              <Button type="submit" variant="primary" loading={change.isPending} loadingText="Saving…">
+                Change password
+              </Button>
+            </div>
+          </form>
+        </Card>
+      </div>
+    </>
+  );
+}
