@@ -1,7 +1,85 @@
+import { z } from 'zod';
 import { ApiRouter } from '../../http/api-router';
 import type { AppDeps } from '../../app-deps';
+import { STAFF, WORKSHOP } from '@shared/roles';
+import { idParams, uuid } from '@shared/schemas/common';
+import { applyMappingInput, runListQuery, runUpdateInput, type UploadResponse } from '@shared/schemas/run';
+import { runFilesUpload, uploadedFiles } from '../../middleware/upload';
+import { deleteLayout, deleteRun, listLayouts, listRuns, restoreRun, runDetail, updateRun } from './run.service';
+import { ingestFiles } from './run-ingest';
+import { applyMapping, rawFile, reprocessRunById, runPreview } from './run-actions';
+import './orphan-reconcile';
 
-/** Routes of the runs domain (filled in by its feature work). */
+const blankToUndefined = (v: unknown) => (v === '' || v === null ? undefined : v);
+/** Text fields of the multipart upload. */
+const uploadFields = z.object({
+  bikeId: uuid,
+  sessionId: z.preprocess(blankToUndefined, uuid.optional()),
+  stageId: z.preprocess(blankToUndefined, uuid.optional()),
+});
+
+/** Content-Disposition with a plain fallback and the UTF-8 name (RFC 6266 / RFC 8187). */
+function contentDisposition(name: string) {
+  const fallback = name.replace(/[^\x20-\x7e]|["\\]/g, '_');
+  return `attachment; filename="${fallback}"; filename*=UTF-8''${encodeURIComponent(name)}`;
+}
+
+/** Routes of the runs domain, and the shop's saved column layouts. */
 export function runRoutes(deps: AppDeps): ApiRouter[] {
-  return [new ApiRouter('/api/runs', deps)];
+  const api = new ApiRouter('/api/runs', deps);
+  api.route({
+    method: 'post',
+    path: '/',
+    access: WORKSHOP,
+    summary: 'Upload run files (multipart field "files"; bikeId, optional sessionId and stageId)',
+    before: [runFilesUpload(deps.config)],
+    body: uploadFields,
+    status: 201,
+    handler: async ({ em, actor, body, req, deps: d }): Promise<UploadResponse> => {
+      const files = uploadedFiles(req).map((f) => ({ originalName: f.originalname, contentType: f.mimetype || null, bytes: f.buffer }));
+      return { results: await ingestFiles(em, d, actor, body, files) };
+    },
+  });
+  api.route({ method: 'get', path: '/', access: 'signed-in', summary: 'Runs the caller may see (filter, sort, page)', query: runListQuery, handler: ({ em, actor, query, req }) => {
+    const raw = String(req.query.includeDeleted ?? '');
+    return listRuns(em, actor, { ...query, includeDeleted: Boolean(query.includeDeleted) && raw !== 'false' && raw !== '0' });
+  } });
+  api.route({ method: 'get', path: '/:id', access: 'signed-in', summary: 'One run with its curve', params: idParams, handler: ({ em, actor, params }) => runDetail(em, actor, params.id) });
+  api.route({
+    method: 'get',
+    path: '/:id/raw',
+    access: STAFF,
+    summary: 'The original file, byte for byte',
+    params: idParams,
+    handler: async ({ em, actor, params, res, deps: d }) => {
+      const { run, obj } = await rawFile(em, d, actor, params.id);
+      res.status(200);
+      res.set('Content-Type', run.contentType || 'application/octet-stream');
+      res.set('Content-Disposition', contentDisposition(run.originalName));
+      res.set('Content-Length', String(obj.contentLength ?? run.rawSizeBytes));
+      res.set('X-Content-SHA256', run.rawSha256);
+      res.set('Cache-Control', 'private, no-store');
+      await new Promise<void>((resolve) => {
+        obj.body.once('error', (err) => {
+          console.error(`[pullbook] reading ${run.rawKey} failed mid-download:`, err);
+          res.destroy(err);
+          resolve();
+        });
+        res.once('close', () => resolve());
+        obj.body.pipe(res);
+      });
+      return undefined;
+    },
+  });
+  api.route({ method: 'patch', path: '/:id', access: WORKSHOP, summary: 'Edit a run’s stage, label, tags and note', params: idParams, body: runUpdateInput, handler: ({ em, actor, params, body }) => updateRun(em, actor, params.id, body) });
+  api.route({ method: 'delete', path: '/:id', access: ['owner'], summary: 'Soft-delete a run', params: idParams, handler: ({ em, actor, params }) => deleteRun(em, actor, params.id) });
+  api.route({ method: 'post', path: '/:id/restore', access: ['owner'], summary: 'Restore a deleted run', params: idParams, handler: ({ em, actor, params }) => restoreRun(em, actor, params.id) });
+  api.route({ method: 'get', path: '/:id/preview', access: STAFF, summary: 'First rows of the raw file, for the mapping dialog', params: idParams, handler: ({ em, actor, params, deps: d }) => runPreview(em, d, actor, params.id) });
+  api.route({ method: 'post', path: '/:id/mapping', access: WORKSHOP, summary: 'Map columns by hand and re-analyse (optionally save the layout)', params: idParams, body: applyMappingInput, handler: ({ em, actor, params, body, deps: d }) => applyMapping(em, d, actor, params.id, body) });
+  api.route({ method: 'post', path: '/:id/reprocess', access: WORKSHOP, summary: 'Re-derive a run from its raw file', params: idParams, handler: ({ em, actor, params, deps: d }) => reprocessRunById(em, d, actor, params.id) });
+
+  const layouts = new ApiRouter('/api/column-layouts', deps);
+  layouts.route({ method: 'get', path: '/', access: STAFF, summary: 'Saved column layouts', handler: ({ em, actor }) => listLayouts(em, actor) });
+  layouts.route({ method: 'delete', path: '/:id', access: WORKSHOP, summary: 'Forget a saved column layout', params: idParams, handler: ({ em, actor, params }) => deleteLayout(em, actor, params.id) });
+  return [api, layouts];
 }

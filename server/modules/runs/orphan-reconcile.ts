@@ -1,0 +1,37 @@
+/**
+ * Start-up reconciliation: objects written to storage whose run row never committed (and whose
+ * immediate removal failed) are listed in orphan_object; remove them now. An object that a run
+ * row does reference (the same file uploaded again since) is kept.
+ */
+import type { AppDeps } from '../../app-deps';
+import { registerStartupTask } from '../../startup';
+import { OrphanObject } from '../../lib/storage/orphan-object.entity';
+import { Run } from './run.entity';
+
+export async function reconcileOrphanObjects(deps: AppDeps, opts: { limit?: number } = {}): Promise<{ removed: number; kept: number; failed: number }> {
+  const em = deps.orm.em.fork();
+  const orphans = await em.find(OrphanObject, {}, { orderBy: { createdAt: 'asc' }, limit: opts.limit ?? 1000 });
+  const out = { removed: 0, kept: 0, failed: 0 };
+  for (const o of orphans) {
+    try {
+      if ((await em.count(Run, { rawKey: o.key })) > 0) out.kept++;
+      else {
+        await deps.storage.delete(o.key);
+        out.removed++;
+      }
+      em.remove(o);
+      await em.flush();
+    } catch {
+      out.failed++; // storage still down: try again at the next start
+    }
+  }
+  return out;
+}
+
+registerStartupTask({
+  name: 'orphan objects',
+  async run(deps) {
+    const r = await reconcileOrphanObjects(deps);
+    if (r.removed || r.kept || r.failed) return `removed ${r.removed}, kept ${r.kept} (referenced by a run), ${r.failed} left for the next start`;
+  },
+});

@@ -1,0 +1,125 @@
+import type { EntityManager } from '@mikro-orm/postgresql';
+import type { FilterQuery } from '@mikro-orm/core';
+import type { z } from 'zod';
+import type { Actor } from '../../http/actor';
+import { notFound } from '../../lib/errors';
+import type { CorrectionId, RunSummaryDto, SessionDto, safetyCheckInput, sessionInput, sessionUpdateInput } from '@shared/schemas/run';
+import { DynoSession } from './dyno-session.entity';
+import { Dyno } from '../dynos/dyno.entity';
+import { Shop } from '../shops/shop.entity';
+import { User } from '../users/user.entity';
+import { Run } from '../runs/run.entity';
+import { getBikeEntity } from '../bikes/bike.service';
+import { recordAudit } from '../audit/audit.service';
+import { RUN_POPULATE, toRunSummaries } from '../runs/run.service';
+
+type SessionInput = z.output<typeof sessionInput>;
+type SessionUpdateInput = z.output<typeof sessionUpdateInput>;
+type SafetyCheckInput = z.output<typeof safetyCheckInput>;
+
+const NO_CUSTOMER = '00000000-0000-0000-0000-000000000000';
+
+function sessionScope(actor: Actor): FilterQuery<DynoSession> {
+  return actor.role === 'customer' ? { shop: actor.shopId, bike: { customer: actor.customerId ?? NO_CUSTOMER } } : { shop: actor.shopId };
+}
+
+export function toSessionDto(s: DynoSession, runCount: number): SessionDto {
+  return {
+    id: s.id,
+    bikeId: s.bike.id,
+    startedAt: s.startedAt.toISOString(),
+    dynoId: s.dyno?.id ?? null,
+    dynoName: s.dyno?.name ?? null,
+    operatorName: s.operator?.name ?? null,
+    ambientTempC: s.ambientTempC,
+    baroKpa: s.baroKpa,
+    humidityPct: s.humidityPct,
+    correctionStandard: s.correctionStandard as CorrectionId,
+    notes: s.notes,
+    safetyConfirmedAt: s.safetyConfirmedAt ? s.safetyConfirmedAt.toISOString() : null,
+    safetyConfirmedByName: s.safetyConfirmedBy?.name ?? null,
+    runCount,
+  };
+}
+
+async function runCounts(em: EntityManager, ids: string[]): Promise<Map<string, number>> {
+  if (!ids.length) return new Map();
+  const rows = (await em.getConnection().execute(
+    `select session_id, count(*)::int as n from run where session_id in (${ids.map(() => '?').join(',')}) and deleted_at is null group by session_id`,
+    ids,
+  )) as { session_id: string; n: number }[];
+  return new Map(rows.map((r) => [r.session_id, Number(r.n)]));
+}
+
+const POPULATE = ['dyno', 'operator', 'safetyConfirmedBy'] as const;
+
+export async function listSessions(em: EntityManager, actor: Actor, query: { bikeId?: string }): Promise<SessionDto[]> {
+  const where = { ...(sessionScope(actor) as object), ...(query.bikeId ? { bike: query.bikeId } : {}) } as FilterQuery<DynoSession>;
+  if (query.bikeId && actor.role === 'customer') await getBikeEntity(em, actor, query.bikeId);
+  const rows = await em.find(DynoSession, where, { populate: POPULATE as never, orderBy: { startedAt: 'desc', id: 'asc' }, limit: 500 });
+  const counts = await runCounts(em, rows.map((r) => r.id));
+  return rows.map((s) => toSessionDto(s, counts.get(s.id) ?? 0));
+}
+
+export async function getSessionEntity(em: EntityManager, actor: Actor, id: string): Promise<DynoSession> {
+  const s = await em.findOne(DynoSession, { ...(sessionScope(actor) as object), id } as FilterQuery<DynoSession>, { populate: POPULATE as never });
+  if (!s) throw notFound('Session');
+  return s;
+}
+
+export async function sessionWithRuns(em: EntityManager, actor: Actor, id: string): Promise<SessionDto & { runs: RunSummaryDto[] }> {
+  const s = await getSessionEntity(em, actor, id);
+  const runs = await em.find(Run, { session: s.id, shop: actor.shopId, deletedAt: null }, { populate: RUN_POPULATE as never, orderBy: { sequence: 'asc', createdAt: 'asc' } });
+  return { ...toSessionDto(s, runs.length), runs: await toRunSummaries(em, runs) };
+}
+
+async function dynoOfShop(em: EntityManager, actor: Actor, dynoId: string | null | undefined): Promise<Dyno | null> {
+  if (!dynoId) return null;
+  const dyno = await em.findOne(Dyno, { id: dynoId, shop: actor.shopId });
+  if (!dyno) throw notFound('Dyno');
+  return dyno;
+}
+
+export async function createSession(em: EntityManager, actor: Actor, input: SessionInput): Promise<SessionDto> {
+  const bike = await getBikeEntity(em, actor, input.bikeId);
+  const s = em.create(DynoSession, {
+    shop: em.getReference(Shop, actor.shopId),
+    bike,
+    startedAt: input.startedAt ?? new Date(),
+    dyno: await dynoOfShop(em, actor, input.dynoId),
+    operator: em.getReference(User, actor.id),
+    ambientTempC: input.ambientTempC,
+    baroKpa: input.baroKpa,
+    humidityPct: input.humidityPct,
+    correctionStandard: input.correctionStandard,
+    notes: input.notes,
+  } as DynoSession);
+  await em.flush();
+  await em.populate(s, POPULATE as never);
+  await recordAudit(em, actor, 'session.create', 'session', s.id, { bikeId: bike.id });
+  return toSessionDto(s, 0);
+}
+
+export async function updateSession(em: EntityManager, actor: Actor, id: string, input: SessionUpdateInput): Promise<SessionDto> {
+  const s = await getSessionEntity(em, actor, id);
+  const { dynoId, ...rest } = input;
+  if (dynoId !== undefined) s.dyno = await dynoOfShop(em, actor, dynoId);
+  for (const [k, v] of Object.entries(rest)) if (v !== undefined) (s as unknown as Record<string, unknown>)[k] = v;
+  await em.flush();
+  await em.populate(s, POPULATE as never);
+  await recordAudit(em, actor, 'session.update', 'session', s.id, { ...input, startedAt: input.startedAt?.toISOString() });
+  const counts = await runCounts(em, [s.id]);
+  return toSessionDto(s, counts.get(s.id) ?? 0);
+}
+
+/** Record that the dyno-bay checks were confirmed: who and when. */
+export async function confirmSafety(em: EntityManager, actor: Actor, id: string, input: SafetyCheckInput): Promise<SessionDto> {
+  const s = await getSessionEntity(em, actor, id);
+  s.safetyConfirmedAt = new Date();
+  s.safetyConfirmedBy = em.getReference(User, actor.id);
+  await em.flush();
+  await em.populate(s, POPULATE as never, { refresh: true });
+  await recordAudit(em, actor, 'session.safety-check', 'session', s.id, { checks: input.checks });
+  const counts = await runCounts(em, [s.id]);
+  return toSessionDto(s, counts.get(s.id) ?? 0);
+}
