@@ -1,0 +1,67 @@
+import { useState } from 'react';
+import { useQuery } from '@tanstack/react-query';
+import { Link, useParams } from 'react-router-dom';
+import { STAFF } from '@shared/roles';
+import { Button, EmptyState, ErrorState, Icon, LoadingState, PageHeader } from '@/components/ui';
+import { ApiError } from '@/lib/api-client';
+import { hasRole, useCurrentUser } from '@/lib/auth';
+import { paths } from '@/config/paths';
+import { BikeDetailsCard, BikeFormDialog, bikeQueries } from '@/features/bikes';
+
+/**
+ * The bike page: the bike's identity first, then everything the archive holds about it.
+ * Staff see the owner as a link; customers (their own bikes only) see it read-only.
+ */
+export function BikePage() {
+  const { bikeId = '' } = useParams();
+  const user = useCurrentUser();
+  const isStaff = hasRole(user, STAFF);
+  const canEdit = hasRole(user, ['owner', 'desk']);
+  const bike = useQuery(bikeQueries.detail(bikeId));
+  const [editing, setEditing] = useState(false);
+
+  if (bike.isPending) return <LoadingState message="Loading the bike…" />;
+  if (bike.isError) {
+    if (bike.error instanceof ApiError && (bike.error.status === 404 || bike.error.status === 400)) {
+      return (
+        <EmptyState
+          title="No such bike"
+          message="This bike is not on file, or it is not one you can see."
+          action={
+            <Link className="text-accent underline" to={isStaff ? paths.bikes : paths.home}>
+              {isStaff ? 'All bikes' : 'My bikes'}
+            </Link>
+          }
+        />
+      );
+    }
+    return <ErrorState error={bike.error} onRetry={() => bike.refetch()} isRetrying={bike.isFetching} />;
+  }
+  const b = bike.data;
+  const title = [b.year, b.make, b.model].filter(Boolean).join(' ');
+
+  return (
+    <>
+      <PageHeader
+        back={
+          <Link to={isStaff ? paths.bikes : paths.home} className="focus-ring inline-flex items-center gap-1 rounded-control text-ink-muted hover:text-ink">
+            <Icon name="chevron-left" size={16} /> {isStaff ? 'All bikes' : 'My bikes'}
+          </Link>
+        }
+        title={title}
+        subtitle={isStaff ? `Owned by ${b.customerName}` : undefined}
+        secondaryActions={canEdit && <Button onClick={() => setEditing(true)}>Edit bike</Button>}
+      />
+      <BikeDetailsCard bike={b} linkCustomer={isStaff} />
+
+      {/*
+        Sections other features add to this page, in this order: build timeline (stages and parts),
+        runs and comparisons, gain reports, similar builds. Each comes from its feature's index.ts
+        and takes the bike id; none is imported yet.
+      */}
+      <div className="mt-6 space-y-6" data-bike-sections="" />
+
+      {canEdit && <BikeFormDialog open={editing} bike={b} onClose={() => setEditing(false)} />}
+    </>
+  );
+}

@@ -1,0 +1,6 @@
+/** The bikes feature's public face, for screens composed in src/app/routes. */
+export { bikeRoutes } from './routes';
+export { bikeQueries } from './api/bike-queries';
+export { BikeDetailsCard } from './components/bike-details-card';
+export { BikeFormDialog, type BikeFormDialogProps } from './components/bike-form-dialog';
+export { formatCc, formatCubicInches } from './components/displacement';
