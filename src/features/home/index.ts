@@ -1,0 +1,2 @@
+/** The home feature's public face. */
+export { homeRoutes } from './routes';
