@@ -455,3 +455,30 @@ describe('stage timeline', () => {
     expect((await (await t.signIn(b.users.owner)).get('/api/comparisons/timeline').query({ bikeId: bike.id })).status).toBe(404);
   });
 });
+
+describe('builder candidates', () => {
+  it('suggests the previous stage’s reference run against the latest stage’s', async () => {
+    const em = t.deps.orm.em.fork();
+    const f = new ComparisonFixtures(em, a.shop);
+    const bike = em.create(Bike, { shop: a.shop.id, customer: a.customer.id, make: 'Testmake', model: 'Builder', cylinders: 2 } as never) as Bike;
+    const session = f.session(bike, { dyno: f.dyno() });
+    const s0 = f.stage(bike, 'Stock', 0);
+    const s1 = f.stage(bike, 'Pipe', 1);
+    const s2 = f.stage(bike, 'Cam', 2);
+    const r0 = f.run(bike, { curve: curveFromPower((r) => 20 + 0.01 * r), stage: s0, session });
+    const r1 = f.run(bike, { curve: curveFromPower((r) => 22 + 0.01 * r), stage: s1, session });
+    const r2 = f.run(bike, { curve: curveFromPower((r) => 25 + 0.01 * r), stage: s2, session });
+    f.run(bike, { curve: curveFromPower((r) => 25 + 0.01 * r), stage: s2, session, status: 'needs-mapping' });
+    s0.referenceRun = r0;
+    s1.referenceRun = r1;
+    s2.referenceRun = r2;
+    await em.flush();
+    const desk = await t.signIn(a.users.desk);
+    const res = await desk.get('/api/comparisons/candidates').query({ bikeId: bike.id });
+    expect(res.status).toBe(200);
+    expect(res.body.runs).toHaveLength(4);
+    expect(res.body.suggestion).toEqual({ baselineRunId: r1.id, runIds: [r1.id, r2.id] });
+    expect((await (await t.signIn(a.users.customer)).get('/api/comparisons/candidates').query({ bikeId: bike.id })).status).toBe(403);
+    expect((await (await t.signIn(b.users.desk)).get('/api/comparisons/candidates').query({ bikeId: bike.id })).status).toBe(404);
+  });
+});

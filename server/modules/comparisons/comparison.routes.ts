@@ -2,8 +2,8 @@ import { ApiRouter } from '../../http/api-router';
 import type { AppDeps } from '../../app-deps';
 import { STAFF, WORKSHOP } from '@shared/roles';
 import { idParams } from '@shared/schemas/common';
-import { comparisonInput, comparisonListQuery, comparisonPreviewInput, timelineQuery } from '@shared/schemas/comparison';
-import { createComparison, deleteComparison, evaluateComparison, getComparison, listComparisons, stageTimeline } from './comparison.service';
+import { candidatesQuery, comparisonInput, comparisonListQuery, comparisonPreviewInput, timelineQuery } from '@shared/schemas/comparison';
+import { comparisonCandidates, createComparison, deleteComparison, evaluateComparison, getComparison, listComparisons, stageTimeline } from './comparison.service';
 
 /**
  * Comparisons: preview (staff), save (staff), read (staff; customers their own bikes, read-only),
@@ -13,6 +13,7 @@ export function comparisonRoutes(deps: AppDeps): ApiRouter[] {
   const api = new ApiRouter('/api/comparisons', deps);
   api.route({ method: 'post', path: '/preview', access: STAFF, summary: 'Compute a comparison without saving it', body: comparisonPreviewInput, handler: ({ em, actor, body }) => evaluateComparison(em, actor, body) });
   api.route({ method: 'get', path: '/timeline', access: 'signed-in', summary: "A bike's stages with gains, costs and cost per hp", query: timelineQuery, handler: ({ em, actor, query }) => stageTimeline(em, actor, query) });
+  api.route({ method: 'get', path: '/candidates', access: STAFF, summary: "A bike's runs and the suggested pair for the builder", query: candidatesQuery, handler: ({ em, actor, query }) => comparisonCandidates(em, actor, query) });
   api.route({ method: 'get', path: '/', access: 'signed-in', summary: 'Saved comparisons (customers: their bikes)', query: comparisonListQuery, handler: ({ em, actor, query }) => listComparisons(em, actor, query) });
   api.route({ method: 'post', path: '/', access: STAFF, summary: 'Save a comparison', body: comparisonInput, status: 201, handler: ({ em, actor, body }) => createComparison(em, actor, body) });
   api.route({ method: 'get', path: '/:id', access: 'signed-in', summary: 'A saved comparison with its figures', params: idParams, handler: ({ em, actor, params }) => getComparison(em, actor, params.id) });

@@ -242,3 +242,33 @@ export interface StageTimelineDto {
   stages: TimelineStage[];
   warnings: ComparisonWarning[];
 }
+
+export const candidatesQuery = z.object({ bikeId: uuid });
+
+/** A run the builder may pick, with what it needs to show in the picker. */
+export interface CandidateRunDto {
+  id: string;
+  name: string;
+  status: string;
+  stageId: string | null;
+  stageName: string | null;
+  stagePosition: number | null;
+  isReference: boolean;
+  recordedAt: string;
+  peakPowerHp: number | null;
+  peakPowerRpm: number | null;
+  peakTorqueLbft: number | null;
+  rpmMin: number | null;
+  rpmMax: number | null;
+  correctionStandard: string | null;
+  identityStatus: string | null;
+}
+
+/** GET /api/comparisons/candidates?bikeId=: a bike's runs and the suggested pair. */
+export interface CandidatesDto {
+  bikeId: string;
+  bikeLabel: string;
+  runs: CandidateRunDto[];
+  /** Reference run of the previous stage (baseline) against that of the latest stage; else the two newest ready runs. */
+  suggestion: { baselineRunId: string; runIds: string[] } | null;
+}
