@@ -282,8 +282,9 @@ export async function ingestFiles(em: EntityManager, deps: AppDeps, actor: Actor
           continue;
         }
       }
-      const fate = await discardObject(deps, key, `run row for ${f.originalName} did not commit: ${err instanceof Error ? err.message : String(err)}`);
-      console.error(`[pullbook] saving run ${f.originalName} failed (object ${fate}):`, err);
+      const why = (err instanceof Error ? err.message : String(err)).split(' - ').pop()!.slice(0, 300);
+      const fate = await discardObject(deps, key, `run row for ${f.originalName} did not commit: ${why}`);
+      console.error(`[pullbook] saving run ${f.originalName} failed (object ${fate}): ${why}`);
       pending.push({ kind: 'done', result: resultOfError(f.originalName, { code: 'SAVE_FAILED', message: 'The file could not be saved in the archive; nothing was kept. Try again.' }) });
     }
   }

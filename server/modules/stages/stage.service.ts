@@ -1,0 +1,196 @@
+import type { EntityManager } from '@mikro-orm/postgresql';
+import type { z } from 'zod';
+import type { Actor } from '../../http/actor';
+import { AppError, notFound } from '../../lib/errors';
+import type { PartDto, StageDto, partInput, stageInput, stageUpdateInput } from '@shared/schemas/run';
+import { Part, Stage } from './stage.entity';
+import { Shop } from '../shops/shop.entity';
+import { Run } from '../runs/run.entity';
+import { getBikeEntity } from '../bikes/bike.service';
+import { recordAudit } from '../audit/audit.service';
+import { refreshBikeOutcomes } from '../builds/build-outcome.service';
+
+type StageInput = z.output<typeof stageInput>;
+type StageUpdateInput = z.output<typeof stageUpdateInput>;
+type PartInput = z.output<typeof partInput>;
+
+/** Dollars as entered → whole cents (half a cent rounds away from zero). */
+export const toCents = (dollars: number | null | undefined) => (dollars == null ? 0 : Math.round(dollars * 100));
+
+const toPartDto = (p: Part): PartDto => ({
+  id: p.id,
+  category: p.category,
+  description: p.description,
+  partCostCents: p.partCostCents,
+  labourCostCents: p.labourCostCents,
+  headWorkLevel: p.headWorkLevel,
+});
+
+function partFields(input: PartInput) {
+  return {
+    category: input.category,
+    description: input.description,
+    partCostCents: toCents(input.partCost),
+    labourCostCents: toCents(input.labourCost),
+    // Head-work level is only meaningful for cylinder-head work (the build finder searches it).
+    headWorkLevel: input.category === 'cylinder-heads' ? (input.headWorkLevel ?? null) : null,
+  };
+}
+
+/** A bike's stages in build order, with parts, costs, reference runs and run counts. */
+export async function listStages(em: EntityManager, actor: Actor, bikeId: string): Promise<StageDto[]> {
+  await getBikeEntity(em, actor, bikeId); // 404 for another shop's or another customer's bike
+  const stages = await em.find(Stage, { shop: actor.shopId, bike: bikeId }, { orderBy: { position: 'asc', createdAt: 'asc' } });
+  return toStageDtos(em, stages);
+}
+
+export async function toStageDtos(em: EntityManager, stages: Stage[]): Promise<StageDto[]> {
+  if (!stages.length) return [];
+  const ids = stages.map((s) => s.id);
+  const parts = await em.find(Part, { stage: { $in: ids } }, { orderBy: { createdAt: 'asc', id: 'asc' } });
+  const counts = (await em.getConnection().execute(
+    `select stage_id, count(*)::int as n from run where stage_id in (${ids.map(() => '?').join(',')}) and deleted_at is null group by stage_id`,
+    ids,
+  )) as { stage_id: string; n: number }[];
+  const countOf = new Map(counts.map((c) => [c.stage_id, Number(c.n)]));
+  return stages.map((s) => ({
+    id: s.id,
+    bikeId: s.bike.id,
+    position: s.position,
+    name: s.name,
+    date: s.date,
+    description: s.description,
+    parts: parts.filter((p) => p.stage.id === s.id).map(toPartDto),
+    totalCostCents: s.totalCostCents,
+    referenceRunId: s.referenceRun?.id ?? null,
+    runCount: countOf.get(s.id) ?? 0,
+    gainPeakPowerHp: s.gainPeakPowerHp,
+    gainAreaPct: s.gainAreaPct,
+    gainAveragePowerHp: s.gainAveragePowerHp,
+  }));
+}
+
+async function stageDto(em: EntityManager, stage: Stage): Promise<StageDto> {
+  await em.refresh(stage);
+  return (await toStageDtos(em, [stage]))[0];
+}
+
+/** A stage of the actor's shop (customers: of their own bikes), or 404. */
+export async function getStageEntity(em: EntityManager, actor: Actor, id: string): Promise<Stage> {
+  const where = actor.role === 'customer' ? { id, shop: actor.shopId, bike: { customer: actor.customerId ?? '00000000-0000-0000-0000-000000000000' } } : { id, shop: actor.shopId };
+  const stage = await em.findOne(Stage, where);
+  if (!stage) throw notFound('Stage');
+  return stage;
+}
+
+export async function getStage(em: EntityManager, actor: Actor, id: string): Promise<StageDto> {
+  return (await toStageDtos(em, [await getStageEntity(em, actor, id)]))[0];
+}
+
+export async function createStage(em: EntityManager, actor: Actor, input: StageInput): Promise<StageDto> {
+  const bike = await getBikeEntity(em, actor, input.bikeId);
+  const last = await em.findOne(Stage, { bike: bike.id }, { orderBy: { position: 'desc' } });
+  const shop = em.getReference(Shop, actor.shopId);
+  const stage = em.create(Stage, { shop, bike, position: last ? last.position + 1 : 0, name: input.name, date: input.date ?? null, description: input.description } as Stage);
+  for (const p of input.parts) em.create(Part, { shop, stage, ...partFields(p) } as Part);
+  await em.flush();
+  await refreshBikeOutcomes(em, bike.id);
+  await recordAudit(em, actor, 'stage.create', 'stage', stage.id, { bikeId: bike.id, name: stage.name, parts: input.parts.length });
+  return stageDto(em, stage);
+}
+
+export async function updateStage(em: EntityManager, actor: Actor, id: string, input: StageUpdateInput): Promise<StageDto> {
+  const stage = await getStageEntity(em, actor, id);
+  if (input.name !== undefined) stage.name = input.name;
+  if (input.date !== undefined) stage.date = input.date ?? null;
+  if (input.description !== undefined) stage.description = input.description;
+  if (input.parts !== undefined) {
+    // The list given replaces the stage's parts.
+    await em.nativeDelete(Part, { stage: stage.id });
+    for (const p of input.parts) em.create(Part, { shop: em.getReference(Shop, actor.shopId), stage, ...partFields(p) } as Part);
+  }
+  await em.flush();
+  await refreshBikeOutcomes(em, stage.bike.id);
+  await recordAudit(em, actor, 'stage.update', 'stage', stage.id, { name: input.name, date: input.date, parts: input.parts?.length });
+  return stageDto(em, stage);
+}
+
+/** Removes a stage and its parts; its runs stay in the archive with no stage. */
+export async function deleteStage(em: EntityManager, actor: Actor, id: string): Promise<void> {
+  const stage = await getStageEntity(em, actor, id);
+  const bikeId = stage.bike.id;
+  const detached = await em.nativeUpdate(Run, { stage: stage.id }, { stage: null });
+  await em.nativeDelete(Part, { stage: stage.id });
+  await em.removeAndFlush(stage);
+  em.clear();
+  await refreshBikeOutcomes(em, bikeId);
+  await recordAudit(em, actor, 'stage.delete', 'stage', id, { bikeId, name: stage.name, runsDetached: detached });
+}
+
+/** Puts a bike's stages in the given order; the list must be exactly the bike's stages. */
+export async function reorderStages(em: EntityManager, actor: Actor, input: { bikeId: string; stageIds: string[] }): Promise<StageDto[]> {
+  await getBikeEntity(em, actor, input.bikeId);
+  const stages = await em.find(Stage, { shop: actor.shopId, bike: input.bikeId });
+  const byId = new Map(stages.map((s) => [s.id, s]));
+  const unique = new Set(input.stageIds);
+  if (unique.size !== input.stageIds.length || unique.size !== stages.length || input.stageIds.some((id) => !byId.has(id))) {
+    throw new AppError('STAGE_ORDER_INVALID', 'List every stage of this bike exactly once', 400);
+  }
+  input.stageIds.forEach((id, i) => (byId.get(id)!.position = i));
+  await em.flush();
+  await refreshBikeOutcomes(em, input.bikeId);
+  await recordAudit(em, actor, 'stage.reorder', 'bike', input.bikeId, { stageIds: input.stageIds });
+  return listStages(em, actor, input.bikeId);
+}
+
+/** Choose (or clear) the run that represents a stage; the run is tagged with the stage. */
+export async function setReferenceRun(em: EntityManager, actor: Actor, id: string, runId: string | null): Promise<StageDto> {
+  const stage = await getStageEntity(em, actor, id);
+  if (runId) {
+    const run = await em.findOne(Run, { id: runId, shop: actor.shopId, bike: stage.bike.id, deletedAt: null });
+    if (!run) throw notFound('Run');
+    if (run.status !== 'ready') throw new AppError('RUN_NOT_READY', 'Only a run with a usable curve can represent a stage; map or re-process it first', 409);
+    // A run represents one stage at most.
+    const others = await em.find(Stage, { referenceRun: run.id, id: { $ne: stage.id } });
+    for (const o of others) o.referenceRun = null;
+    stage.referenceRun = run;
+    run.stage = stage;
+  } else stage.referenceRun = null;
+  await em.flush();
+  await refreshBikeOutcomes(em, stage.bike.id);
+  await recordAudit(em, actor, 'stage.reference-run', 'stage', stage.id, { runId });
+  return stageDto(em, stage);
+}
+
+export async function addPart(em: EntityManager, actor: Actor, stageId: string, input: PartInput): Promise<StageDto> {
+  const stage = await getStageEntity(em, actor, stageId);
+  const part = em.create(Part, { shop: em.getReference(Shop, actor.shopId), stage, ...partFields(input) } as Part);
+  await em.flush();
+  await refreshBikeOutcomes(em, stage.bike.id);
+  await recordAudit(em, actor, 'part.create', 'part', part.id, { stageId, ...partFields(input) });
+  return stageDto(em, stage);
+}
+
+async function partOf(em: EntityManager, actor: Actor, stageId: string, partId: string) {
+  const stage = await getStageEntity(em, actor, stageId);
+  const part = await em.findOne(Part, { id: partId, stage: stage.id, shop: actor.shopId });
+  if (!part) throw notFound('Part');
+  return { stage, part };
+}
+
+export async function updatePart(em: EntityManager, actor: Actor, stageId: string, partId: string, input: PartInput): Promise<StageDto> {
+  const { stage, part } = await partOf(em, actor, stageId, partId);
+  em.assign(part, partFields(input));
+  await em.flush();
+  await refreshBikeOutcomes(em, stage.bike.id);
+  await recordAudit(em, actor, 'part.update', 'part', part.id, { stageId, ...partFields(input) });
+  return stageDto(em, stage);
+}
+
+export async function deletePart(em: EntityManager, actor: Actor, stageId: string, partId: string): Promise<StageDto> {
+  const { stage, part } = await partOf(em, actor, stageId, partId);
+  await em.removeAndFlush(part);
+  await refreshBikeOutcomes(em, stage.bike.id);
+  await recordAudit(em, actor, 'part.delete', 'part', partId, { stageId, description: part.description });
+  return stageDto(em, stage);
+}
