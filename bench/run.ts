@@ -7,6 +7,7 @@ export {};
 
 const BENCHES: { name: string; load: () => Promise<{ run: () => Promise<void> }> }[] = [
   { name: 'run-file analysis', load: () => import('./analyze.bench.js') },
+  { name: 'gain-report PDF', load: () => import('./report.bench.js') },
 ];
 
 const only = process.argv.slice(2);

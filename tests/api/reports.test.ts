@@ -1,0 +1,346 @@
+import { createHash } from 'node:crypto';
+import { execFileSync } from 'node:child_process';
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type supertest from 'supertest';
+import { createTestApp, type TestApp, type TestShop } from '../support/test-app';
+import { latestMailTo, linkIn } from '../support/mail';
+import { PEAKS_HP, seedReportScenario, solidPng } from '../support/report-fixtures';
+import { fmtPctChange, fmtPowerGain, fmtRpm, fmtTorqueGain, powerIn, torqueIn } from '@server/modules/reports/figures';
+import { Shop } from '@server/modules/shops/shop.entity';
+import { ShareLink } from '@server/modules/reports/report.entity';
+import type { ComparisonDetailDto } from '@shared/schemas/comparison';
+
+const ARTIFACTS = path.resolve('tests/artifacts');
+/** Clears the share look-up counters of every address (supertest's address form varies). */
+const resetShareLimits = () => t.deps.orm.em.fork().getConnection().execute("delete from rate_limit where key like 'share:%'");
+const sha256 = (b: Buffer) => createHash('sha256').update(b).digest('hex');
+
+let t: TestApp;
+let a: TestShop;
+let b: TestShop;
+let scenario: Awaited<ReturnType<typeof seedReportScenario>>;
+let desk: ReturnType<typeof supertest.agent>;
+let owner: ReturnType<typeof supertest.agent>;
+
+beforeAll(async () => {
+  t = await createTestApp();
+  a = await t.createShop('Northgate Cycle Works');
+  b = await t.createShop('Other Garage');
+  const em = t.deps.orm.em.fork();
+  await em.nativeUpdate(Shop, { id: a.shop.id }, { address: '14 Foundry Lane, Millbrook', phone: '555-0142', email: 'desk@northgate.test' });
+  scenario = await seedReportScenario(t, a);
+  desk = await t.signIn(a.users.desk);
+  owner = await t.signIn(a.users.owner);
+  fs.mkdirSync(ARTIFACTS, { recursive: true });
+});
+afterAll(() => t.close());
+
+/** Binary body of a supertest response. */
+function binary(req: supertest.Test) {
+  return req.buffer(true).parse((res, cb) => {
+    const chunks: Buffer[] = [];
+    res.on('data', (c: Buffer) => chunks.push(c));
+    res.on('end', () => cb(null, Buffer.concat(chunks)));
+  });
+}
+
+function pdfText(pdf: Buffer): string {
+  const file = path.join(os.tmpdir(), `pb-report-${process.pid}-${Date.now()}.pdf`);
+  fs.writeFileSync(file, pdf);
+  try {
+    return execFileSync('pdftotext', ['-layout', file, '-'], { encoding: 'utf8' });
+  } finally {
+    fs.rmSync(file, { force: true });
+  }
+}
+
+function pdfInfo(pdf: Buffer): string {
+  const file = path.join(os.tmpdir(), `pb-info-${process.pid}-${Date.now()}.pdf`);
+  fs.writeFileSync(file, pdf);
+  try {
+    return execFileSync('pdfinfo', [file], { encoding: 'utf8' });
+  } finally {
+    fs.rmSync(file, { force: true });
+  }
+}
+
+function renderPage1(pdf: Buffer, name: string): string {
+  const file = path.join(ARTIFACTS, `${name}.pdf`);
+  fs.writeFileSync(file, pdf);
+  execFileSync('pdftoppm', ['-png', '-r', '60', '-f', '1', '-l', '1', '-singlefile', file, path.join(ARTIFACTS, name)]);
+  return path.join(ARTIFACTS, `${name}.png`);
+}
+
+async function comparisonFigures(agent = desk) {
+  const res = await agent.get(`/api/comparisons/${scenario.comparisonId}`);
+  expect(res.status).toBe(200);
+  return (res.body as ComparisonDetailDto).preview!;
+}
+
+describe('shop logo', () => {
+  it('accepts a PNG up to 2 MB from the owner and refuses other bytes by their magic number', async () => {
+    const png = solidPng(120, 40, [180, 71, 15]);
+    const ok = await owner.post('/api/shop-logo').attach('logo', png, { filename: 'logo.png', contentType: 'image/png' });
+    expect(ok.status).toBe(200);
+    expect(ok.body.format).toBe('png');
+    const stored = await binary(owner.get('/api/shop-logo'));
+    expect(stored.status).toBe(200);
+    expect(sha256(stored.body as Buffer)).toBe(sha256(png));
+
+    // A text file named .png is refused: it does not start with the PNG signature.
+    const fake = await owner.post('/api/shop-logo').attach('logo', Buffer.from('not really an image'), { filename: 'logo.png', contentType: 'image/png' });
+    expect(fake.status).toBe(415);
+    const big = Buffer.concat([png, Buffer.alloc(2 * 1024 * 1024)]);
+    expect((await owner.post('/api/shop-logo').attach('logo', big, { filename: 'big.png', contentType: 'image/png' })).status).toBe(413);
+    expect((await desk.post('/api/shop-logo').attach('logo', png, { filename: 'logo.png', contentType: 'image/png' })).status).toBe(403);
+  });
+});
+
+describe('generating a report', () => {
+  let first: { id: string; version: number; pdfUrl: string };
+
+  it('makes version 1 stored in object storage with its sha256', async () => {
+    const res = await desk.post('/api/reports').send({ comparisonId: scenario.comparisonId, technicianNote: 'Re-torque the exhaust clamps after the first 300 miles.' });
+    expect(res.status).toBe(201);
+    expect(res.body).toMatchObject({ version: 1, pdfUrl: `/api/reports/${res.body.id}/pdf` });
+    first = res.body;
+    const pdf = await binary(desk.get(first.pdfUrl));
+    expect(pdf.status).toBe(200);
+    expect(pdf.headers['content-type']).toMatch(/^application\/pdf/);
+    const bytes = pdf.body as Buffer;
+    expect(bytes.subarray(0, 5).toString()).toBe('%PDF-');
+    const detail = (await desk.get(`/api/reports/${first.id}`)).body;
+    expect(detail.number).toMatch(/^R-\d{4}-\d{4}$/);
+    expect(detail.pdfSha256).toBe(sha256(bytes));
+    const stored = await t.deps.storage.getBuffer(`shops/${a.shop.id}/reports/${detail.number}/v1.pdf`);
+    expect(sha256(stored)).toBe(detail.pdfSha256);
+    renderPage1(bytes, 'report-page1');
+  });
+
+  it('prints the comparison API’s gain figures, formatted the same way', async () => {
+    const preview = await comparisonFigures();
+    const text = pdfText((await binary(desk.get(first.pdfUrl))).body as Buffer);
+    expect(preview.results).toHaveLength(2);
+    for (const r of preview.results) {
+      expect(text).toContain(fmtPowerGain(r.peakPowerGain.hp, 'imperial'));
+      expect(text).toContain(fmtTorqueGain(r.peakTorqueGain.lbft, 'imperial'));
+      expect(text).toContain(fmtPctChange(r.areaGainPct));
+      expect(text).toContain(fmtPowerGain(r.averagePowerGainHp, 'imperial'));
+    }
+    const last = preview.results[1];
+    for (const band of last.bands) expect(text).toContain(fmtPowerGain(band.averagePowerGainHp, 'imperial'));
+    expect(text).toContain(`${fmtPowerGain(last.largestGain.hp, 'imperial')} at ${fmtRpm(last.largestGain.rpm)}`);
+    // Peaks were set by construction and the runs sit at SAE J1349 reference air (factor exactly 1):
+    // 103.5 − 85 = +18.5 hp and 92 − 85 = +7.0 hp.
+    expect(last.peakPowerGain.hp).toBeCloseTo(PEAKS_HP.stage2 - PEAKS_HP.baseline, 2);
+    expect(text).toContain('+18.5 hp');
+    expect(text).toContain('+7.0 hp');
+  });
+
+  it('prints shop, customer, bike, stages and costs, conditions, note, cautions and page numbers', async () => {
+    const text = pdfText((await binary(desk.get(first.pdfUrl))).body as Buffer);
+    for (const s of ['Northgate Cycle Works', '14 Foundry Lane, Millbrook', '555-0142', a.customer.name, 'Testmake Own', 'Baseline', 'Stage 1', 'Stage 2', 'Two-into-one stainless system', '$899.00', '$720.00', 'SAE J1349', '25.0 °C', '99.0 kPa', 'Re-torque the exhaust clamps', 'ISO 4106', 'emissions', 'warranty', 'insurance', 'local law', 'Page 1 of 2', 'Page 2 of 2']) {
+      expect(text, s).toContain(s);
+    }
+    // Cost of the work after the baseline ÷ peak power gain: (899 + 180 + 450 + 549 + 720) / 18.5 = $151 per hp.
+    const costDollars = 899 + 180 + 450 + 549 + 720;
+    expect(text).toContain(`$${Math.round(costDollars / (PEAKS_HP.stage2 - PEAKS_HP.baseline))}`);
+    expect(text).toMatch(/Baseline: 2 runs|Repeatability|run-to-run/);
+  });
+
+  it('embeds the shop logo as an image', async () => {
+    const file = path.join(os.tmpdir(), `pb-img-${process.pid}.pdf`);
+    fs.writeFileSync(file, (await binary(desk.get(first.pdfUrl))).body as Buffer);
+    const list = execFileSync('pdfimages', ['-list', file], { encoding: 'utf8' });
+    fs.rmSync(file);
+    expect(list.split('\n').filter((l) => /^\s*1\s/.test(l)).length).toBeGreaterThanOrEqual(1);
+  });
+
+  it('regenerating makes version 2 with the same number and leaves version 1 as it was', async () => {
+    const v1 = (await desk.get(`/api/reports/${first.id}`)).body;
+    const res = await desk.post('/api/reports').send({ comparisonId: scenario.comparisonId });
+    expect(res.status).toBe(201);
+    expect(res.body.version).toBe(2);
+    const v2 = (await desk.get(`/api/reports/${res.body.id}`)).body;
+    expect(v2.number).toBe(v1.number);
+    expect(v2.versions.map((v: { version: number }) => v.version)).toEqual([2, 1]);
+    // The note carries over when not given again.
+    expect(v2.technicianNote).toBe(v1.technicianNote);
+    const stored1 = await t.deps.storage.getBuffer(`shops/${a.shop.id}/reports/${v1.number}/v1.pdf`);
+    expect(sha256(stored1)).toBe(v1.pdfSha256);
+    const list = await desk.get('/api/reports').query({ bikeId: a.bike.id });
+    expect(list.body.map((r: { version: number }) => r.version)).toEqual([2, 1]);
+  });
+
+  it('prints kW and N·m on A4 when the shop says so', async () => {
+    const em = t.deps.orm.em.fork();
+    await em.nativeUpdate(Shop, { id: a.shop.id }, { units: 'metric', paperSize: 'a4' });
+    try {
+      const res = await desk.post('/api/reports').send({ comparisonId: scenario.comparisonId });
+      expect(res.status).toBe(201);
+      const pdf = (await binary(desk.get(res.body.pdfUrl))).body as Buffer;
+      // A4 is 210 × 297 mm = 595.28 × 841.89 pt (ISO 216).
+      expect(pdfInfo(pdf)).toMatch(/Page size:\s+595\.2\d? x 841\.8\d?/);
+      const text = pdfText(pdf);
+      const last = (await comparisonFigures()).results[1];
+      expect(text).toContain(fmtPowerGain(last.peakPowerGain.hp, 'metric'));
+      expect(text).toContain(fmtTorqueGain(last.peakTorqueGain.lbft, 'metric'));
+      // 18.5 hp × 0.7456999 kW/hp (NIST SP 811) = 13.8 kW.
+      expect(powerIn(18.5, 'metric')).toBeCloseTo(13.795, 3);
+      expect(torqueIn(1, 'metric')).toBeCloseTo(1.355818, 6);
+      expect(text).toContain('+13.8 kW');
+      expect(text).not.toContain(' hp ');
+      renderPage1(pdf, 'report-page1-metric-a4');
+    } finally {
+      await em.nativeUpdate(Shop, { id: a.shop.id }, { units: 'imperial', paperSize: 'letter' });
+    }
+  });
+
+  it('answers 404 for another shop’s comparison and report', async () => {
+    const otherDesk = await t.signIn(b.users.desk);
+    expect((await otherDesk.post('/api/reports').send({ comparisonId: scenario.comparisonId })).status).toBe(404);
+    expect((await otherDesk.get(`/api/reports/${first.id}`)).status).toBe(404);
+    expect((await otherDesk.get(first.pdfUrl)).status).toBe(404);
+    expect((await otherDesk.get('/api/reports').query({ bikeId: a.bike.id })).body).toEqual([]);
+  });
+});
+
+describe('customers', () => {
+  it('see and download reports of their own bikes only, and cannot send or share', async () => {
+    const customer = await t.signIn(a.users.customer);
+    const list = await customer.get('/api/reports').query({ bikeId: a.bike.id });
+    expect(list.status).toBe(200);
+    expect(list.body.length).toBeGreaterThan(0);
+    const id = list.body[0].id;
+    const pdf = await binary(customer.get(`/api/reports/${id}/pdf`));
+    expect(pdf.status).toBe(200);
+    expect(sha256(pdf.body as Buffer)).toBe(list.body[0].pdfSha256);
+    expect((await customer.get('/api/reports').query({ bikeId: a.otherBike.id })).body).toEqual([]);
+    expect((await customer.post(`/api/reports/${id}/send`).send({ to: 'x@y.test', message: 'hi' })).status).toBe(403);
+    expect((await customer.post(`/api/reports/${id}/share`).send({})).status).toBe(403);
+    expect((await customer.post('/api/reports').send({ comparisonId: scenario.comparisonId })).status).toBe(403);
+  });
+});
+
+describe('sending', () => {
+  it('e-mails the stored PDF (same sha256) with a working share link and logs the delivery', async () => {
+    const [report] = (await desk.get('/api/reports').query({ bikeId: a.bike.id })).body;
+    const to = a.customer.email!;
+    const res = await desk.post(`/api/reports/${report.id}/send`).send({ to, message: 'Hello, here is your report.' });
+    expect(res.status).toBe(201);
+    expect(res.body.status).toBe('sent');
+    const mail = await latestMailTo(to);
+    expect(mail.subject).toContain(report.number);
+    expect(mail.text).toContain('Hello, here is your report.');
+    expect(mail.attachments).toHaveLength(1);
+    expect(mail.attachments[0].contentType).toBe('application/pdf');
+    expect(sha256(mail.attachments[0].content)).toBe(report.pdfSha256);
+    const token = linkIn(mail.text, '/share/');
+    expect(token).toHaveLength(43);
+    expect((await t.request.get(`/api/share/${token}`)).status).toBe(200);
+    const log = await desk.get(`/api/reports/${report.id}/deliveries`);
+    expect(log.body[0]).toMatchObject({ to, status: 'sent', error: null });
+  });
+
+  it('logs a failed delivery with the relay’s error', async () => {
+    const [report] = (await desk.get('/api/reports').query({ bikeId: a.bike.id })).body;
+    const original = t.deps.mailer.send;
+    t.deps.mailer.send = async () => {
+      throw new Error('550 mailbox unavailable');
+    };
+    try {
+      const res = await desk.post(`/api/reports/${report.id}/send`).send({ to: 'nobody@nowhere.test', message: 'Hi' });
+      expect(res.status).toBe(502);
+      expect(res.body.error.code).toBe('MAIL_FAILED');
+    } finally {
+      t.deps.mailer.send = original;
+    }
+    const log = await desk.get(`/api/reports/${report.id}/deliveries`);
+    expect(log.body[0]).toMatchObject({ to: 'nobody@nowhere.test', status: 'failed', error: '550 mailbox unavailable' });
+  });
+
+  it('validates the recipient', async () => {
+    const [report] = (await desk.get('/api/reports').query({ bikeId: a.bike.id })).body;
+    const res = await desk.post(`/api/reports/${report.id}/send`).send({ to: 'not-an-address', message: '' });
+    expect(res.status).toBe(400);
+    expect(res.body.error.details.fields.map((f: { path: string }) => f.path)).toEqual(expect.arrayContaining(['to', 'message']));
+  });
+});
+
+describe('share links', () => {
+  let reportId: string;
+  let token: string;
+  let shareId: string;
+
+  beforeAll(async () => {
+    reportId = (await desk.get('/api/reports').query({ bikeId: a.bike.id })).body[0].id;
+    await resetShareLimits();
+  });
+
+  it('creates a 256-bit token, stores only its hash, and counts views', async () => {
+    const res = await desk.post(`/api/reports/${reportId}/share`).send({});
+    expect(res.status).toBe(201);
+    const url = new URL(res.body.url);
+    token = url.pathname.split('/').pop()!;
+    shareId = res.body.id;
+    // 32 random bytes in base64url = 43 characters (RFC 4648 §5, no padding).
+    expect(token).toMatch(/^[A-Za-z0-9_-]{43}$/);
+    const days = (new Date(res.body.expiresAt).getTime() - Date.now()) / 86_400_000;
+    expect(days).toBeGreaterThan(29.9);
+    expect(days).toBeLessThanOrEqual(30);
+    const row = await t.deps.orm.em.fork().findOneOrFail(ShareLink, { id: shareId });
+    expect(row.tokenHash).toBe(createHash('sha256').update(token).digest('hex'));
+    expect(row.tokenHash).not.toContain(token);
+
+    const view = await t.request.get(`/api/share/${token}`);
+    expect(view.status).toBe(200);
+    expect(view.body.shopName).toBe('Northgate Cycle Works');
+    expect(view.body.curves.length).toBe(3);
+    const json = JSON.stringify(view.body);
+    for (const secret of [a.customer.email!, a.customer.name, '555-0142', 'desk@northgate.test', a.otherBike.id, 'Other']) expect(json).not.toContain(secret);
+    await t.request.get(`/api/share/${token}`);
+    const links = await desk.get(`/api/reports/${reportId}/share`);
+    expect(links.body.find((l: { id: string }) => l.id === shareId).viewCount).toBe(2);
+    const pdf = await binary(t.request.get(`/api/share/${token}/pdf`));
+    expect(pdf.status).toBe(200);
+    expect(pdf.headers['content-type']).toMatch(/^application\/pdf/);
+  });
+
+  it('answers unknown, expired and revoked tokens with the same 404', async () => {
+    const unknown = await t.request.get(`/api/share/${'A'.repeat(43)}`);
+    expect(unknown.status).toBe(404);
+    const malformed = await t.request.get('/api/share/short');
+    expect(malformed.status).toBe(404);
+    expect(malformed.body).toEqual(unknown.body);
+
+    const exp = await desk.post(`/api/reports/${reportId}/share`).send({ expiresInDays: 1 });
+    const expToken = new URL(exp.body.url).pathname.split('/').pop()!;
+    await t.deps.orm.em.fork().nativeUpdate(ShareLink, { id: exp.body.id }, { expiresAt: new Date(Date.now() - 1000) });
+    const expired = await t.request.get(`/api/share/${expToken}`);
+    expect(expired.status).toBe(404);
+    expect(expired.body).toEqual(unknown.body);
+    expect((await t.request.get(`/api/share/${expToken}/pdf`)).status).toBe(404);
+
+    // Another shop cannot revoke it; the owner shop can.
+    const otherDesk = await t.signIn(b.users.desk);
+    expect((await otherDesk.delete(`/api/reports/${reportId}/share/${shareId}`)).status).toBe(404);
+    expect((await desk.delete(`/api/reports/${reportId}/share/${shareId}`)).status).toBe(200);
+    const revoked = await t.request.get(`/api/share/${token}`);
+    expect(revoked.status).toBe(404);
+    expect(revoked.body).toEqual(unknown.body);
+    const links = (await desk.get(`/api/reports/${reportId}/share`)).body;
+    expect(links.find((l: { id: string }) => l.id === shareId).status).toBe('revoked');
+  });
+
+  it('rate-limits look-ups per address', async () => {
+    await resetShareLimits();
+    const statuses: number[] = [];
+    for (let i = 0; i < 62; i++) statuses.push((await t.request.get(`/api/share/${'B'.repeat(43)}`)).status);
+    expect(statuses.slice(0, 60).every((s) => s === 404)).toBe(true);
+    expect(statuses[61]).toBe(429);
+    await resetShareLimits();
+  });
+});
