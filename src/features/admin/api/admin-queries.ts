@@ -1,0 +1,70 @@
+import { infiniteQueryOptions, queryOptions } from '@tanstack/react-query';
+import type { Role } from '@shared/roles';
+import type { ShopDto } from '@shared/schemas/shop';
+import { api } from '@/lib/api-client';
+
+/** A user as GET /api/users lists them. */
+export interface UserDto {
+  id: string;
+  email: string;
+  name: string;
+  role: Role;
+  disabled: boolean;
+  invitePending: boolean;
+  customerId: string | null;
+  lastLoginAt: string | null;
+}
+
+export interface AuditEntry {
+  id: string;
+  at: string;
+  userName: string | null;
+  action: string;
+  entityType: string;
+  entityId: string;
+  details: Record<string, unknown> | null;
+}
+
+export interface OutboxItem {
+  id: string;
+  receivedAt: string;
+  from: string;
+  to: string;
+  subject: string;
+  text: string;
+  attachments: { filename: string; contentType: string; size: number }[];
+}
+
+export interface OutboxList {
+  /** False when mail goes to a real relay: nothing is captured here then. */
+  enabled: boolean;
+  items: OutboxItem[];
+}
+
+export const AUDIT_PAGE = 100;
+
+/**
+ * The owner's settings screens. Users live under ['users'] (the customers feature invalidates
+ * that key when it invites a rider); the shop under ['shop'], shared with the app shell's header.
+ */
+export const adminQueries = {
+  users: () => queryOptions({ queryKey: ['users'] as const, queryFn: () => api.get<UserDto[]>('/api/users') }),
+  shop: () => queryOptions({ queryKey: ['shop'] as const, queryFn: () => api.get<ShopDto>('/api/shop') }),
+  audit: () =>
+    infiniteQueryOptions({
+      queryKey: ['audit'] as const,
+      queryFn: ({ pageParam }) => api.get<AuditEntry[]>('/api/audit', { before: pageParam, limit: AUDIT_PAGE }),
+      initialPageParam: undefined as string | undefined,
+      // The log is newest first; the next page is everything before the oldest entry shown.
+      getNextPageParam: (last) => (last.length < AUDIT_PAGE ? undefined : last[last.length - 1].at),
+    }),
+  outbox: () => queryOptions({ queryKey: ['outbox'] as const, queryFn: () => api.get<OutboxList>('/api/outbox') }),
+  outboxMessage: (id: string) =>
+    queryOptions({
+      queryKey: ['outbox', id] as const,
+      queryFn: () => api.get<OutboxItem & { html: string | null }>(`/api/outbox/${encodeURIComponent(id)}`),
+      staleTime: Infinity,
+    }),
+};
+
+export const outboxAttachmentUrl = (id: string, index: number) => `/api/outbox/${encodeURIComponent(id)}/attachments/${index}`;

@@ -1,0 +1,24 @@
+import type { ReactNode } from 'react';
+import { Link } from 'react-router-dom';
+import { ROLE_LABELS } from '@shared/roles';
+import { EmptyState } from '@/components/ui';
+import { useCurrentUser } from '@/lib/auth';
+import { paths } from '@/config/paths';
+
+/** Settings pages are the owner's. Others who land here (an old link, a typed address) are told so plainly. */
+export function OwnerOnly({ children }: { children: ReactNode }) {
+  const user = useCurrentUser();
+  if (user.role === 'owner') return <>{children}</>;
+  return (
+    <EmptyState
+      icon="circle-info"
+      title="Not for your role"
+      message={`This page is for the shop owner; you are signed in as ${ROLE_LABELS[user.role].toLowerCase()}. Ask the owner if something here needs changing.`}
+      action={
+        <Link to={paths.home} className="text-accent underline">
+          Go to the start page
+        </Link>
+      }
+    />
+  );
+}

@@ -1,0 +1,2 @@
+/** The admin feature's public face. */
+export { adminRoutes } from './routes';

@@ -1,0 +1,131 @@
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useQuery } from '@tanstack/react-query';
+import type { z } from 'zod';
+import { shopSettingsInput, type CorrectionStandard, type ShopDto, type ShopSettingsValues } from '@shared/schemas/shop';
+import { Button, Card, ErrorState, FormError, LoadingState, PageHeader, SelectField, TextAreaField, TextField, useToast } from '@/components/ui';
+import { applyFieldErrors } from '@/lib/api-client';
+import { adminQueries } from '../api/admin-queries';
+import { useUpdateShop } from '../api/update-shop';
+import { OwnerOnly } from '../components/owner-only';
+
+const CORRECTION_LABELS: Record<CorrectionStandard, string> = {
+  none: 'None — observed figures as measured',
+  'sae-j1349': 'SAE J1349 (current edition)',
+  'sae-j1349-1990': 'SAE J1349 (1990 edition)',
+  'iso-1585': 'ISO 1585',
+  'din-70020': 'DIN 70020',
+  'sae-j607': 'SAE J607',
+};
+
+export default function ShopSettingsPage() {
+  return (
+    <OwnerOnly>
+      <ShopSettingsScreen />
+    </OwnerOnly>
+  );
+}
+
+function ShopSettingsScreen() {
+  const shop = useQuery(adminQueries.shop());
+  return (
+    <>
+      <PageHeader title="Shop settings" subtitle="How the shop appears on gain reports, and the defaults new work starts from." />
+      {shop.isPending ? (
+        <LoadingState message="Loading the shop settings…" />
+      ) : shop.isError ? (
+        <ErrorState error={shop.error} onRetry={() => shop.refetch()} isRetrying={shop.isFetching} />
+      ) : (
+        <ShopForm shop={shop.data} />
+      )}
+    </>
+  );
+}
+
+function ShopForm({ shop }: { shop: ShopDto }) {
+  const toast = useToast();
+  const save = useUpdateShop();
+  const [formError, setFormError] = useState<string | null>(null);
+  const form = useForm<ShopSettingsValues, unknown, z.output<typeof shopSettingsInput>>({
+    resolver: zodResolver(shopSettingsInput),
+    mode: 'onTouched',
+    defaultValues: {
+      name: shop.name,
+      address: shop.address ?? '',
+      phone: shop.phone ?? '',
+      email: shop.email ?? '',
+      units: shop.units,
+      paperSize: shop.paperSize,
+      defaultCorrection: shop.defaultCorrection,
+    },
+  });
+  const { errors, isDirty } = form.formState;
+
+  const onSubmit = form.handleSubmit(async (values) => {
+    setFormError(null);
+    try {
+      const saved = await save.mutateAsync(values);
+      form.reset({ ...values, address: saved.address ?? '', phone: saved.phone ?? '', email: saved.email ?? '' });
+      toast.success('Shop settings saved');
+    } catch (err) {
+      if (!applyFieldErrors(err, form.setError)) setFormError(err instanceof Error ? err.message : 'Try again in a moment.');
+      toast.error('The settings were not saved');
+    }
+  });
+
+  return (
+    <form onSubmit={onSubmit} noValidate className="grid max-w-5xl gap-6 lg:grid-cols-2">
+      <FormError error={formError} className="lg:col-span-2" />
+      <Card title="On reports and e-mails" description="Printed in the header of every gain report.">
+        <div className="space-y-4">
+          <TextField label="Shop name" required error={errors.name} {...form.register('name')} />
+          <TextAreaField label="Address" rows={3} error={errors.address} {...form.register('address')} />
+          <div className="grid gap-4 md:grid-cols-2">
+            <TextField label="Phone" type="tel" error={errors.phone} {...form.register('phone')} />
+            <TextField label="E-mail" type="email" error={errors.email} {...form.register('email')} />
+          </div>
+        </div>
+      </Card>
+      <Card title="Defaults" description="Each comparison and report can still choose otherwise.">
+        <div className="space-y-4">
+          <SelectField
+            label="Units"
+            hint="Imperial: hp, lb·ft, °F, inHg. Metric: kW, N·m, °C, kPa."
+            options={[
+              { value: 'imperial', label: 'Imperial (hp, lb·ft)' },
+              { value: 'metric', label: 'Metric (kW, N·m)' },
+            ]}
+            error={errors.units}
+            {...form.register('units')}
+          />
+          <SelectField
+            label="Report paper size"
+            options={[
+              { value: 'letter', label: 'Letter (8.5 × 11 in)' },
+              { value: 'a4', label: 'A4 (210 × 297 mm)' },
+            ]}
+            error={errors.paperSize}
+            {...form.register('paperSize')}
+          />
+          <SelectField
+            label="Default correction standard"
+            hint="Corrects measured figures to standard air, so runs from different days compare fairly. Compare only runs corrected the same way."
+            options={Object.entries(CORRECTION_LABELS).map(([value, label]) => ({ value, label }))}
+            error={errors.defaultCorrection}
+            {...form.register('defaultCorrection')}
+          />
+        </div>
+      </Card>
+      <div className="flex items-center justify-end gap-3 lg:col-span-2">
+        {isDirty && <span className="text-sm text-ink-muted">Unsaved changes</span>}
+        <Button type="button" variant="ghost" disabled={!isDirty || save.isPending} onClick={() => form.reset()}>
+          Undo changes
+        </Button>
+        <Button type="submit" variant="primary" loading={save.isPending} loadingText="Saving…">
+          Save settings
+        </Button>
+      </div>
+    </form>
+  );
+}
