@@ -14,8 +14,11 @@ type StageInput = z.output<typeof stageInput>;
 type StageUpdateInput = z.output<typeof stageUpdateInput>;
 type PartInput = z.output<typeof partInput>;
 
-/** Dollars as entered → whole cents (half a cent rounds away from zero). */
-export const toCents = (dollars: number | null | undefined) => (dollars == null ? 0 : Math.round(dollars * 100));
+/**
+ * Dollars as entered → whole cents, half a cent rounding up. The product is first cut to 6
+ * decimals so binary noise (1.005 × 100 = 100.49999…) does not round the entered value down.
+ */
+export const toCents = (dollars: number | null | undefined) => (dollars == null ? 0 : Math.round(Number((dollars * 100).toFixed(6))));
 
 const toPartDto = (p: Part): PartDto => ({
   id: p.id,
@@ -26,8 +29,10 @@ const toPartDto = (p: Part): PartDto => ({
   headWorkLevel: p.headWorkLevel,
 });
 
-function partFields(input: PartInput) {
+function partFields(input: PartInput, index = 0) {
   return {
+    // Parts keep the order they were entered in (createdAt breaks ties within one request).
+    createdAt: new Date(Date.now() + index),
     category: input.category,
     description: input.description,
     partCostCents: toCents(input.partCost),
@@ -92,7 +97,7 @@ export async function createStage(em: EntityManager, actor: Actor, input: StageI
   const last = await em.findOne(Stage, { bike: bike.id }, { orderBy: { position: 'desc' } });
   const shop = em.getReference(Shop, actor.shopId);
   const stage = em.create(Stage, { shop, bike, position: last ? last.position + 1 : 0, name: input.name, date: input.date ?? null, description: input.description } as Stage);
-  for (const p of input.parts) em.create(Part, { shop, stage, ...partFields(p) } as Part);
+  input.parts.forEach((p, i) => em.create(Part, { shop, stage, ...partFields(p, i) } as Part));
   await em.flush();
   await refreshBikeOutcomes(em, bike.id);
   await recordAudit(em, actor, 'stage.create', 'stage', stage.id, { bikeId: bike.id, name: stage.name, parts: input.parts.length });
@@ -107,7 +112,7 @@ export async function updateStage(em: EntityManager, actor: Actor, id: string, i
   if (input.parts !== undefined) {
     // The list given replaces the stage's parts.
     await em.nativeDelete(Part, { stage: stage.id });
-    for (const p of input.parts) em.create(Part, { shop: em.getReference(Shop, actor.shopId), stage, ...partFields(p) } as Part);
+    input.parts.forEach((p, i) => em.create(Part, { shop: em.getReference(Shop, actor.shopId), stage, ...partFields(p, i) } as Part));
   }
   await em.flush();
   await refreshBikeOutcomes(em, stage.bike.id);
@@ -167,7 +172,7 @@ export async function addPart(em: EntityManager, actor: Actor, stageId: string, 
   const part = em.create(Part, { shop: em.getReference(Shop, actor.shopId), stage, ...partFields(input) } as Part);
   await em.flush();
   await refreshBikeOutcomes(em, stage.bike.id);
-  await recordAudit(em, actor, 'part.create', 'part', part.id, { stageId, ...partFields(input) });
+  await recordAudit(em, actor, 'part.create', 'part', part.id, { stageId, category: part.category, partCostCents: part.partCostCents, labourCostCents: part.labourCostCents });
   return stageDto(em, stage);
 }
 
@@ -180,10 +185,11 @@ async function partOf(em: EntityManager, actor: Actor, stageId: string, partId: 
 
 export async function updatePart(em: EntityManager, actor: Actor, stageId: string, partId: string, input: PartInput): Promise<StageDto> {
   const { stage, part } = await partOf(em, actor, stageId, partId);
-  em.assign(part, partFields(input));
+  const { createdAt: _keepOrder, ...fields } = partFields(input);
+  em.assign(part, fields);
   await em.flush();
   await refreshBikeOutcomes(em, stage.bike.id);
-  await recordAudit(em, actor, 'part.update', 'part', part.id, { stageId, ...partFields(input) });
+  await recordAudit(em, actor, 'part.update', 'part', part.id, { stageId, ...fields });
   return stageDto(em, stage);
 }
 
