@@ -1,2 +1,6 @@
 /** What the runs feature offers other screens (composed in src/app/routes). */
-export {};
+export { BikeBuildTimeline } from './components/build-timeline';
+export { BikeRunsSection } from './components/bike-runs-section';
+export { runQueries } from './api/run-queries';
+export { stageQueries } from './api/stage-queries';
+export { sessionQueries } from './api/session-queries';

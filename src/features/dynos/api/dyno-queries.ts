@@ -1,0 +1,21 @@
+import { queryOptions } from '@tanstack/react-query';
+import type { DynoDto } from '@shared/schemas/run';
+import { api } from '@/lib/api-client';
+
+export const dynoQueries = {
+  all: () => ['dynos'] as const,
+  list: () =>
+    queryOptions({
+      queryKey: [...dynoQueries.all(), 'list'] as const,
+      queryFn: async () => {
+        const r = await api.get<DynoDto[] | { items: DynoDto[] }>('/api/dynos');
+        return Array.isArray(r) ? r : r.items;
+      },
+    }),
+};
+
+export const DYNO_KIND_LABELS: Record<DynoDto['kind'], string> = {
+  inertia: 'Inertia (roller only)',
+  'eddy-current': 'Eddy-current / load-holding',
+  other: 'Other',
+};

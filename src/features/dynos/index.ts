@@ -1,0 +1,2 @@
+/** What the dynos feature offers the app: its settings route. */
+export { dynoRoutes } from './routes';

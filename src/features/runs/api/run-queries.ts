@@ -1,0 +1,92 @@
+import { keepPreviousData, queryOptions } from '@tanstack/react-query';
+import type { RunDetailDto, RunStatusId, RunSummaryDto } from '@shared/schemas/run';
+import type { BikeDto } from '@shared/schemas/bike';
+import type { CustomerDto } from '@shared/schemas/customer';
+import { api } from '@/lib/api-client';
+import { itemsOf, toPage, type ListResponse } from './shared';
+
+/** Filters of the run list; the same names as the API's query (runListQuery) and the page URL. */
+export interface RunFilters {
+  bikeId?: string;
+  customerId?: string;
+  stageId?: string;
+  sessionId?: string;
+  tag?: string;
+  status?: RunStatusId;
+  from?: string;
+  to?: string;
+  sort?: string;
+  page?: number;
+  pageSize?: number;
+  includeDeleted?: boolean;
+}
+
+/** The first rows of a file as the reader split them, to choose columns by hand. */
+export interface RunPreview {
+  headers: string[];
+  rows: string[][];
+  suggestions: Record<string, unknown>;
+}
+
+interface RawPreview {
+  headers?: string[];
+  previewRows?: string[][];
+  rows?: string[][];
+  suggestions?: Record<string, unknown>;
+}
+
+export function normalisePreview(p: RawPreview | null | undefined): RunPreview {
+  return { headers: p?.headers ?? [], rows: p?.previewRows ?? p?.rows ?? [], suggestions: p?.suggestions ?? {} };
+}
+
+export const runQueries = {
+  all: () => ['runs'] as const,
+  lists: () => [...runQueries.all(), 'list'] as const,
+  list: (filters: RunFilters) =>
+    queryOptions({
+      queryKey: [...runQueries.lists(), filters] as const,
+      queryFn: async () => toPage(await api.get<ListResponse<RunSummaryDto>>('/api/runs', { ...filters }), filters.page, filters.pageSize),
+      placeholderData: keepPreviousData,
+    }),
+  details: () => [...runQueries.all(), 'detail'] as const,
+  detail: (id: string) =>
+    queryOptions({
+      queryKey: [...runQueries.details(), id] as const,
+      queryFn: () => api.get<RunDetailDto>(`/api/runs/${id}`),
+    }),
+  preview: (id: string) =>
+    queryOptions({
+      queryKey: [...runQueries.all(), 'preview', id] as const,
+      queryFn: async () => normalisePreview(await api.get<RawPreview>(`/api/runs/${id}/preview`)),
+      staleTime: Infinity,
+    }),
+};
+
+/** Bikes and customers to pick from (the runs feature keeps its own light look-ups). */
+export const lookupQueries = {
+  bikes: (q: string) =>
+    queryOptions({
+      queryKey: ['runs', 'lookup', 'bikes', q] as const,
+      queryFn: async () => itemsOf(await api.get<ListResponse<BikeDto>>('/api/bikes', { q: q || undefined, pageSize: 50 })),
+      placeholderData: keepPreviousData,
+    }),
+  /** Every bike of the shop (up to the API's page limit), for filter menus. */
+  allBikes: () =>
+    queryOptions({
+      queryKey: ['runs', 'lookup', 'bikes', 'all'] as const,
+      queryFn: async () => itemsOf(await api.get<ListResponse<BikeDto>>('/api/bikes', { pageSize: 200, sort: 'make' })),
+      staleTime: 5 * 60_000,
+    }),
+  bike: (id: string) =>
+    queryOptions({ queryKey: ['runs', 'lookup', 'bike', id] as const, queryFn: () => api.get<BikeDto>(`/api/bikes/${id}`) }),
+  customers: () =>
+    queryOptions({
+      queryKey: ['runs', 'lookup', 'customers'] as const,
+      queryFn: async () => itemsOf(await api.get<ListResponse<CustomerDto>>('/api/customers', { pageSize: 200, sort: 'name' })),
+      staleTime: 5 * 60_000,
+    }),
+};
+
+export function bikeLabel(b: Pick<BikeDto, 'make' | 'model' | 'year'>): string {
+  return [b.year, b.make, b.model].filter(Boolean).join(' ');
+}

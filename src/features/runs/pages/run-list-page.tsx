@@ -1,0 +1,174 @@
+import { useMemo } from 'react';
+import { Link, useSearchParams } from 'react-router-dom';
+import { useQuery } from '@tanstack/react-query';
+import { createColumnHelper, type PaginationState, type SortingState } from '@tanstack/react-table';
+import { RUN_STATUSES, type RunStatusId, type RunSummaryDto } from '@shared/schemas/run';
+import { Button, DataTable, ErrorState, Icon, PageHeader, SelectField, TextField } from '@/components/ui';
+import { formatDate, formatHp, formatRpm, formatTorque } from '@/lib/format';
+import { useCurrentUser } from '@/lib/auth';
+import { paths } from '@/config/paths';
+import { bikeLabel, lookupQueries, runQueries, type RunFilters } from '../api/run-queries';
+import { stageQueries } from '../api/stage-queries';
+import { RUN_STATUS_LABELS, RunStatusBadge } from '../components/run-status';
+
+const col = createColumnHelper<RunSummaryDto>();
+const FILTER_KEYS = ['bikeId', 'customerId', 'stageId', 'tag', 'status', 'from', 'to'] as const;
+const DEFAULT_SORT = '-createdAt';
+
+function filtersFrom(params: URLSearchParams): RunFilters {
+  const f: RunFilters = {};
+  for (const k of FILTER_KEYS) {
+    const v = params.get(k);
+    if (v) (f as Record<string, string>)[k] = v;
+  }
+  f.sort = params.get('sort') || DEFAULT_SORT;
+  f.page = Math.max(1, Number(params.get('page')) || 1);
+  f.pageSize = Number(params.get('pageSize')) || 25;
+  return f;
+}
+
+const columns = [
+  col.accessor('createdAt', { id: 'createdAt', header: 'Uploaded', cell: (c) => <span className="num">{formatDate(c.getValue())}</span> }),
+  col.accessor((r) => r.label ?? r.originalName, {
+    id: 'name',
+    header: 'Run',
+    enableSorting: false,
+    cell: (c) => (
+      <Link to={paths.run(c.row.original.id)} className="font-semibold text-accent underline-offset-2 hover:underline">
+        {c.getValue()}
+      </Link>
+    ),
+  }),
+  col.accessor('bikeLabel', { header: 'Bike', enableSorting: false }),
+  col.accessor('customerName', { header: 'Customer', enableSorting: false }),
+  col.accessor('stageName', { header: 'Stage', enableSorting: false, cell: (c) => c.getValue() ?? <span className="text-ink-subtle">none</span> }),
+  col.accessor('status', { header: 'Status', enableSorting: false, cell: (c) => <RunStatusBadge status={c.getValue()} deleted={Boolean(c.row.original.deletedAt)} /> }),
+  col.accessor('peakPowerHp', {
+    id: 'peakPowerHp',
+    header: 'Peak power',
+    meta: { numeric: true },
+    cell: (c) => (
+      <span>
+        {formatHp(c.getValue())}
+        <span className="block text-xs text-ink-subtle">{c.row.original.peakPowerRpm ? `at ${formatRpm(c.row.original.peakPowerRpm)}` : ''}</span>
+      </span>
+    ),
+  }),
+  col.accessor('peakTorqueLbft', {
+    id: 'peakTorqueLbft',
+    header: 'Peak torque',
+    meta: { numeric: true },
+    cell: (c) => (
+      <span>
+        {formatTorque(c.getValue())}
+        <span className="block text-xs text-ink-subtle">{c.row.original.peakTorqueRpm ? `at ${formatRpm(c.row.original.peakTorqueRpm)}` : ''}</span>
+      </span>
+    ),
+  }),
+  col.accessor('tags', { header: 'Tags', enableSorting: false, meta: { wrap: true }, cell: (c) => c.getValue().join(', ') }),
+];
+
+/** Every run of the shop, filtered and sorted on the server; the URL keeps the filters. */
+export function RunListPage() {
+  const user = useCurrentUser();
+  const [params, setParams] = useSearchParams();
+  const filters = useMemo(() => filtersFrom(params), [params]);
+  const runs = useQuery(runQueries.list(filters));
+  const bikes = useQuery(lookupQueries.allBikes());
+  const customers = useQuery(lookupQueries.customers());
+  const stages = useQuery({ ...stageQueries.list(filters.bikeId ?? ''), enabled: Boolean(filters.bikeId) });
+
+  const update = (change: Record<string, string | number | undefined>, resetPage = true) => {
+    const p = new URLSearchParams(params);
+    for (const [k, v] of Object.entries(change)) {
+      if (v === undefined || v === '') p.delete(k);
+      else p.set(k, String(v));
+    }
+    if (resetPage && !('page' in change)) p.delete('page');
+    setParams(p, { replace: true });
+  };
+
+  const sort = filters.sort ?? DEFAULT_SORT;
+  const sorting: SortingState = [{ id: sort.replace(/^-/, ''), desc: sort.startsWith('-') }];
+  const pagination: PaginationState = { pageIndex: (filters.page ?? 1) - 1, pageSize: filters.pageSize ?? 25 };
+  const hasFilters = FILTER_KEYS.some((k) => params.get(k));
+
+  return (
+    <div className="mx-auto max-w-7xl">
+      <PageHeader
+        title="Runs"
+        subtitle="Every pull in the archive. Filter by bike, customer, stage, tag, date or status."
+        action={
+          user.role !== 'desk' && (
+            <Link to={paths.upload} className="inline-flex min-h-11 items-center gap-2 rounded-control bg-accent px-4 font-semibold text-white hover:bg-accent-hover">
+              <Icon name="upload" size={18} /> Upload runs
+            </Link>
+          )
+        }
+      />
+      <form role="search" aria-label="Filter runs" className="mb-4 grid gap-3 md:grid-cols-4" onSubmit={(e) => e.preventDefault()}>
+        <SelectField
+          label="Bike"
+          placeholder="All bikes"
+          value={filters.bikeId ?? ''}
+          onChange={(e) => update({ bikeId: e.target.value, stageId: undefined })}
+          options={(bikes.data ?? []).map((b) => ({ value: b.id, label: `${bikeLabel(b)} · ${b.customerName}` }))}
+        />
+        <SelectField
+          label="Customer"
+          placeholder="All customers"
+          value={filters.customerId ?? ''}
+          onChange={(e) => update({ customerId: e.target.value })}
+          options={(customers.data ?? []).map((c) => ({ value: c.id, label: c.name }))}
+        />
+        <SelectField
+          label="Stage"
+          placeholder={filters.bikeId ? 'All stages' : 'Choose a bike first'}
+          disabled={!filters.bikeId}
+          value={filters.stageId ?? ''}
+          onChange={(e) => update({ stageId: e.target.value })}
+          options={(stages.data ?? []).map((s) => ({ value: s.id, label: s.name }))}
+        />
+        <SelectField
+          label="Status"
+          placeholder="Any status"
+          value={filters.status ?? ''}
+          onChange={(e) => update({ status: e.target.value as RunStatusId })}
+          options={RUN_STATUSES.map((s) => ({ value: s, label: RUN_STATUS_LABELS[s] }))}
+        />
+        <TextField label="Tag" defaultValue={filters.tag ?? ''} key={`tag-${filters.tag ?? ''}`} onBlur={(e) => update({ tag: e.target.value.trim() })} onKeyDown={(e) => e.key === 'Enter' && update({ tag: e.currentTarget.value.trim() })} />
+        <TextField label="From" type="date" value={filters.from ?? ''} onChange={(e) => update({ from: e.target.value })} />
+        <TextField label="To" type="date" value={filters.to ?? ''} onChange={(e) => update({ to: e.target.value })} />
+        <div className="flex items-end">
+          <Button variant="ghost" disabled={!hasFilters} onClick={() => setParams(new URLSearchParams(), { replace: true })}>
+            Clear filters
+          </Button>
+        </div>
+      </form>
+      {runs.isError ? (
+        <ErrorState error={runs.error} onRetry={() => runs.refetch()} isRetrying={runs.isFetching} />
+      ) : (
+        <DataTable
+          caption="Runs"
+          columns={columns}
+          data={runs.data?.items ?? []}
+          getRowId={(r) => r.id}
+          isLoading={runs.isFetching}
+          totalRows={runs.data?.total}
+          sorting={sorting}
+          onSortingChange={(updater) => {
+            const next = typeof updater === 'function' ? updater(sorting) : updater;
+            const s = next[0];
+            update({ sort: s ? `${s.desc ? '-' : ''}${s.id}` : undefined });
+          }}
+          pagination={pagination}
+          onPaginationChange={(updater) => {
+            const next = typeof updater === 'function' ? updater(pagination) : updater;
+            update({ page: next.pageIndex + 1, pageSize: next.pageSize }, false);
+          }}
+          emptyMessage={hasFilters ? 'No run matches these filters.' : 'No runs yet. Upload a session’s files to start the archive.'}
+        />
+      )}
+    </div>
+  );
+}

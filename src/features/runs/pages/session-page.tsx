@@ -1,0 +1,196 @@
+import { useMemo } from 'react';
+import { Link, useParams } from 'react-router-dom';
+import { useQuery } from '@tanstack/react-query';
+import { createColumnHelper } from '@tanstack/react-table';
+import type { RunSummaryDto, SessionDto, StageDto } from '@shared/schemas/run';
+import { WORKSHOP } from '@shared/roles';
+import { Button, Card, DataTable, ErrorState, Icon, LoadingState, PageHeader, StatusBadge, useToast } from '@/components/ui';
+import { formatDateTime, formatHp, formatNumber, formatRpm, formatTorque } from '@/lib/format';
+import { useCurrentUser } from '@/lib/auth';
+import { paths } from '@/config/paths';
+import { bikeLabel, lookupQueries, runQueries } from '../api/run-queries';
+import { sessionQueries } from '../api/session-queries';
+import { stageQueries } from '../api/stage-queries';
+import { useSetReferenceRun } from '../api/set-reference-run';
+import { RunStatusBadge } from '../components/run-status';
+import { StageSelect } from '../components/stage-select';
+import { SafetyChecklist } from '../components/safety-checklist';
+import { CORRECTION_OPTIONS } from '../components/session-form';
+
+const col = createColumnHelper<RunSummaryDto>();
+
+function ReferenceCell({ run, stages, canEdit }: { run: RunSummaryDto; stages: StageDto[]; canEdit: boolean }) {
+  const setRef = useSetReferenceRun();
+  const toast = useToast();
+  const stage = stages.find((s) => s.id === run.stageId);
+  const isRef = run.isReference || (stage?.referenceRunId === run.id);
+  if (isRef) return <StatusBadge status="ok">Reference of {stage?.name ?? 'its stage'}</StatusBadge>;
+  if (!stage) return <span className="text-sm text-ink-subtle">Tag a stage first</span>;
+  if (!canEdit || run.status !== 'ready') return <span className="text-sm text-ink-subtle">—</span>;
+  return (
+    <Button
+      size="sm"
+      loading={setRef.isPending}
+      aria-label={`Make ${run.label ?? run.originalName} the reference run of ${stage.name}`}
+      onClick={() =>
+        setRef.mutate(
+          { stageId: stage.id, runId: run.id },
+          {
+            onSuccess: () => toast.success(`${run.label ?? run.originalName} now represents ${stage.name}`),
+            onError: (e) => toast.error('The reference run was not changed', { description: e.message }),
+          },
+        )
+      }
+    >
+      Make reference
+    </Button>
+  );
+}
+
+function Summary({ s }: { s: SessionDto }) {
+  const std = CORRECTION_OPTIONS.find((o) => o.value === s.correctionStandard)?.label ?? s.correctionStandard;
+  const items: [string, string][] = [
+    ['Dyno', s.dynoName ?? 'not recorded'],
+    ['Operator', s.operatorName ?? 'not recorded'],
+    ['Air temperature', s.ambientTempC === null ? 'not recorded' : `${formatNumber(s.ambientTempC, { decimals: 1 })} °C`],
+    ['Barometric pressure', s.baroKpa === null ? 'not recorded' : `${formatNumber(s.baroKpa, { decimals: 1 })} kPa`],
+    ['Relative humidity', s.humidityPct === null ? 'not recorded' : `${formatNumber(s.humidityPct)} %`],
+    ['Correction', std],
+  ];
+  return (
+    <dl className="num grid grid-cols-2 gap-x-6 gap-y-2 md:grid-cols-3">
+      {items.map(([k, v]) => (
+        <div key={k}>
+          <dt className="text-sm text-ink-muted">{k}</dt>
+          <dd className="font-medium text-ink">{v}</dd>
+        </div>
+      ))}
+      {s.notes && (
+        <div className="col-span-full">
+          <dt className="text-sm text-ink-muted">Notes</dt>
+          <dd className="whitespace-pre-wrap">{s.notes}</dd>
+        </div>
+      )}
+    </dl>
+  );
+}
+
+/** One dyno visit: its conditions, safety checks and every run, tagged by stage. */
+export function SessionPage() {
+  const { sessionId = '' } = useParams();
+  const user = useCurrentUser();
+  const canEdit = WORKSHOP.includes(user.role);
+  const session = useQuery(sessionQueries.detail(sessionId));
+  const bikeId = session.data?.bikeId ?? '';
+  const bike = useQuery({ ...lookupQueries.bike(bikeId), enabled: Boolean(bikeId) });
+  const runs = useQuery({ ...runQueries.list({ sessionId, pageSize: 200, sort: 'createdAt' }), enabled: Boolean(sessionId) });
+  const stages = useQuery({ ...stageQueries.list(bikeId), enabled: Boolean(bikeId) });
+  const stageList = useMemo(() => stages.data ?? [], [stages.data]);
+
+  const columns = useMemo(
+    () => [
+      col.accessor('sequence', { header: '#', meta: { numeric: true } }),
+      col.accessor((r) => r.label ?? r.originalName, {
+        id: 'name',
+        header: 'Run',
+        cell: (c) => (
+          <Link to={paths.run(c.row.original.id)} className="font-semibold text-accent underline-offset-2 hover:underline">
+            {c.getValue()}
+          </Link>
+        ),
+      }),
+      col.accessor('status', { header: 'Status', cell: (c) => <RunStatusBadge status={c.getValue()} /> }),
+      col.accessor('peakPowerHp', {
+        header: 'Peak power',
+        meta: { numeric: true },
+        cell: (c) => (
+          <span>
+            {formatHp(c.getValue())}
+            <span className="block text-xs text-ink-subtle">{c.row.original.peakPowerRpm ? `at ${formatRpm(c.row.original.peakPowerRpm)}` : ''}</span>
+          </span>
+        ),
+      }),
+      col.accessor('peakTorqueLbft', {
+        header: 'Peak torque',
+        meta: { numeric: true },
+        cell: (c) => (
+          <span>
+            {formatTorque(c.getValue())}
+            <span className="block text-xs text-ink-subtle">{c.row.original.peakTorqueRpm ? `at ${formatRpm(c.row.original.peakTorqueRpm)}` : ''}</span>
+          </span>
+        ),
+      }),
+      col.display({
+        id: 'stage',
+        header: 'Stage',
+        cell: (c) =>
+          canEdit ? (
+            <StageSelect runId={c.row.original.id} bikeId={c.row.original.bikeId} stageId={c.row.original.stageId} runName={c.row.original.label ?? c.row.original.originalName} />
+          ) : (
+            (c.row.original.stageName ?? 'none')
+          ),
+      }),
+      col.display({ id: 'reference', header: 'Reference run', cell: (c) => <ReferenceCell run={c.row.original} stages={stageList} canEdit={canEdit} /> }),
+    ],
+    [canEdit, stageList],
+  );
+
+  if (session.isLoading) return <LoadingState message="Loading the session…" />;
+  if (session.isError) return <ErrorState error={session.error} onRetry={() => session.refetch()} />;
+  const s = session.data!;
+  const uploadMore = `${paths.upload}?bikeId=${s.bikeId}&sessionId=${s.id}`;
+  return (
+    <div className="mx-auto max-w-7xl space-y-5">
+      <PageHeader
+        back={
+          <Link to={paths.bike(s.bikeId)} className="font-semibold text-accent">
+            ← {bike.data ? bikeLabel(bike.data) : 'Bike'}
+          </Link>
+        }
+        title={`Session of ${formatDateTime(s.startedAt)}`}
+        subtitle={bike.data ? `${bikeLabel(bike.data)} · ${bike.data.customerName}` : undefined}
+        meta={s.safetyConfirmedAt ? <StatusBadge status="ok">Safety checks confirmed</StatusBadge> : <StatusBadge status="warning">Safety checks not confirmed</StatusBadge>}
+        action={
+          canEdit && (
+            <Link to={uploadMore} className="inline-flex min-h-11 items-center gap-2 rounded-control bg-accent px-4 font-semibold text-white hover:bg-accent-hover">
+              <Icon name="upload" size={18} /> Upload more runs
+            </Link>
+          )
+        }
+      />
+      <div className="grid gap-5 lg:grid-cols-2">
+        <Card title="Conditions">
+          <Summary s={s} />
+        </Card>
+        <Card title="Safety checks">
+          <SafetyChecklist session={s} canConfirm={canEdit} />
+        </Card>
+      </div>
+      <Card title="Runs of this session" description="Tag each run with its stage; mark the one that represents the stage." flush>
+        {runs.isError ? (
+          <ErrorState error={runs.error} onRetry={() => runs.refetch()} />
+        ) : (
+          <DataTable
+            caption="Runs of this session"
+            className="rounded-none border-0"
+            columns={columns}
+            data={runs.data?.items ?? []}
+            getRowId={(r) => r.id}
+            isLoading={runs.isLoading}
+            maxHeight={null}
+            emptyMessage={
+              <span>
+                No runs in this session yet.{' '}
+                {canEdit && (
+                  <Link className="font-semibold text-accent underline" to={uploadMore}>
+                    Upload the files
+                  </Link>
+                )}
+              </span>
+            }
+          />
+        )}
+      </Card>
+    </div>
+  );
+}

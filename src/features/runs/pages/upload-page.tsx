@@ -1,0 +1,220 @@
+import { useState, type ReactNode } from 'react';
+import { Link, useSearchParams } from 'react-router-dom';
+import { useQuery } from '@tanstack/react-query';
+import type { SessionDto } from '@shared/schemas/run';
+import { Button, Card, DropZone, ErrorState, Icon, LoadingState, PageHeader, SelectField, useToast } from '@/components/ui';
+import { formatCount, formatDateTime, formatNumber } from '@/lib/format';
+import { paths } from '@/config/paths';
+import { bikeLabel, lookupQueries } from '../api/run-queries';
+import { sessionQueries } from '../api/session-queries';
+import { stageQueries } from '../api/stage-queries';
+import { useUploadRuns } from '../api/upload-runs';
+import { BikePicker } from '../components/bike-picker';
+import { SessionForm, CORRECTION_OPTIONS } from '../components/session-form';
+import { SafetyChecklist } from '../components/safety-checklist';
+import { UploadResults } from '../components/upload-results';
+import { RoleGate } from '../components/role-gate';
+
+const ACCEPT = ['.csv', '.txt', '.tsv', '.log', '.dat'];
+const MAX_BYTES = 50_000_000;
+
+export function sessionLabel(s: SessionDto): string {
+  return `${formatDateTime(s.startedAt)}${s.dynoName ? ` · ${s.dynoName}` : ''} · ${formatCount(s.runCount, 'run')}`;
+}
+
+function Conditions({ s }: { s: SessionDto }) {
+  const std = CORRECTION_OPTIONS.find((o) => o.value === s.correctionStandard)?.label ?? s.correctionStandard;
+  return (
+    <dl className="num grid grid-cols-2 gap-x-6 gap-y-1 text-sm md:grid-cols-4">
+      <div>
+        <dt className="text-ink-muted">Air temperature</dt>
+        <dd className="font-medium">{s.ambientTempC === null ? 'not recorded' : `${formatNumber(s.ambientTempC, { decimals: 1 })} °C`}</dd>
+      </div>
+      <div>
+        <dt className="text-ink-muted">Barometric pressure</dt>
+        <dd className="font-medium">{s.baroKpa === null ? 'not recorded' : `${formatNumber(s.baroKpa, { decimals: 1 })} kPa`}</dd>
+      </div>
+      <div>
+        <dt className="text-ink-muted">Humidity</dt>
+        <dd className="font-medium">{s.humidityPct === null ? 'not recorded' : `${formatNumber(s.humidityPct)} %`}</dd>
+      </div>
+      <div>
+        <dt className="text-ink-muted">Correction</dt>
+        <dd className="font-medium">{std}</dd>
+      </div>
+    </dl>
+  );
+}
+
+function StepTitle({ n, children }: { n: number; children: ReactNode }) {
+  return (
+    <span className="flex items-center gap-2">
+      <span className="num inline-flex size-7 items-center justify-center rounded-full bg-paper-sunk text-sm font-bold text-ink" aria-hidden="true">
+        {n}
+      </span>
+      <span>{children}</span>
+    </span>
+  );
+}
+
+function UploadScreen() {
+  const toast = useToast();
+  const [params, setParams] = useSearchParams();
+  const bikeId = params.get('bikeId') ?? '';
+  const sessionId = params.get('sessionId') ?? '';
+  const [creating, setCreating] = useState(false);
+  const [files, setFiles] = useState<File[]>([]);
+  const [stageId, setStageId] = useState('');
+  const upload = useUploadRuns();
+
+  const bike = useQuery({ ...lookupQueries.bike(bikeId), enabled: Boolean(bikeId) });
+  const sessions = useQuery({ ...sessionQueries.list(bikeId), enabled: Boolean(bikeId) });
+  const session = useQuery({ ...sessionQueries.detail(sessionId), enabled: Boolean(sessionId) });
+  const stages = useQuery({ ...stageQueries.list(bikeId), enabled: Boolean(bikeId) });
+
+  const setParam = (next: Record<string, string | null>) => {
+    const p = new URLSearchParams(params);
+    for (const [k, v] of Object.entries(next)) {
+      if (v) p.set(k, v);
+      else p.delete(k);
+    }
+    setParams(p, { replace: true });
+  };
+
+  const s = session.data;
+  const ready = Boolean(bikeId && s && s.safetyConfirmedAt);
+
+  const startUpload = async () => {
+    if (!ready || !files.length) return;
+    const batch = files;
+    setFiles([]);
+    await upload.start(batch, { bikeId, sessionId, stageId: stageId || undefined });
+    toast.success(`Finished ${formatCount(batch.length, 'file')}`, { description: 'Each file’s result is listed below.' });
+  };
+
+  return (
+    <div className="mx-auto max-w-5xl space-y-5">
+      <PageHeader title="Upload runs" subtitle="Choose the bike and the session, confirm the bay checks, then drop the session's files." />
+
+      <Card title={<StepTitle n={1}>Bike</StepTitle>} actions={bikeId && <Button size="sm" onClick={() => setParam({ bikeId: null, sessionId: null })}>Change bike</Button>}>
+        {!bikeId ? (
+          <BikePicker onPick={(b) => setParam({ bikeId: b.id, sessionId: null })} />
+        ) : bike.isLoading ? (
+          <LoadingState compact />
+        ) : bike.isError ? (
+          <ErrorState error={bike.error} onRetry={() => bike.refetch()} />
+        ) : (
+          <p className="text-lg">
+            <span className="font-semibold">{bike.data && bikeLabel(bike.data)}</span> <span className="text-ink-muted">· {bike.data?.customerName}</span>
+          </p>
+        )}
+      </Card>
+
+      {bikeId && (
+        <Card
+          title={<StepTitle n={2}>Session</StepTitle>}
+          description="One visit on the dyno, with the air conditions used for correction."
+          actions={
+            !creating && (
+              <Button size="sm" icon={<Icon name="plus" size={16} />} onClick={() => setCreating(true)}>
+                New session
+              </Button>
+            )
+          }
+        >
+          {creating ? (
+            <SessionForm
+              bikeId={bikeId}
+              onCancel={() => setCreating(false)}
+              onCreated={(created) => {
+                setCreating(false);
+                setParam({ sessionId: created.id });
+                toast.success('Session created');
+              }}
+            />
+          ) : sessions.isLoading ? (
+            <LoadingState compact message="Loading sessions…" />
+          ) : sessions.isError ? (
+            <ErrorState error={sessions.error} onRetry={() => sessions.refetch()} />
+          ) : (
+            <div className="space-y-3">
+              {sessions.data?.length ? (
+                <SelectField
+                  label="Session"
+                  placeholder="Choose a session…"
+                  value={sessionId}
+                  onChange={(e) => setParam({ sessionId: e.target.value || null })}
+                  options={sessions.data.map((x) => ({ value: x.id, label: sessionLabel(x) }))}
+                />
+              ) : (
+                <p className="text-ink-muted">This bike has no sessions yet. Start one with “New session”.</p>
+              )}
+              {s && <Conditions s={s} />}
+              {s && (
+                <Link className="text-sm font-semibold text-accent underline" to={paths.session(s.id)}>
+                  Open the session page
+                </Link>
+              )}
+            </div>
+          )}
+        </Card>
+      )}
+
+      {s && (
+        <Card title={<StepTitle n={3}>Safety checks</StepTitle>}>
+          <SafetyChecklist session={s} canConfirm />
+        </Card>
+      )}
+
+      {s && (
+        <Card title={<StepTitle n={4}>Run files</StepTitle>} description={ready ? 'Drop every file of the session at once; each is read on its own.' : 'Confirm the safety checks first.'}>
+          <div className="space-y-4">
+            <SelectField
+              label="Stage for these files"
+              hint="Optional; you can tag each file separately once it is read."
+              placeholder="No stage yet"
+              value={stageId}
+              onChange={(e) => setStageId(e.target.value)}
+              options={(stages.data ?? []).map((x) => ({ value: x.id, label: x.name }))}
+              disabled={!ready}
+              containerClassName="max-w-sm"
+            />
+            <DropZone
+              label="Run files"
+              hint="CSV or text exports from the dyno PC, up to 50 MB each."
+              accept={ACCEPT}
+              maxSizeBytes={MAX_BYTES}
+              files={files}
+              onFilesChange={setFiles}
+              disabled={!ready}
+            />
+            <div className="flex flex-wrap items-center gap-2">
+              <Button variant="primary" icon={<Icon name="upload" size={18} />} disabled={!ready || !files.length} onClick={startUpload}>
+                {files.length ? `Upload ${formatCount(files.length, 'file')}` : 'Upload files'}
+              </Button>
+              {upload.running && (
+                <Button variant="ghost" onClick={upload.cancel}>
+                  Cancel uploads
+                </Button>
+              )}
+              {!upload.running && upload.items.length > 0 && (
+                <Button variant="ghost" onClick={upload.clear}>
+                  Clear the list
+                </Button>
+              )}
+            </div>
+            <UploadResults items={upload.items} bikeId={bikeId} onResult={upload.updateResult} />
+          </div>
+        </Card>
+      )}
+    </div>
+  );
+}
+
+export function UploadPage() {
+  return (
+    <RoleGate roles={['owner', 'tuner']} message="Only the tuner and the owner upload runs.">
+      <UploadScreen />
+    </RoleGate>
+  );
+}
