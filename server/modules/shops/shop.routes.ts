@@ -1,21 +1,10 @@
-import { z } from 'zod';
 import { ApiRouter } from '../../http/api-router';
 import type { AppDeps } from '../../app-deps';
-import { optionalEmail, optionalText, requiredText } from '@shared/schemas/common';
+import { shopSettingsInput, type ShopDto } from '@shared/schemas/shop';
 import { Shop } from './shop.entity';
 import { recordAudit } from '../audit/audit.service';
 
-export const shopSettingsInput = z.object({
-  name: requiredText(200, 'Shop name'),
-  address: optionalText(1000),
-  phone: optionalText(60),
-  email: optionalEmail,
-  units: z.enum(['imperial', 'metric']),
-  paperSize: z.enum(['letter', 'a4']),
-  defaultCorrection: z.enum(['none', 'sae-j1349', 'sae-j1349-1990', 'iso-1585', 'din-70020', 'sae-j607']),
-});
-
-const toDto = (s: Shop) => ({
+const toDto = (s: Shop): ShopDto => ({
   id: s.id,
   name: s.name,
   address: s.address,
@@ -24,7 +13,7 @@ const toDto = (s: Shop) => ({
   hasLogo: Boolean(s.logoKey),
   units: s.units,
   paperSize: s.paperSize,
-  defaultCorrection: s.defaultCorrection,
+  defaultCorrection: s.defaultCorrection as ShopDto['defaultCorrection'],
 });
 
 export function shopRoutes(deps: AppDeps) {
