@@ -10,6 +10,9 @@ import { Run } from '@server/modules/runs/run.entity';
 import { OrphanObject } from '@server/lib/storage/orphan-object.entity';
 import { reconcileOrphanObjects } from '@server/modules/runs/orphan-reconcile';
 import { rawKeyFor } from '@server/modules/runs/run-ingest';
+import { importFolder, reprocessAll } from '@server/modules/runs/run-cli';
+import { Stage } from '@server/modules/stages/stage.entity';
+import os from 'node:os';
 
 /**
  * Run archive API against the real PostgreSQL and the S3 fake. Run files come from the invented
@@ -389,5 +392,50 @@ describe('list, edit, delete, roles and tenants', () => {
     expect((await bTuner.post(`/api/runs/${runId}/mapping`).send({ mapping: { rpm: 'x', torque: { column: 'y', unit: 'lbft' } } })).status).toBe(404);
     expect((await upload(bTuner, a.bike.id, [{ name: 'x.csv', bytes: file(900) }])).status).toBe(404);
     expect((await bOwner.get('/api/column-layouts')).body).toEqual([]);
+  });
+});
+
+describe('command-line pipeline (import and reprocess)', () => {
+  it('imports a folder into a stage it creates, through the same pipeline, and skips files already there', async () => {
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'pullbook-import-'));
+    try {
+      fs.writeFileSync(path.join(dir, 'old-1.csv'), file(1000));
+      fs.writeFileSync(path.join(dir, 'old-2.csv'), file(1001));
+      fs.writeFileSync(path.join(dir, 'broken.csv'), Buffer.from('Engine Speed [rpm],Torque [lb-ft]\n'));
+      const out = await importFolder(t.deps, { bikeId: a.otherBike.id, stageName: 'Imported baseline', dir });
+      expect(out.created).toBe(true);
+      expect(out.results.map((r) => [r.file, r.ok])).toEqual([['broken.csv', false], ['old-1.csv', true], ['old-2.csv', true]]);
+      const stage = await t.deps.orm.em.fork().findOneOrFail(Stage, { id: out.stageId });
+      expect(stage.name).toBe('Imported baseline');
+      const runs = await t.deps.orm.em.fork().find(Run, { stage: out.stageId });
+      expect(runs).toHaveLength(3);
+      for (const r of runs) expect(sha(await t.deps.storage.getBuffer(r.rawKey))).toBe(r.rawSha256);
+      const again = await importFolder(t.deps, { bikeId: a.otherBike.id, stageName: 'Imported baseline', dir });
+      expect(again.created).toBe(false);
+      // Every file, the unreadable one too, is already in the archive: nothing new is written.
+      expect(again.results.map((r) => r.ok && r.duplicate)).toEqual([true, true, true]);
+      expect(await t.deps.orm.em.fork().count(Run, { stage: out.stageId })).toBe(3);
+    } finally {
+      fs.rmSync(dir, { recursive: true, force: true });
+    }
+  });
+
+  it('re-derives every run from its raw file, reports what changed, and changes nothing else', async () => {
+    const em = t.deps.orm.em.fork();
+    const victim = await em.findOneOrFail(Run, { bike: a.bike.id, status: 'ready', deletedAt: null }, { orderBy: { createdAt: 'asc' } });
+    const truePeak = victim.peakPowerHp!;
+    await em.nativeUpdate(Run, { id: victim.id }, { peakPowerHp: 1 });
+    const lines = await reprocessAll(t.deps);
+    expect(lines.length).toBe(await em.count(Run, {}));
+    expect(lines.filter((l) => l.error)).toEqual([]);
+    const changed = lines.filter((l) => l.changes.length);
+    expect(changed.map((l) => l.runId)).toContain(victim.id);
+    // A session's conditions were edited after its upload (above): its other run follows them now.
+    for (const l of changed.filter((x) => x.runId !== victim.id)) expect(l.changes.map((c) => c.field)).toContain('correctionFactor');
+    // Re-deriving is deterministic: a second pass changes nothing.
+    expect((await reprocessAll(t.deps)).filter((l) => l.changes.length)).toEqual([]);
+    expect(changed.find((l) => l.runId === victim.id)!.changes).toEqual([{ field: 'peakPowerHp', before: 1, after: Number(truePeak.toFixed(2)) }]);
+    const fixed = await t.deps.orm.em.fork().findOneOrFail(Run, { id: victim.id });
+    expect(fixed.peakPowerHp).toBeCloseTo(truePeak, 9);
   });
 });

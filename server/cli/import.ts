@@ -1,0 +1,58 @@
+/**
+ * `npm run import -- --bike ID --stage NAME DIR` — bring a folder of old run files into the
+ * archive for one bike, tagged with a stage (created when missing), through the same pipeline as
+ * an upload (raw file to storage, analysis, database). Connects like the server (DATABASE_URL,
+ * S3_* …; see server/modules/runs/run-cli.ts for the local fallbacks used when they are unset).
+ * Exit 0 when every file is in the archive (ready, waiting for a mapping or failed but kept),
+ * 1 when some file could not be stored, 2 on bad arguments or settings.
+ */
+import fs from 'node:fs';
+import { parseArgs } from 'node:util';
+import { ConfigError } from '../config/env';
+import { buildDeps } from '../main';
+import { cliConfig, importFolder } from '../modules/runs/run-cli';
+import type { UploadResult } from '@shared/schemas/run';
+
+const usage = 'usage: npm run import -- --bike BIKE_ID --stage "STAGE NAME" FOLDER';
+
+function line(r: UploadResult) {
+  if (r.ok) {
+    const run = r.run;
+    const peaks = run.peakPowerHp !== null ? `${run.peakPowerHp.toFixed(1)} hp @ ${run.peakPowerRpm} rpm, ${run.peakTorqueLbft?.toFixed(1)} lb·ft @ ${run.peakTorqueRpm} rpm` : '';
+    return `${r.file}: ${r.duplicate ? 'already in the archive' : 'imported'} (${run.id}) ${peaks}`;
+  }
+  return `${r.file}: ${r.runId ? `kept as ${r.runId}, ` : 'NOT STORED, '}${r.error.code}: ${r.error.message}`;
+}
+
+let args;
+try {
+  args = parseArgs({ options: { bike: { type: 'string' }, stage: { type: 'string' } }, allowPositionals: true });
+} catch (e) {
+  console.error(`${e instanceof Error ? e.message : e}\n${usage}`);
+  process.exit(2);
+}
+const { bike, stage } = args.values;
+const dir = args.positionals[0];
+if (!bike || !stage || !dir || args.positionals.length !== 1) {
+  console.error(usage);
+  process.exit(2);
+}
+if (!fs.existsSync(dir) || !fs.statSync(dir).isDirectory()) {
+  console.error(`Not a folder: ${dir}\n${usage}`);
+  process.exit(2);
+}
+
+try {
+  const deps = await buildDeps(cliConfig(), { poolMax: 2 });
+  try {
+    const out = await importFolder(deps, { bikeId: bike, stageName: stage, dir }, (r) => console.log(line(r)));
+    const stored = out.results.filter((r) => r.ok || r.runId).length;
+    console.log(`\nStage "${stage}" ${out.created ? 'created' : 'existing'} (${out.stageId}); ${stored} of ${out.results.length} file(s) in the archive.`);
+    process.exitCode = stored === out.results.length ? 0 : 1;
+  } finally {
+    await deps.orm.close();
+  }
+} catch (err) {
+  console.error(err instanceof ConfigError ? err.message : err instanceof Error ? err.message : err);
+  process.exitCode = 2;
+}

@@ -1,0 +1,34 @@
+/**
+ * `npm run reprocess` — re-derive every run from its raw file (after a change to the analysis)
+ * and print what changed per run. Connects like the server (DATABASE_URL, S3_* …; see
+ * server/modules/runs/run-cli.ts for the local fallbacks used when they are unset).
+ * Exits 0 when it ran (runs whose file could not be read are listed), 2 on bad settings.
+ */
+import { ConfigError } from '../config/env';
+import { buildDeps } from '../main';
+import { cliConfig, reprocessAll, type ReprocessLine } from '../modules/runs/run-cli';
+
+const fmt = (v: unknown) => (v === null || v === undefined ? '–' : String(v));
+
+function print(line: ReprocessLine) {
+  const head = `${line.runId}  ${line.file}`;
+  if (line.error) console.log(`${head}: NOT RE-PROCESSED — ${line.error}`);
+  else if (!line.changes.length) console.log(`${head}: unchanged (${line.status})`);
+  else console.log(`${head}: ${line.changes.map((c) => `${c.field} ${fmt(c.before)} → ${fmt(c.after)}`).join('; ')}`);
+}
+
+try {
+  const deps = await buildDeps(cliConfig(), { poolMax: 2 });
+  try {
+    const lines = await reprocessAll(deps, print);
+    const changed = lines.filter((l) => l.changes.length).length;
+    const errors = lines.filter((l) => l.error).length;
+    console.log(`\n${lines.length} run(s): ${changed} changed, ${lines.length - changed - errors} unchanged, ${errors} not re-processed.`);
+  } finally {
+    await deps.orm.close();
+  }
+  process.exit(0);
+} catch (err) {
+  console.error(err instanceof ConfigError ? err.message : err);
+  process.exit(2);
+}
