@@ -4,7 +4,6 @@
  */
 import http from 'node:http';
 import fs from 'node:fs';
-import os from 'node:os';
 import path from 'node:path';
 import type { AddressInfo } from 'node:net';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
@@ -34,10 +33,11 @@ export async function startBrowserHarness(): Promise<BrowserHarness> {
   const t = await createTestApp({ clientDir, env: { PUBLIC_URL: baseUrl } });
   server.on('request', t.app);
 
+  // playwright-core gives each launch a fresh temporary profile (it refuses --user-data-dir here).
   const browser = await chromium.launch({
     executablePath: '/usr/bin/chromium',
     headless: true,
-    args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync', `--user-data-dir=${fs.mkdtempSync(path.join(os.tmpdir(), 'pb-chrome-'))}`],
+    args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
   });
   fs.mkdirSync(ARTIFACTS, { recursive: true });
 
