@@ -241,4 +241,32 @@ describe('uploading a dyno session', () => {
     await expect.poll(async () => (await chartCard.locator('canvas').first().boundingBox())?.width ?? 0).toBeGreaterThan(600);
     await h.screenshot(page, 'upload-06-run-page-tablet');
   }, 90_000);
+
+  it('the session page lists the visit, marks a reference run, and the run list filters through the URL', async () => {
+    const page = await h.signInPage(shop.users.tuner.email);
+    const tuner = await h.t.signIn(shop.users.tuner);
+    const sessions = await tuner.get('/api/sessions').query({ bikeId: shop.bike.id });
+    expect(sessions.body.length).toBe(1);
+    await page.goto(`${h.baseUrl}/sessions/${sessions.body[0].id}`);
+    const table = page.getByRole('table', { name: 'Runs of this session' });
+    await expect.poll(() => table.locator('tbody tr').count()).toBe(3);
+    expect(await page.getByText('Safety checks confirmed').first().isVisible()).toBe(true);
+    await table.getByRole('button', { name: 'Make pull-01.csv the reference run of Baseline' }).click();
+    await expect.poll(() => table.getByText('Reference of Baseline').isVisible()).toBe(true);
+    await h.screenshot(page, 'upload-07-session-page');
+    const stages = await tuner.get('/api/stages').query({ bikeId: shop.bike.id });
+    const pull01 = (await tuner.get('/api/runs').query({ bikeId: shop.bike.id })).body.items.find((r: { originalName: string }) => r.originalName === 'pull-01.csv');
+    expect(stages.body[0].referenceRunId).toBe(pull01.id);
+
+    // Sorted by peak power, highest first: the three invented runs were scaled ×1, ×1.01, ×1.02.
+    await page.goto(`${h.baseUrl}/runs?bikeId=${shop.bike.id}&sort=-peakPowerHp`);
+    const runs = page.getByRole('table', { name: 'Runs' });
+    await expect.poll(() => runs.locator('tbody tr').count()).toBe(3);
+    const names = await runs.locator('tbody tr td:nth-child(2)').allTextContents();
+    expect(names).toEqual(['pull-03-drum.csv', 'pull-02.csv', 'pull-01.csv']);
+    await page.getByLabel('Status').selectOption('needs-mapping');
+    await expect.poll(() => new URL(page.url()).searchParams.get('status')).toBe('needs-mapping');
+    await expect.poll(() => runs.getByText('No run matches these filters.').isVisible()).toBe(true);
+    await h.screenshot(page, 'upload-08-run-list');
+  }, 90_000);
 });

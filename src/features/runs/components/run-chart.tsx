@@ -34,8 +34,12 @@ export function RunChart({ curve, powerUnit, torqueUnit, title, colorIndex = 0 }
       runSeries(colorIndex, 'power', { name: `Power (${powerUnit})`, data: pairs(curve.rpm, curve.power) }),
       runSeries(colorIndex, 'torque', { name: `Torque (${torqueUnit})`, data: pairs(curve.rpm, curve.torque) }),
     ];
+    // Legend keys drawn as a solid and a dashed stroke, like the lines they name.
+    const solid = 'path://M0,4 L24,4 L24,6 L0,6 Z';
+    const dashed = 'path://M0,4 L7,4 L7,6 L0,6 Z M10,4 L17,4 L17,6 L10,6 Z M20,4 L24,4 L24,6 L20,6 Z';
     return {
       ...base,
+      legend: { ...(base.legend as object), data: [{ name: `Power (${powerUnit})`, icon: solid }, { name: `Torque (${torqueUnit})`, icon: dashed }] },
       tooltip: {
         ...(base.tooltip as object),
         valueFormatter: (v: unknown) => formatNumber(typeof v === 'number' ? v : Number(v), { decimals: 1 }),
@@ -52,8 +56,12 @@ export function AfrChart({ curve }: { curve: DisplayCurve }) {
   const option = useMemo<EChartsOption>(() => {
     const names = Object.keys(curve.afr);
     const base = baseChartOption({ xName: 'Engine speed (rpm)', yName: 'AFR', description: `Air–fuel ratio against engine speed, ${names.length} channel(s): ${names.join(', ')}.` });
+    const y = (Array.isArray(base.yAxis) ? base.yAxis[0] : base.yAxis) as Record<string, unknown>;
     return {
       ...base,
+      // AFR moves in tenths; whole-number ticks would all read "13".
+      yAxis: { ...y, axisLabel: { ...(y.axisLabel as object), formatter: (v: number) => formatNumber(v, { decimals: 1 }) } },
+      tooltip: { ...(base.tooltip as object), valueFormatter: (v: unknown) => formatNumber(typeof v === 'number' ? v : Number(v), { decimals: 2 }) },
       series: names.map((name, i) => ({
         type: 'line' as const,
         name,

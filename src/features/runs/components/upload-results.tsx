@@ -53,7 +53,7 @@ function KeptFile({ item, runId, message, onMapped }: { item: UploadItem; runId:
     return (
       <div className="space-y-2">
         <StatusBadge status="warning">Needs column mapping</StatusBadge>
-        <p className="text-sm text-ink">{message} The file is kept; choose its columns to read it.</p>
+        <p className="text-sm text-ink">{message} Nothing is lost: the file is kept until it is read.</p>
         <Button size="sm" variant="primary" onClick={() => setOpen(true)}>
           Choose columns…
         </Button>

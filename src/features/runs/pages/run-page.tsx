@@ -49,7 +49,7 @@ function CurveCard({ run }: { run: RunDetailDto }) {
           </Caution>
         )}
         <RunChart curve={curve} powerUnit={pu} torqueUnit={tu} title={run.label ?? run.originalName} />
-        <div className="mt-4 grid grid-cols-2 gap-4 border-t border-line pt-4 md:grid-cols-4">
+        <div className="mt-4 grid grid-cols-2 gap-4 border-t border-line pt-4 lg:grid-cols-4">
           <Stat label="Peak power" value={curve.peakPower?.value} unit={pu} size="lg" detail={`at ${formatNumber(curve.peakPower?.rpm)} rpm`} />
           <Stat label="Peak torque" value={curve.peakTorque?.value} unit={tu} size="lg" detail={`at ${formatNumber(curve.peakTorque?.rpm)} rpm`} />
           <Stat label="Rpm range" value={formatRpmRange(curve.rpm[0], curve.rpm[curve.rpm.length - 1])} />
