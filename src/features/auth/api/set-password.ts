@@ -14,8 +14,9 @@ export function useSetPassword() {
   return useMutation({
     mutationFn: (body: SetPasswordBody) => api.post<{ user: CurrentUser }>('/api/auth/set-password', body),
     onSuccess: ({ user }) => {
-      // Whatever was cached belonged to whoever used this browser before.
-      qc.clear();
+      // Whatever was cached belonged to whoever used this browser before. The sign-in entry
+      // itself is kept and overwritten (not cleared), so the auth provider's observer sees the change.
+      qc.removeQueries({ predicate: (q) => q.queryHash !== JSON.stringify(meQueryKey) });
       qc.setQueryData(meQueryKey, user);
     },
   });

@@ -49,7 +49,7 @@ export default function AccountPage() {
             <input type="text" name="username" autoComplete="username" value={user.email} readOnly hidden />
             <TextField label="Current password" type="password" autoComplete="current-password" error={errors.currentPassword} {...form.register('currentPassword')} />
             <TextField label="New password" type="password" autoComplete="new-password" hint="At least 10 characters." error={errors.newPassword} {...form.register('newPassword')} />
-            <TextField label="Repeat the new password" type="password" autoComplete="new-password" error={errors.confirm} {...form.register('confirm')} />
+            <TextField label="Type the password again" type="password" autoComplete="new-password" error={errors.confirm} {...form.register('confirm')} />
             <div className="flex justify-end">
               <Button type="submit" variant="primary" loading={change.isPending} loadingText="Saving…">
                 Change password

@@ -101,7 +101,7 @@ function SetPasswordForm({ token, info, isInvite, title }: { token: string; info
         <input type="text" name="username" autoComplete="username" value={info.email} readOnly hidden />
         {isInvite && <TextField label="Your name" autoComplete="name" hint="As the shop will see it. Change it if it is not right." error={errors.name} {...form.register('name')} />}
         <TextField label="New password" type="password" autoComplete="new-password" hint="At least 10 characters." error={errors.password} {...form.register('password')} />
-        <TextField label="Repeat the new password" type="password" autoComplete="new-password" error={errors.confirm} {...form.register('confirm')} />
+        <TextField label="Type the password again" type="password" autoComplete="new-password" error={errors.confirm} {...form.register('confirm')} />
         <Button type="submit" variant="primary" fullWidth loading={setPassword.isPending} loadingText="Saving…">
           {isInvite ? 'Set password and sign in' : 'Change password and sign in'}
         </Button>
