@@ -1,0 +1,49 @@
+import { createHash } from 'node:crypto';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createTestApp, type TestApp } from '../support/test-app';
+import { seedDemoIfEmpty, type DemoIds } from '@server/db/demo-seed';
+import '@server/db/demo-archive';
+import { Run } from '@server/modules/runs/run.entity';
+import { Stage } from '@server/modules/stages/stage.entity';
+
+/** The demo archive goes through the real pipeline: raw files in storage, stages with gains. */
+let t: TestApp;
+let ids: DemoIds;
+
+beforeAll(async () => {
+  t = await createTestApp();
+  ids = (await seedDemoIfEmpty(t.deps))!;
+}, 120_000);
+afterAll(() => t.close());
+
+describe('demo archive', () => {
+  it('has several bikes with a build history, reference runs, costs and growing gains', async () => {
+    expect(ids).toBeTruthy();
+    const em = t.deps.orm.em.fork();
+    const stages = await em.find(Stage, { shop: ids.shopId }, { orderBy: { bike: 'asc', position: 'asc' } });
+    const byBike = new Map<string, Stage[]>();
+    for (const s of stages) byBike.set(s.bike.id, [...(byBike.get(s.bike.id) ?? []), s]);
+    expect(byBike.size).toBeGreaterThanOrEqual(4);
+    const full = [...byBike.values()].filter((list) => list.length === 4);
+    expect(full.length).toBeGreaterThanOrEqual(2);
+    for (const list of full) {
+      expect(list.every((s) => s.referenceRun)).toBe(true);
+      expect(list[0].gainPeakPowerHp).toBeNull();
+      const gains = list.slice(1).map((s) => s.gainPeakPowerHp!);
+      // Each stage of the invented build adds torque, so the gains over baseline grow.
+      expect([...gains].sort((x, y) => x - y)).toEqual(gains);
+      expect(gains[0]).toBeGreaterThan(2);
+      expect(list.slice(1).every((s) => s.totalCostCents > 0)).toBe(true);
+    }
+  });
+
+  it('stores every demo run’s raw file in object storage, byte for byte', async () => {
+    const runs = await t.deps.orm.em.fork().find(Run, { shop: ids.shopId });
+    expect(runs.length).toBeGreaterThan(30);
+    expect(runs.filter((r) => r.status === 'ready').length).toBe(runs.length);
+    for (const r of runs.slice(0, 8)) {
+      const bytes = await t.deps.storage.getBuffer(r.rawKey);
+      expect(createHash('sha256').update(bytes).digest('hex')).toBe(r.rawSha256);
+    }
+  });
+});
