@@ -7,7 +7,9 @@ export {};
 
 const BENCHES: { name: string; load: () => Promise<{ run: () => Promise<void> }> }[] = [
   { name: 'run-file analysis', load: () => import('./analyze.bench.js') },
+  { name: 'build finder', load: () => import('./finder.bench.js') },
   { name: 'gain-report PDF', load: () => import('./report.bench.js') },
+  { name: 'run upload', load: () => import('./upload.bench.js') },
 ];
 
 const only = process.argv.slice(2);

@@ -22,11 +22,16 @@ import { BUILD_COLUMNS, Sql, cumulativeParts, toBuildItem, type BuildRow } from 
  *
  * Candidates are other bikes of the shop whose engine family is trigram-similar (`%`, threshold
  * 0.3) or whose displacement is within ±20 % (when this bike has neither, every bike), at every
- * measured stage. Reasons name what matched: "same engine family" (E = 1, case ignored), "similar
+ * measured stage. For speed at archive scale only the 200 candidate bikes with the highest
+ * 0.4·E + 0.3·D are scored in full (the part terms can add at most 0.3, so a bike outside them
+ * can only outrank one inside when that many bikes tie closely on engine and size). Reasons name what matched: "same engine family" (E = 1, case ignored), "similar
  * engine family (X)" (E ≥ 0.5), "within 5 % displacement" / "within 10 % displacement" /
  * "within 20 % displacement", "same cylinder count", "also has: camshaft, cylinder heads", "similar
  * parts descriptions" (T ≥ 0.3).
  */
+/** Bikes pre-ranked by engine family and displacement before the part terms are computed. */
+export const SIMILAR_CANDIDATE_BIKES = 200;
+
 export const SIMILARITY_WEIGHTS = { engineFamily: 0.4, displacement: 0.3, partCategories: 0.2, partsText: 0.1 } as const;
 
 interface SimilarRow extends BuildRow {
@@ -52,7 +57,7 @@ export async function similarBuilds(em: EntityManager, actor: Actor, bikeId: str
     my_parts as (
       select coalesce(array_agg(distinct p.category), '{}') as cats, coalesce(string_agg(p.description, ' ' order by ps.position, p.description), '') as txt
         from stage ps join part p on p.stage_id = ps.id where ps.bike_id = ${q.p(bikeId)} and ps.shop_id = ${q.p(shop)}),
-    cand_bike as (
+    all_bikes as (
       select b.id,
              coalesce(similarity(b.engine_family, me.engine_family), 0)::float8 as e,
              case when b.displacement_cc is null or me.displacement_cc is null or me.displacement_cc <= 0 then 0
@@ -65,7 +70,10 @@ export async function similarBuilds(em: EntityManager, actor: Actor, bikeId: str
        where b.shop_id = ${q.p(shop)} and b.id <> me.id
          and (b.engine_family % me.engine_family
               or b.displacement_cc between me.displacement_cc * 0.8 and me.displacement_cc * 1.2
-              or (me.engine_family is null and me.displacement_cc is null))),
+              or (me.engine_family is null and me.displacement_cc is null))
+),
+    cand_bike as (
+      select * from all_bikes order by ${w.engineFamily} * e + ${w.displacement} * d desc, id limit ${q.p(SIMILAR_CANDIDATE_BIKES)}),
     cand as (
       select ${BUILD_COLUMNS}, cb.e, cb.d, cb.cc_rel, cb.same_family, cb.same_cylinders, cum.cats, cum.txt
         from cand_bike cb

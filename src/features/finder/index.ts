@@ -1,2 +1,3 @@
 /** What the finder feature offers other screens (composed in src/app/routes). */
-export {};
+export { SimilarBuilds, type SimilarBuildsProps } from './components/SimilarBuilds';
+export { TypicalOutcomePanel, type TypicalOutcomePanelProps } from './components/TypicalOutcomePanel';

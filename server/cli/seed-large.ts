@@ -1,0 +1,195 @@
+/**
+ * `npm run seed:large` — fills a SEPARATE database with synthetic builds at archive scale:
+ * 10 000 bikes and 100 000 runs across four shops (invented makes and engine families), for the
+ * build finder's bench and EXPLAIN checks. Never touches the demo database.
+ *
+ *   npm run seed:large [-- --url postgres://…/pullbook_large] [--bikes 10000]
+ *
+ * Target: DATABASE_URL_LARGE, else postgres://pullbook@127.0.0.1:55432/pullbook_large (the
+ * `npm start` cluster's server, a database of its own). The database is created and migrated if
+ * needed; earlier seeded shops ("Large Seed Shop …") are removed first, so a re-run starts clean.
+ *
+ * Everything is bulk SQL (INSERT … SELECT over generate_series) in one transaction; the ORM is
+ * used only to migrate. Runs carry real summary columns (peak power/torque and their rpm) but no
+ * curve; stages carry their gain columns and cost, as refreshBikeOutcomes would have left them.
+ * Sign in as owner1@large.test … owner4@large.test with the password LARGE_SEED_PASSWORD.
+ */
+import pg from 'pg';
+import { pathToFileURL } from 'node:url';
+import { initOrm, migrateToLatest } from '../db/orm';
+import { hashPassword } from '../modules/auth/auth.service';
+
+export const DEFAULT_LARGE_URL = 'postgres://pullbook@127.0.0.1:55432/pullbook_large';
+export const LARGE_SEED_PASSWORD = 'large-seed-password';
+export const LARGE_SEED_SHOPS = 4;
+
+/** Invented engines: family, make, model stem, base cm³, cylinders, stock peak hp at the wheel. */
+const ENGINES: [string, string, string, number, number, number][] = [
+  ['Vantor 88', 'Corvane', 'Ridgeline', 1450, 2, 62],
+  ['Vantor 96', 'Corvane', 'Tourer', 1584, 2, 68],
+  ['Vantor 103', 'Corvane', 'Roadmaster', 1690, 2, 74],
+  ['Vantor 107', 'Corvane', 'Plains', 1753, 2, 79],
+  ['Vantor 114', 'Corvane', 'Longhaul', 1868, 2, 86],
+  ['Kestrel V2 1250', 'Kestrel', 'Apex', 1250, 2, 105],
+  ['Ridgeback 1800', 'Ridgeback', 'Nomad', 1800, 2, 82],
+  ['Hollis Triple 900', 'Hollis', 'Street', 900, 3, 98],
+  ['Strata Inline-4 1000', 'Strata', 'Arrow', 998, 4, 165],
+  ['Strata Inline-4 600', 'Strata', 'Dart', 599, 4, 105],
+  ['Marlin Boxer 1200', 'Marlin', 'Gran', 1170, 2, 112],
+  ['Tallon V4 1100', 'Tallon', 'Vee', 1103, 4, 180],
+];
+
+const arr = (values: (string | number)[]) => `array[${values.map((v) => (typeof v === 'number' ? String(v) : `'${v.replace(/'/g, "''")}'`)).join(',')}]`;
+
+export interface SeedLargeResult {
+  shops: number;
+  bikes: number;
+  stages: number;
+  parts: number;
+  runs: number;
+  ms: number;
+}
+
+async function ensureDatabase(url: string) {
+  const u = new URL(url);
+  const name = decodeURIComponent(u.pathname.replace(/^\//, ''));
+  const admin = new pg.Client({ connectionString: url.replace(/\/[^/?]+(\?.*)?$/, '/postgres') });
+  await admin.connect();
+  try {
+    const { rowCount } = await admin.query('select 1 from pg_database where datname = $1', [name]);
+    if (!rowCount) await admin.query(`create database "${name.replace(/"/g, '""')}"`);
+  } finally {
+    await admin.end();
+  }
+}
+
+export async function seedLarge(url: string, opts: { bikes?: number; log?: (s: string) => void } = {}): Promise<SeedLargeResult> {
+  const bikes = opts.bikes ?? 10_000;
+  const log = opts.log ?? (() => undefined);
+  const t0 = Date.now();
+  await ensureDatabase(url);
+  const orm = await initOrm(url, { poolMax: 2 });
+  try {
+    await migrateToLatest(orm);
+  } finally {
+    await orm.close();
+  }
+  const hash = await hashPassword(LARGE_SEED_PASSWORD, 10);
+  const db = new pg.Client({ connectionString: url });
+  await db.connect();
+  const q = async (label: string, sql: string, params: unknown[] = []) => {
+    const t = Date.now();
+    const res = await db.query(sql, params);
+    log(`  ${label}: ${res.rowCount ?? 0} rows, ${Date.now() - t} ms`);
+    return res;
+  };
+  const E = (i: number) => arr(ENGINES.map((e) => e[i] as string | number));
+  const n = ENGINES.length;
+  try {
+    await db.query('begin');
+    await q('remove earlier seed', `delete from shop where name like 'Large Seed Shop %'`);
+    await db.query(`select setseed(0.4242)`);
+    await q('shops', `create temp table seed_shop on commit drop as select gen_random_uuid() as id, i from generate_series(0, ${LARGE_SEED_SHOPS - 1}) i`);
+    await q('shop rows', `insert into shop (id, name, created_at) select id, 'Large Seed Shop ' || (i + 1), now() from seed_shop`);
+    await q('owners', `insert into app_user (id, shop_id, email, name, password_hash, role, disabled, created_at)
+      select gen_random_uuid(), id, 'owner' || (i + 1) || '@large.test', 'Seed owner ' || (i + 1), $1, 'owner', false, now() from seed_shop`, [hash]);
+    const customers = Math.ceil(bikes / 2);
+    await q('customers', `create temp table seed_customer on commit drop as
+      select gen_random_uuid() as id, c, (select id from seed_shop where i = c % ${LARGE_SEED_SHOPS}) as shop_id from generate_series(0, ${customers - 1}) c`);
+    await q('customer rows', `insert into customer (id, shop_id, name, created_at, updated_at) select id, shop_id, 'Seed rider ' || c, now(), now() from seed_customer`);
+    // Bike n belongs to customer n mod customers; engine by a pseudo-random pick so shops mix engines.
+    await q('bikes', `create temp table seed_bike on commit drop as
+      select gen_random_uuid() as id, b.n, sc.id as customer_id, sc.shop_id, e.k,
+             (${E(0)})[e.k] as family, (${E(1)})[e.k] as make, (${E(2)})[e.k] || ' ' || chr(65 + (b.n % 5)) as model,
+             (${E(3)})[e.k] + ((b.n * 7) % 41) - 20 as cc, (${E(4)})[e.k] as cylinders, (${E(5)})[e.k] as base_hp,
+             random() as r1, random() as r2, random() as r3, random() as r4,
+             date '2019-01-01' + (b.n % 2200) as day0
+        from generate_series(0, ${bikes - 1}) b(n)
+        cross join lateral (select 1 + floor(random() * ${n})::int + 0 * b.n as k) e
+        join seed_customer sc on sc.c = b.n % ${customers}`);
+    await q('bike rows', `insert into bike (id, shop_id, customer_id, make, model, year, engine_family, displacement_cc, cylinders, created_at, updated_at)
+      select id, shop_id, customer_id, make, model, 2008 + (n % 17), family, cc, cylinders, now(), now() from seed_bike`);
+    // Four stages: baseline, bolt-ons, then cam and heads (in either order), gains cumulative vs baseline.
+    await q('stages', `create temp table seed_stage on commit drop as
+      select gen_random_uuid() as id, sb.id as bike_id, sb.shop_id, sb.n, k.pos, sb.base_hp, sb.day0 + k.pos * 35 as day,
+             case k.pos when 0 then null
+                        when 1 then round((sb.base_hp * (0.07 + 0.05 * sb.r1))::numeric, 1)::float8
+                        when 2 then round((sb.base_hp * (0.07 + 0.05 * sb.r1 + 0.09 + 0.06 * sb.r2))::numeric, 1)::float8
+                        else round((sb.base_hp * (0.07 + 0.05 * sb.r1 + 0.09 + 0.06 * sb.r2 + 0.10 + 0.10 * sb.r3))::numeric, 1)::float8 end as gain,
+             (sb.n % 4 = 1) as heads_first, sb.r4
+        from seed_bike sb cross join generate_series(0, 3) k(pos)`);
+    await q('stage rows', `insert into stage (id, shop_id, bike_id, position, name, date, description, gain_peak_power_hp, gain_peak_torque_lbft, gain_area_pct, gain_average_power_hp, total_cost_cents, created_at)
+      select id, shop_id, bike_id, pos, (array['Baseline','Stage 1','Stage 2','Stage 3'])[pos + 1], day,
+             case pos when 0 then 'As delivered' when 1 then 'Bolt-ons and a fuel map' else null end,
+             gain, gain * 1.1, gain / base_hp * 100 * 0.9, gain * 0.62, 0, now() from seed_stage`);
+    await q('parts', `insert into part (id, shop_id, stage_id, category, description, part_cost_cents, labour_cost_cents, head_work_level, created_at)
+      select gen_random_uuid(), st.shop_id, st.id, p.category, p.description, p.cost, p.labour, p.level, now()
+        from seed_stage st
+        cross join lateral (values
+          ('exhaust', (array['Two-into-one header','Slip-on mufflers','Full system, stainless'])[1 + st.n % 3], 60000 + (st.n % 7) * 10000, 15000, null::text, 1),
+          ('intake', (array['High-flow air cleaner','Velocity stack kit'])[1 + st.n % 2], 25000 + (st.n % 5) * 5000, 5000, null, 1),
+          ('fuel-tune', 'Fuel map on the dyno', 0, 45000, null, 1),
+          ('camshaft', (array['Bolt-in cam set','Chain-drive cams, adjustable pushrods','Gear-drive cams'])[1 + st.n % 3], 50000 + (st.n % 6) * 10000, 60000, null, case when st.heads_first then 3 else 2 end),
+          ('cylinder-heads', (array['Mild port and valve job','Full port, bigger valves','CNC ported heads','Replacement heads','Clean-up port'])[1 + st.n % 5], 30000 + (st.n % 8) * 15000, 40000,
+             (array['mild-port','full-port','cnc','replacement','mild-port'])[1 + st.n % 5], case when st.heads_first then 2 else 3 end),
+          ('big-bore', 'Big-bore cylinders and pistons', 90000, 50000, null, case when st.n % 3 = 0 then 3 else -1 end)
+        ) as p(category, description, cost, labour, level, pos)
+       where p.pos = st.pos`);
+    await q('stage costs', `update stage s set total_cost_cents = c.total
+        from (select p.stage_id, sum(p.part_cost_cents + p.labour_cost_cents)::int as total from part p join seed_stage st on st.id = p.stage_id group by p.stage_id) c
+       where c.stage_id = s.id`);
+    // Ten runs a bike: 3 at the baseline, 2 + 2 at the middle stages, 3 at the last.
+    const runsPerBike = 10;
+    await q('runs', `insert into run (id, shop_id, bike_id, session_id, stage_id, label, sequence, raw_key, raw_sha256, raw_size_bytes, original_name, content_type, status,
+                                 peak_power_hp, peak_power_rpm, peak_torque_lbft, peak_torque_rpm, rpm_min, rpm_max, points, correction_standard, correction_factor,
+                                 warnings, tags, note, created_at, updated_at)
+      select gen_random_uuid(), st.shop_id, st.bike_id, null, st.id, 'Pull ' || (r.i + 1), r.i + 1, 'seed/' || st.id || '/' || r.i, md5(st.id::text || r.i) || md5(r.i || st.id::text), 40000,
+             'pull-' || (r.i + 1) || '.csv', 'text/csv', 'ready',
+             round((st.base_hp + coalesce(st.gain, 0) + (random() - 0.5))::numeric, 2)::float8, 5200 + (st.n % 9) * 100,
+             round(((st.base_hp + coalesce(st.gain, 0)) * 1.15 + (random() - 0.5))::numeric, 2)::float8, 3200 + (st.n % 7) * 100,
+             1800, 6200, 0, 'sae-j1349', 1 + (random() - 0.5) * 0.04,
+             '[]'::jsonb,
+             case when r.i = r.last then array['reference'] when st.n % 11 = 0 then array['customer-present'] else '{}'::text[] end,
+             case (st.n + r.i) % 9 when 0 then 'Pinging above 3,800 rpm; pulled timing' when 3 then 'Lean at the top end, richened' when 5 then 'Repeat pull, cooling fan on' else null end,
+             now(), now()
+        from seed_stage st
+        cross join lateral (select g as i, case st.pos when 0 then 2 when 3 then 2 else 1 end as last
+                              from generate_series(0, case st.pos when 0 then 2 when 3 then 2 else 1 end) g) r`);
+    await q('reference runs', `update stage s set reference_run_id = r.id
+        from run r join seed_stage st on st.id = r.stage_id
+       where r.stage_id = s.id and r.tags @> array['reference']`);
+    await db.query('commit');
+    const counts = await db.query(`select (select count(*) from shop where name like 'Large Seed Shop %')::int as shops,
+        (select count(*) from bike b join shop s on s.id = b.shop_id where s.name like 'Large Seed Shop %')::int as bikes,
+        (select count(*) from stage b join shop s on s.id = b.shop_id where s.name like 'Large Seed Shop %')::int as stages,
+        (select count(*) from part b join shop s on s.id = b.shop_id where s.name like 'Large Seed Shop %')::int as parts,
+        (select count(*) from run b join shop s on s.id = b.shop_id where s.name like 'Large Seed Shop %')::int as runs`);
+    await q('vacuum analyze', 'vacuum analyze');
+    const c = counts.rows[0] as Omit<SeedLargeResult, 'ms'>;
+    if (runsPerBike * bikes !== c.runs) log(`  note: ${c.runs} runs for ${bikes} bikes`);
+    return { ...c, ms: Date.now() - t0 };
+  } catch (e) {
+    await db.query('rollback').catch(() => undefined);
+    throw e;
+  } finally {
+    await db.end();
+  }
+}
+
+function argValue(name: string): string | undefined {
+  const i = process.argv.indexOf(name);
+  return i >= 0 ? process.argv[i + 1] : undefined;
+}
+
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
+  const url = argValue('--url') ?? process.env.DATABASE_URL_LARGE ?? DEFAULT_LARGE_URL;
+  const bikes = Number(argValue('--bikes') ?? 10_000);
+  console.log(`[seed:large] ${bikes} bikes into ${url.replace(/\/\/[^@]*@/, '//…@')}`);
+  seedLarge(url, { bikes, log: (s) => console.log(s) }).then(
+    (r) => console.log(`[seed:large] ${r.shops} shops, ${r.bikes} bikes, ${r.stages} stages, ${r.parts} parts, ${r.runs} runs in ${(r.ms / 1000).toFixed(1)} s; sign in as owner1@large.test / ${LARGE_SEED_PASSWORD}`),
+    (e) => {
+      console.error(`[seed:large] failed: ${e instanceof Error ? e.message : String(e)}`);
+      process.exit(1);
+    },
+  );
+}
