@@ -10,6 +10,7 @@ import { customerRoutes } from '@/features/customers/routes';
 import { bikeRoutes } from '@/features/bikes/routes';
 import { adminRoutes } from '@/features/admin/routes';
 import { runRoutes } from '@/features/runs/routes';
+import { dynoRoutes } from '@/features/dynos/routes';
 import { comparisonRoutes } from '@/features/comparisons/routes';
 import { publicReportRoutes, reportRoutes } from '@/features/reports/routes';
 import { finderRoutes } from '@/features/finder/routes';
@@ -28,7 +29,7 @@ const routes: RouteObject[] = [
       {
         element: <AppShell />,
         errorElement: <RouteErrorPage />,
-        children: [...homeRoutes, ...customerRoutes, ...bikeRoutes, ...runRoutes, ...comparisonRoutes, ...reportRoutes, ...finderRoutes, ...adminRoutes, ...accountRoutes, { path: '*', element: <NotFoundPage /> }],
+        children: [...homeRoutes, ...customerRoutes, ...bikeRoutes, ...runRoutes, ...comparisonRoutes, ...reportRoutes, ...finderRoutes, ...adminRoutes, ...dynoRoutes, ...accountRoutes, { path: '*', element: <NotFoundPage /> }],
       },
     ],
   },
