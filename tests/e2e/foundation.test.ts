@@ -122,7 +122,26 @@ describe('foundation in the browser', () => {
     await expectToast(page, `Invitation sent to ${CUSTOMER.email}`);
     await expect.poll(() => page.getByText('Has a sign-in').isVisible()).toBe(true);
     await h.screenshot(page, 'foundation-06-owner-customer-page');
+
+    // The owner's settings show the new sign-in and the mail that went out.
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Users' }).click();
+    const users = page.getByRole('table', { name: 'Users of this shop' });
+    await expect.poll(async () => (await users.textContent()) ?? '').toContain(CUSTOMER.email);
+    expect(await users.getByRole('row').filter({ hasText: CUSTOMER.email }).textContent()).toContain('Invitation sent');
+    await h.screenshot(page, 'foundation-06b-owner-users');
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Outbox' }).click();
+    const outbox = page.getByRole('table', { name: 'Captured mail' });
+    await outbox.getByRole('row').filter({ hasText: CUSTOMER.email }).first().getByRole('button').click();
+    const message = page.getByRole('dialog', { name: /invited to Ridgeback Motor Works/ });
+    await expect.poll(async () => (await message.textContent()) ?? '').toContain('/invite/');
+    await h.screenshot(page, 'foundation-06c-owner-outbox');
     await page.context().close();
+
+    // Settings are the owner's alone: the desk is told so rather than shown a broken form.
+    const desk = await h.signInPage(shop.users.desk.email);
+    await desk.goto(`${h.baseUrl}/settings/shop`);
+    await expect.poll(() => desk.getByText('Not for your role').isVisible()).toBe(true);
+    await desk.context().close();
   });
 
   it('the customer sets a password from the invitation and sees only their own bike', async () => {
