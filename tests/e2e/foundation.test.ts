@@ -5,7 +5,7 @@
  * then sees their own bike and none of the shop's others.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { chromium, type Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { startBrowserHarness, type BrowserHarness } from '../support/browser';
 import { latestMailTo, linkIn } from '../support/mail';
 import type { TestShop } from '../support/test-app';
@@ -18,12 +18,6 @@ const BIKE = { make: 'Corvale', model: 'Strata 1100', year: '2019', engineFamily
 const GOOD_VIN = '1M8GDM9AXKP042788';
 const BAD_VIN = '1M8GDM9A1KP042788';
 const NEW_PASSWORD = 'a-fresh-portal-password';
-
-// Shim: playwright-core 1.65 refuses a `--user-data-dir` argument in launch() (it wants
-// launchPersistentContext), which tests/support/browser.ts passes. launch() already uses a fresh
-// temporary profile, so dropping the argument changes nothing else. Remove once the harness is fixed.
-const launch = chromium.launch.bind(chromium);
-chromium.launch = (options) => launch({ ...options, args: options?.args?.filter((a) => !a.startsWith('--user-data-dir=')) });
 
 let h: BrowserHarness;
 let shop: TestShop;
