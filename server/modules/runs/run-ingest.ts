@@ -13,6 +13,7 @@ import { OrphanObject } from '../../lib/storage/orphan-object.entity';
 import {
   AnalysisError,
   analyzeBuffer,
+  correctionFactor,
   isCorrectionStandard,
   type AnalysisResult,
   type AnalyzeOptions,
@@ -77,21 +78,31 @@ function errorOf(e: unknown): { code: string; message: string; details?: unknown
   return { code: 'READ_FAILED', message: 'The file could not be read.' };
 }
 
+/**
+ * One pass of the engine, uncorrected; the correction is applied here afterwards, so a file with
+ * no known conditions (no session, nothing in its preamble) is read once, not twice.
+ */
 function analyseOnce(bytes: Uint8Array, correction: CorrectionStandard, conditions: AnalyzeOptions['conditions'], mapping: ColumnMapping | null): AnalysisResult {
+  const result = analyzeBuffer(bytes, { correction: 'none', conditions, ...(mapping ? { mapping } : {}) });
+  if (correction === 'none') return result;
+  let factor: number;
   try {
-    return analyzeBuffer(bytes, { correction, conditions, ...(mapping ? { mapping } : {}) });
+    factor = correctionFactor(correction, result.conditions);
   } catch (e) {
-    // No temperature or pressure anywhere (no session, no preamble): keep the figures uncorrected.
-    if (e instanceof AnalysisError && e.code === 'CONDITIONS_MISSING' && correction !== 'none') {
-      const result = analyzeBuffer(bytes, { correction: 'none', conditions, ...(mapping ? { mapping } : {}) });
-      result.warnings.push({
-        code: 'UNCORRECTED',
-        message: `No ambient temperature and pressure were known (no session conditions, none in the file), so ${correction} correction could not be applied; figures are uncorrected. Put the run in a session with its conditions and re-process it.`,
-      });
-      return result;
-    }
-    throw e;
+    if (!(e instanceof AnalysisError && e.code === 'CONDITIONS_MISSING')) throw e;
+    result.warnings.push({
+      code: 'UNCORRECTED',
+      message: `No ambient temperature and pressure were known (no session conditions, none in the file), so ${correction} correction could not be applied; figures are uncorrected. Put the run in a session with its conditions and re-process it.`,
+    });
+    return result;
   }
+  if (correction !== 'din-70020' && typeof result.conditions.humidityPct !== 'number') {
+    result.warnings.push({ code: 'HUMIDITY_ASSUMED_DRY', message: 'No relative humidity was given; dry air (0 %) was assumed for the correction.' });
+  }
+  result.correction = { standard: correction, factor };
+  result.peakPower = { hp: result.peakPower.hp * factor, rpm: result.peakPower.rpm };
+  result.peakTorque = { lbft: result.peakTorque.lbft * factor, rpm: result.peakTorque.rpm };
+  return result;
 }
 
 /**
