@@ -45,13 +45,14 @@ export function AuthProvider({ children }: { children: ReactNode }) {
     isLoading: me.isLoading,
     async signIn(email, password) {
       const { user } = await login.mutateAsync({ email, password });
-      qc.clear();
+      // Another user's cached data must not survive a sign-in; the new sign-in itself must.
+      qc.removeQueries({ predicate: (q) => q.queryKey[0] !== meQueryKey[0] });
       qc.setQueryData(meQueryKey, user);
       return user;
     },
     async signOut() {
       await api.post('/api/auth/logout').catch(() => undefined);
-      qc.clear();
+      qc.removeQueries({ predicate: (q) => q.queryKey[0] !== meQueryKey[0] });
       qc.setQueryData(meQueryKey, null);
     },
     setUser(user) {
