@@ -103,9 +103,19 @@ export function ComparisonView({ preview, name }: { preview: ComparisonPreview; 
         </Card>
       )}
 
-      {preview.results.map((r) => (
+      {preview.results.slice(0, 2).map((r) => (
         <ResultCard key={r.runId} result={r} name={nameOf(r.runId)} colour={colourOf(r.runId)} baselineName={preview.baseline.name} units={units} />
       ))}
+      {preview.results.length > 2 && (
+        <details className="rounded-card border border-line bg-paper-raised">
+          <summary className="focus-ring cursor-pointer rounded-card px-4 py-3 font-semibold">Figures of the other {preview.results.length - 2} runs</summary>
+          <div className="space-y-6 p-4">
+            {preview.results.slice(2).map((r) => (
+              <ResultCard key={r.runId} result={r} name={nameOf(r.runId)} colour={colourOf(r.runId)} baselineName={preview.baseline.name} units={units} />
+            ))}
+          </div>
+        </details>
+      )}
 
       <RunsTable preview={preview} units={units} />
       <RepeatabilityTable preview={preview} />
