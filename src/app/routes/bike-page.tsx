@@ -7,6 +7,10 @@ import { ApiError } from '@/lib/api-client';
 import { hasRole, useCurrentUser } from '@/lib/auth';
 import { paths } from '@/config/paths';
 import { BikeDetailsCard, BikeFormDialog, bikeQueries } from '@/features/bikes';
+import { BikeBuildTimeline, BikeRunsSection } from '@/features/runs';
+import { BikeStageTimeline } from '@/features/comparisons';
+import { BikeReportsSection } from '@/features/reports';
+import { SimilarBuilds, TypicalOutcomePanel } from '@/features/finder';
 
 /**
  * The bike page: the bike's identity first, then everything the archive holds about it.
@@ -54,12 +58,19 @@ export function BikePage() {
       />
       <BikeDetailsCard bike={b} linkCustomer={isStaff} />
 
-      {/*
-        Sections other features add to this page, in this order: build timeline (stages and parts),
-        runs and comparisons, gain reports, similar builds. Each comes from its feature's index.ts
-        and takes the bike id; none is imported yet.
-      */}
-      <div className="mt-6 space-y-6" data-bike-sections="" />
+      {/* Everything the archive holds about the bike, each section from its own feature. */}
+      <div className="mt-6 space-y-6">
+        <BikeBuildTimeline bikeId={b.id} />
+        <BikeStageTimeline bikeId={b.id} />
+        <BikeRunsSection bikeId={b.id} />
+        <BikeReportsSection bikeId={b.id} />
+        {isStaff && (
+          <div className="grid gap-6 lg:grid-cols-2">
+            <TypicalOutcomePanel bikeId={b.id} />
+            <SimilarBuilds bikeId={b.id} />
+          </div>
+        )}
+      </div>
 
       {canEdit && <BikeFormDialog open={editing} bike={b} onClose={() => setEditing(false)} />}
     </>

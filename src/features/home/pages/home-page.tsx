@@ -1,12 +1,27 @@
-import { lazy, Suspense } from 'react';
+import { lazy, Suspense, type ReactNode } from 'react';
 import { LoadingState } from '@/components/ui';
 import { useCurrentUser } from '@/lib/auth';
 
 const TodayPage = lazy(() => import('./today-page'));
 const MyBikesPage = lazy(() => import('./my-bikes-page'));
 
-/** "/" is the staff's Today page and a customer's My bikes; each loads only its own code. */
-export default function HomePage() {
+/**
+ * The start page: Today for staff, My bikes for customers. `customerExtras` is where the app
+ * adds other features' sections for customers (their reports), since features do not import
+ * each other.
+ */
+export function HomePage({ customerExtras }: { customerExtras?: ReactNode }) {
   const user = useCurrentUser();
-  return <Suspense fallback={<LoadingState />}>{user.role === 'customer' ? <MyBikesPage /> : <TodayPage />}</Suspense>;
+  return (
+    <Suspense fallback={<LoadingState />}>
+      {user.role === 'customer' ? (
+        <>
+          <MyBikesPage />
+          {customerExtras && <div className="mt-8">{customerExtras}</div>}
+        </>
+      ) : (
+        <TodayPage />
+      )}
+    </Suspense>
+  );
 }
