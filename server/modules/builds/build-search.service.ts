@@ -4,7 +4,7 @@ import { CC_PER_CUBIC_INCH } from '@shared/displacement';
 import type { Actor } from '../../http/actor';
 import { AppError } from '../../lib/errors';
 import type { BuildSearchQuery } from './build.schemas';
-import type { BuildSearchPage } from './build.types';
+import type { BuildSearchPage } from '@shared/schemas/builds';
 import { BUILD_COLUMNS, FTS, Sql, cumulativeParts, escapeLike, toBuildItem, type BuildRow } from './build-sql';
 
 /**

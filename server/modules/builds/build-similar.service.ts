@@ -2,7 +2,7 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { PART_CATEGORY_LABELS, type PartCategory } from '@shared/parts';
 import type { Actor } from '../../http/actor';
 import { notFound } from '../../lib/errors';
-import type { SimilarBuildsDto } from './build.types';
+import type { SimilarBuildsDto } from '@shared/schemas/builds';
 import { BUILD_COLUMNS, Sql, cumulativeParts, toBuildItem, type BuildRow } from './build-sql';
 
 /**

@@ -1,6 +1,6 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import type { HeadWorkLevel, PartCategory } from '@shared/parts';
-import type { BuildItemDto, BuildPartDto } from './build.types';
+import type { BuildItemDto, BuildPartDto } from '@shared/schemas/builds';
 
 /** Collects bound values; `p(v)` returns the placeholder. Every user value goes through it. */
 export class Sql {

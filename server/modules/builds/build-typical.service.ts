@@ -3,7 +3,7 @@ import { HEAD_WORK_LABELS, PART_CATEGORY_LABELS } from '@shared/parts';
 import type { Actor } from '../../http/actor';
 import { notFound } from '../../lib/errors';
 import type { TypicalQuery } from './build.schemas';
-import type { TypicalBuildDto, TypicalOutcomeDto } from './build.types';
+import type { TypicalBuildDto, TypicalOutcomeDto } from '@shared/schemas/builds';
 import { Sql } from './build-sql';
 import { QUANTILE_METHOD, fiveNumbers, quantileR7 } from './stats';
 

@@ -1,8 +1,8 @@
 import { infiniteQueryOptions, queryOptions } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
-import type { BuildSearchPage, SimilarBuildsDto, TypicalOutcomeDto } from '@server/modules/builds/build.types';
+import type { BuildSearchPage, SimilarBuildsDto, TypicalOutcomeDto } from '@shared/schemas/builds';
 
-export type { BuildItemDto, BuildSearchPage, SimilarBuildDto, SimilarBuildsDto, TypicalOutcomeDto } from '@server/modules/builds/build.types';
+export type { BuildItemDto, BuildSearchPage, SimilarBuildDto, SimilarBuildsDto, TypicalOutcomeDto } from '@shared/schemas/builds';
 
 /** Search filters as the URL and the API carry them (every value a string; blank = not set). */
 export type FinderFilters = Record<string, string>;
