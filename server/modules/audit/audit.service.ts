@@ -3,6 +3,7 @@ import type { Actor } from '../../http/actor';
 import { AuditEntry } from './audit-entry.entity';
 import { Shop } from '../shops/shop.entity';
 import { User } from '../users/user.entity';
+import type { AuditEntryDto } from '@shared/schemas/auth';
 
 /** Append one line to the shop's audit log. */
 export async function recordAudit(em: EntityManager, actor: Actor, action: string, entityType: string, entityId: string, details?: Record<string, unknown>) {
@@ -17,17 +18,8 @@ export async function recordAudit(em: EntityManager, actor: Actor, action: strin
   await em.flush();
 }
 
-export interface AuditDto {
-  id: string;
-  at: string;
-  userName: string | null;
-  action: string;
-  entityType: string;
-  entityId: string;
-  details: Record<string, unknown> | null;
-}
 
-export async function listAudit(em: EntityManager, actor: Actor, opts: { before?: string; limit: number }): Promise<AuditDto[]> {
+export async function listAudit(em: EntityManager, actor: Actor, opts: { before?: string; limit: number }): Promise<AuditEntryDto[]> {
   const rows = await em.find(
     AuditEntry,
     { shop: actor.shopId, ...(opts.before ? { createdAt: { $lt: new Date(opts.before) } } : {}) },

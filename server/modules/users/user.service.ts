@@ -2,23 +2,14 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import type { Actor } from '../../http/actor';
 import { AppError, conflict, notFound } from '../../lib/errors';
 import type { Mailer } from '../../lib/mail/mailer';
-import type { InviteUserInput } from '@shared/schemas/auth';
+import type { InviteUserInput, UserDto } from '@shared/schemas/auth';
 import type { Role } from '@shared/roles';
 import { User } from './user.entity';
 import { Customer } from '../customers/customer.entity';
 import { Shop } from '../shops/shop.entity';
 import { issueToken } from '../auth/auth.service';
 
-export interface UserDto {
-  id: string;
-  email: string;
-  name: string;
-  role: Role;
-  disabled: boolean;
-  invitePending: boolean;
-  customerId: string | null;
-  lastLoginAt: string | null;
-}
+export type { UserDto };
 
 export const toUserDto = (u: User): UserDto => ({
   id: u.id,

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { ROLES } from '../roles';
+import { ROLES, type Role } from '../roles';
 
 export const passwordSchema = z.string().min(10, 'Use at least 10 characters').max(200, 'At most 200 characters');
 
@@ -36,3 +36,26 @@ export const updateUserInput = z.object({
 
 export type LoginInput = z.infer<typeof loginInput>;
 export type InviteUserInput = z.infer<typeof inviteUserInput>;
+
+/** A user as GET /api/users lists them. */
+export interface UserDto {
+  id: string;
+  email: string;
+  name: string;
+  role: Role;
+  disabled: boolean;
+  invitePending: boolean;
+  customerId: string | null;
+  lastLoginAt: string | null;
+}
+
+/** One line of the shop's audit log (GET /api/audit). */
+export interface AuditEntryDto {
+  id: string;
+  at: string;
+  userName: string | null;
+  action: string;
+  entityType: string;
+  entityId: string;
+  details: Record<string, unknown> | null;
+}

@@ -1,29 +1,9 @@
 import { infiniteQueryOptions, queryOptions } from '@tanstack/react-query';
-import type { Role } from '@shared/roles';
 import type { ShopDto } from '@shared/schemas/shop';
 import { api } from '@/lib/api-client';
 
-/** A user as GET /api/users lists them. */
-export interface UserDto {
-  id: string;
-  email: string;
-  name: string;
-  role: Role;
-  disabled: boolean;
-  invitePending: boolean;
-  customerId: string | null;
-  lastLoginAt: string | null;
-}
-
-export interface AuditEntry {
-  id: string;
-  at: string;
-  userName: string | null;
-  action: string;
-  entityType: string;
-  entityId: string;
-  details: Record<string, unknown> | null;
-}
+export type { UserDto, AuditEntryDto as AuditEntry } from '@shared/schemas/auth';
+import type { UserDto, AuditEntryDto as AuditEntry } from '@shared/schemas/auth';
 
 export interface OutboxItem {
   id: string;
