@@ -10,6 +10,7 @@ const BENCHES: { name: string; load: () => Promise<{ run: () => Promise<void> }>
   { name: 'build finder', load: () => import('./finder.bench.js') },
   { name: 'gain-report PDF', load: () => import('./report.bench.js') },
   { name: 'run upload', load: () => import('./upload.bench.js') },
+  { name: 'comparison preview', load: () => import('./comparison.bench.js') },
 ];
 
 const only = process.argv.slice(2);

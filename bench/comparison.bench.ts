@@ -1,0 +1,132 @@
+/**
+ * Comparison preview bench: POST /api/comparisons/preview for 2 runs and for 12 runs, 20
+ * concurrent connections for 6 s per case (autocannon), against the real app on a free loopback
+ * port with a PostgreSQL cluster of its own under storage/bench/comparison-postgres (migrated and
+ * seeded with invented runs on each start; the data is small). Median and p95 from every
+ * response's time. Target: p95 < 50 ms for 2 runs; 12 runs is reported.
+ */
+import http from 'node:http';
+import path from 'node:path';
+import type { AddressInfo } from 'node:net';
+import { randomBytes } from 'node:crypto';
+import autocannon from 'autocannon';
+import { STORAGE } from '../scripts/lib/paths.js';
+import { freePort, startLocalPostgres } from '../scripts/lib/local-services.js';
+import { loadConfig } from '../server/config/env.js';
+import { buildDeps } from '../server/main.js';
+import { createApp } from '../server/app.js';
+import { migrateToLatest } from '../server/db/orm.js';
+import { hashPassword } from '../server/modules/auth/auth.service.js';
+import { Shop } from '../server/modules/shops/shop.entity.js';
+import { User } from '../server/modules/users/user.entity.js';
+import { Customer } from '../server/modules/customers/customer.entity.js';
+import { Bike } from '../server/modules/bikes/bike.entity.js';
+import { ComparisonFixtures, humpWithPeaks } from '../tests/support/comparison-fixtures.js';
+
+const CONNECTIONS = 20;
+const DURATION_S = 6;
+const PASSWORD = 'bench-comparison-password';
+
+function percentile(sorted: number[], p: number): number {
+  if (!sorted.length) return NaN;
+  const h = (sorted.length - 1) * p;
+  const lo = Math.floor(h);
+  const hi = Math.min(lo + 1, sorted.length - 1);
+  return sorted[lo] + (h - lo) * (sorted[hi] - sorted[lo]);
+}
+
+async function load(baseUrl: string, cookie: string, body: string) {
+  const times: number[] = [];
+  let errors = 0;
+  await new Promise<void>((resolve, reject) => {
+    const instance = autocannon(
+      { url: `${baseUrl}/api/comparisons/preview`, connections: CONNECTIONS, duration: DURATION_S, method: 'POST', headers: { cookie, 'content-type': 'application/json', origin: baseUrl }, body },
+      (err) => (err ? reject(err) : resolve()),
+    );
+    instance.on('response', (_c: unknown, status: number, _b: number, ms: number) => {
+      if (status !== 200) errors += 1;
+      times.push(ms);
+    });
+  });
+  times.sort((a, b) => a - b);
+  return { requests: times.length, errors, medianMs: percentile(times, 0.5), p95Ms: percentile(times, 0.95) };
+}
+
+/** Prints the comparison bench table. */
+export async function run(): Promise<void> {
+  const pgService = await startLocalPostgres({ baseDir: path.join(STORAGE, 'bench', 'comparison-postgres'), port: await freePort(), database: 'pullbook_compare', label: 'bench-compare-postgres' });
+  const server = http.createServer();
+  let close: (() => Promise<void>) | null = null;
+  try {
+    await new Promise<void>((r) => server.listen(0, '127.0.0.1', () => r()));
+    const baseUrl = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+    const config = loadConfig({
+      ...process.env,
+      NODE_ENV: 'test',
+      DATABASE_URL: pgService.url,
+      SMTP_URL: 'smtp://127.0.0.1:9',
+      S3_ENDPOINT: 'http://127.0.0.1:9',
+      SESSION_SECRET: randomBytes(24).toString('hex'),
+      PUBLIC_URL: baseUrl,
+    });
+    const deps = await buildDeps(config, { poolMax: CONNECTIONS });
+    await migrateToLatest(deps.orm);
+    const created = createApp(deps);
+    let inFlight = 0;
+    server.on('request', (req, res) => {
+      inFlight += 1;
+      res.on('close', () => (inFlight -= 1));
+      created.app(req, res);
+    });
+    close = async () => {
+      for (let i = 0; i < 200 && inFlight > 0; i++) await new Promise((r) => setTimeout(r, 50));
+      await new Promise<void>((r) => server.close(() => r()));
+      server.closeAllConnections();
+      await created.close();
+      await deps.orm.close();
+    };
+
+    // A fresh invented shop each start (the cluster is reused; old shops are simply ignored).
+    const em = deps.orm.em.fork();
+    const tag = randomBytes(4).toString('hex');
+    const shop = em.create(Shop, { name: `Bench Compare ${tag}` } as Shop);
+    const customer = em.create(Customer, { shop, name: 'Bench Rider' } as Customer);
+    const email = `tuner-${tag}@bench.test`;
+    em.create(User, { shop, email, name: 'Bench tuner', role: 'tuner', passwordHash: await hashPassword(PASSWORD, 4), customer: null } as User);
+    const bike = em.create(Bike, { shop, customer, make: 'Benchmake', model: 'Twelve', cylinders: 2 } as Bike);
+    const f = new ComparisonFixtures(em, shop);
+    const session = f.session(bike, { dyno: f.dyno(), ambientTempC: 21, baroKpa: 100.8, humidityPct: 40 });
+    const stages = [f.stage(bike, 'Stock', 0), f.stage(bike, 'Stage 1', 1), f.stage(bike, 'Stage 2', 2)];
+    const runs = Array.from({ length: 12 }, (_, i) =>
+      f.run(bike, { curve: humpWithPeaks(95 + i, 3000 + 40 * i, 85 + i * 1.3), stage: stages[i % 3], session, label: `Bench pull ${i + 1}`, conditions: { temperatureC: 21, baroKpa: 100.8, humidityPct: 40 } }),
+    );
+    await em.flush();
+
+    const login = await fetch(`${baseUrl}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json', origin: baseUrl }, body: JSON.stringify({ email, password: PASSWORD }) });
+    if (login.status !== 200) throw new Error(`sign-in failed: ${login.status}`);
+    const cookie = (login.headers.getSetCookie?.() ?? [login.headers.get('set-cookie') ?? '']).map((c) => c.split(';')[0]).join('; ');
+
+    const ids = runs.map((r) => r.id);
+    const cases = [
+      { name: 'preview, 2 runs', body: JSON.stringify({ runIds: ids.slice(0, 2), baselineRunId: ids[0], options: { correction: 'sae-j1349' } }), targetMs: 50 as number | null },
+      { name: 'preview, 12 runs', body: JSON.stringify({ runIds: ids, baselineRunId: ids[0], options: { correction: 'sae-j1349' } }), targetMs: null },
+    ];
+    for (const c of cases) {
+      const warm = await fetch(`${baseUrl}/api/comparisons/preview`, { method: 'POST', headers: { cookie, 'content-type': 'application/json', origin: baseUrl }, body: c.body });
+      if (warm.status !== 200) throw new Error(`${c.name}: ${warm.status} ${await warm.text()}`);
+    }
+    const rows = [['case', 'requests', 'non-200', 'median ms', 'p95 ms', 'target p95', 'result']];
+    for (const c of cases) {
+      const r = await load(baseUrl, cookie, c.body);
+      const ok = r.errors === 0 && (c.targetMs === null || r.p95Ms < c.targetMs);
+      rows.push([c.name, String(r.requests), String(r.errors), r.medianMs.toFixed(1), r.p95Ms.toFixed(1), c.targetMs === null ? 'reported' : `< ${c.targetMs} ms`, ok ? 'ok' : 'OVER TARGET']);
+    }
+    const widths = rows[0].map((_, i) => Math.max(...rows.map((row) => row[i].length)));
+    for (const row of rows) process.stdout.write(row.map((c, i) => c.padEnd(widths[i])).join('  ') + '\n');
+    process.stdout.write(`${CONNECTIONS} concurrent connections, ${DURATION_S} s per case; each run 81 points (2,000–6,000 rpm, 50 rpm grid), 4 runs per stage for the spread\n`);
+  } finally {
+    if (close) await close();
+    else server.close();
+    await pgService.stop();
+  }
+}
