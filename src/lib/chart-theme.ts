@@ -150,7 +150,8 @@ export function deltaSeries(kind: 'gain' | 'loss', series: Omit<LineSeriesOption
     silent: true,
     color: style.color,
     areaStyle: { color: style.color, opacity: style.fillOpacity },
-    itemStyle: { color: style.color, decal: style.hatched ? lossDecal() : 'none' },
+    // Gains carry no decal at all: the string 'none' breaks ECharts 6 on chart updates.
+    itemStyle: style.hatched ? { color: style.color, decal: lossDecal() } : { color: style.color },
     lineStyle: { color: style.color, width: 1.5, type: style.edge === 'solid' ? 'solid' : [...style.edge] },
     ...series,
   };

@@ -139,13 +139,8 @@ export function DifferenceChart({ preview, runId, units, onReady, height = 300 }
       y2Name: `Δ torque (${units.torque})`,
       description: `${name} minus the baseline ${preview.baseline.name}, by engine speed. Gains are shaded, losses hatched.`,
     });
-    // Fill to zero. A decal of 'none' (chart-theme's gain style) crashes ECharts 6 when the chart
-    // is updated with notMerge ("Cannot create property 'dirty' on string"), so drop it here.
-    const origin0 = (s: LineSeriesOption): LineSeriesOption => {
-      const itemStyle = { ...(s.itemStyle as Record<string, unknown>) };
-      if (itemStyle.decal === 'none') delete itemStyle.decal;
-      return { ...s, itemStyle, areaStyle: { ...(s.areaStyle as object), origin: 0 } };
-    };
+    // Fill to zero rather than to the axis minimum.
+    const origin0 = (s: LineSeriesOption): LineSeriesOption => ({ ...s, areaStyle: { ...(s.areaStyle as object), origin: 0 } });
     return {
       ...base,
       grid: { ...(base.grid as object), bottom: 84 },
