@@ -7,12 +7,17 @@ export interface MailAttachment {
 }
 
 export interface OutgoingMail {
+  /** The shop the message is sent for; stamped on it so the local outbox shows each shop only its own mail. */
+  shopId: string;
   to: string;
   subject: string;
   text: string;
   html?: string;
   attachments?: MailAttachment[];
 }
+
+/** Header naming the shop a message belongs to (read back by the local outbox). */
+export const SHOP_HEADER = 'X-Pullbook-Shop';
 
 /** Sends mail through SMTP_URL, whatever relay that names (the local fake included). */
 export interface Mailer {
@@ -31,8 +36,8 @@ export function createSmtpMailer(smtpUrl: string, from: string): Mailer {
     ignoreTLS: url.hostname === '127.0.0.1' || url.hostname === 'localhost',
   });
   return {
-    async send(mail) {
-      const info = await transport.sendMail({ from, ...mail });
+    async send({ shopId, ...mail }) {
+      const info = await transport.sendMail({ from, ...mail, headers: { [SHOP_HEADER]: shopId } });
       return { messageId: info.messageId };
     },
   };

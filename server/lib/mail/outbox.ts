@@ -2,9 +2,12 @@ import fs from 'node:fs/promises';
 import path from 'node:path';
 import { simpleParser } from 'mailparser';
 import { AppError } from '../errors';
+import { SHOP_HEADER } from './mailer';
 
 export interface CapturedMessage {
   id: string;
+  /** The shop the message was sent for (from its SHOP_HEADER), null for mail from elsewhere. */
+  shopId: string | null;
   receivedAt: string;
   from: string;
   to: string;
@@ -31,8 +34,10 @@ export function createOutbox(dir: string | undefined) {
     const parsed = await simpleParser(raw);
     const stat = await fs.stat(path.join(requireDir(), file));
     const addr = (a: unknown) => (Array.isArray(a) ? a.map((x) => x.text).join(', ') : ((a as { text?: string })?.text ?? ''));
+    const shopHeader = parsed.headers.get(SHOP_HEADER.toLowerCase());
     return {
       id: file,
+      shopId: typeof shopHeader === 'string' ? shopHeader : null,
       receivedAt: stat.mtime.toISOString(),
       from: addr(parsed.from),
       to: addr(parsed.to),
@@ -45,17 +50,22 @@ export function createOutbox(dir: string | undefined) {
   }
   return {
     enabled: Boolean(dir),
-    async list(limit = 100): Promise<CapturedMessage[]> {
-      const files = (await fs.readdir(requireDir()).catch(() => [])).filter((f) => f.endsWith('.eml')).sort().reverse().slice(0, limit);
+    /** The newest messages sent for one shop. */
+    async list(shopId: string, limit = 100): Promise<CapturedMessage[]> {
+      const files = (await fs.readdir(requireDir()).catch(() => [])).filter((f) => f.endsWith('.eml')).sort().reverse();
       const out: CapturedMessage[] = [];
       for (const f of files) {
+        if (out.length >= limit) break;
         const { raw: _raw, parsed: _parsed, ...msg } = await parse(f);
-        out.push(msg);
+        if (msg.shopId === shopId) out.push(msg);
       }
       return out;
     },
-    async get(id: string) {
-      return parse(safeName(id));
+    /** One message, only if it was sent for that shop (otherwise the same 404 as a missing one). */
+    async get(shopId: string, id: string) {
+      const msg = await parse(safeName(id)).catch(() => null);
+      if (!msg || msg.shopId !== shopId) throw new AppError('NOT_FOUND', 'Message not found', 404);
+      return msg;
     },
   };
 }

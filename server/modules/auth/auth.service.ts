@@ -104,6 +104,7 @@ export async function requestPasswordReset(em: EntityManager, mailer: Mailer, pu
   const token = await issueToken(em, user, 'reset');
   const link = `${publicUrl.replace(/\/$/, '')}/reset-password/${token}`;
   await mailer.send({
+    shopId: user.shop.id,
     to: user.email,
     subject: 'Reset your Pullbook password',
     text: `Hello ${user.name},\n\nSomeone (hopefully you) asked to reset your Pullbook password. Open this link within an hour to choose a new one:\n\n${link}\n\nIf you did not ask, ignore this message; your password stays as it is.\n`,

@@ -13,7 +13,7 @@ export function outboxRoutes(deps: AppDeps) {
     path: '/',
     access: ['owner'],
     summary: 'Messages captured by the local mail fake',
-    handler: async () => ({ enabled: deps.outbox.enabled, items: deps.outbox.enabled ? await deps.outbox.list() : [] }),
+    handler: async ({ actor }) => ({ enabled: deps.outbox.enabled, items: deps.outbox.enabled ? await deps.outbox.list(actor.shopId) : [] }),
   });
   api.route({
     method: 'get',
@@ -21,8 +21,8 @@ export function outboxRoutes(deps: AppDeps) {
     access: ['owner'],
     summary: 'One captured message',
     params: messageParams,
-    handler: async ({ params }) => {
-      const { raw: _raw, parsed, ...msg } = await deps.outbox.get(params.id);
+    handler: async ({ actor, params }) => {
+      const { raw: _raw, parsed, ...msg } = await deps.outbox.get(actor.shopId, params.id);
       return { ...msg, html: typeof parsed.html === 'string' ? parsed.html : null };
     },
   });
@@ -32,8 +32,8 @@ export function outboxRoutes(deps: AppDeps) {
     access: ['owner'],
     summary: 'Download an attachment of a captured message',
     params: messageParams.extend({ index: z.coerce.number().int().min(0) }),
-    handler: async ({ params, res }) => {
-      const { parsed } = await deps.outbox.get(params.id);
+    handler: async ({ actor, params, res }) => {
+      const { parsed } = await deps.outbox.get(actor.shopId, params.id);
       const att = parsed.attachments[params.index];
       if (!att) throw new AppError('NOT_FOUND', 'Attachment not found', 404);
       res.type(att.contentType).attachment(att.filename ?? 'attachment').send(att.content);

@@ -420,7 +420,7 @@ export async function sendReport(deps: AppDeps, em: EntityManager, actor: Actor,
   try {
     const pdf = await deps.storage.getBuffer(report.pdfKey);
     if (sha256(pdf) !== report.pdfSha256) throw new Error('the stored PDF does not match its recorded hash');
-    const { messageId } = await deps.mailer.send({ to: input.to, subject, text, attachments: [{ filename: pdfFileName(report), content: pdf, contentType: 'application/pdf' }] });
+    const { messageId } = await deps.mailer.send({ shopId: actor.shopId, to: input.to, subject, text, attachments: [{ filename: pdfFileName(report), content: pdf, contentType: 'application/pdf' }] });
     delivery.status = 'sent';
     delivery.messageId = messageId;
   } catch (e) {

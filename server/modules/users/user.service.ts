@@ -31,6 +31,7 @@ async function sendInvite(em: EntityManager, mailer: Mailer, publicUrl: string, 
   const token = await issueToken(em, user, 'invite');
   const link = `${publicUrl.replace(/\/$/, '')}/invite/${token}`;
   await mailer.send({
+    shopId: user.shop.id,
     to: user.email,
     subject: `You're invited to ${shopName} on Pullbook`,
     text: `Hello ${user.name},\n\n${shopName} has given you a Pullbook account. Open this link within 7 days to choose your password:\n\n${link}\n`,
