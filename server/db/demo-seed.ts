@@ -36,12 +36,12 @@ export function extendDemo(ext: DemoExtension) {
 }
 
 const BIKES: { customer: number; make: string; model: string; year: number; family: string; cc: number; cyl: number; vin?: string }[] = [
-  { customer: 0, make: 'Halvorsen', model: 'Roadmaster Classic', year: 2019, family: 'Halvorsen HT-107', cc: 1746, cyl: 2, vin: '1M8GDM9AXKP042788' },
-  { customer: 1, make: 'Halvorsen', model: 'Street Nomad', year: 2021, family: 'Halvorsen HT-114', cc: 1868, cyl: 2 },
-  { customer: 2, make: 'Tamarack', model: 'Bandit 96', year: 2014, family: 'Tamarack TV-96', cc: 1584, cyl: 2 },
-  { customer: 3, make: 'Halvorsen', model: 'Low Rider', year: 2017, family: 'Halvorsen HT-107', cc: 1746, cyl: 2 },
-  { customer: 4, make: 'Orrin', model: 'RS 900', year: 2020, family: 'Orrin Triple 900', cc: 898, cyl: 3 },
-  { customer: 1, make: 'Tamarack', model: 'Heritage 103', year: 2016, family: 'Tamarack TV-103', cc: 1690, cyl: 2 },
+  { customer: 0, make: 'Halvorsen', model: 'Aldermoor Tourer', year: 2019, family: 'Halvorsen HV-1750', cc: 1746, cyl: 2, vin: 'HV4TR17A0KX000417' },
+  { customer: 1, make: 'Halvorsen', model: 'Brisca S', year: 2021, family: 'Halvorsen HV-1870', cc: 1868, cyl: 2 },
+  { customer: 2, make: 'Tamarack', model: 'Corrow', year: 2014, family: 'Tamarack T2-1580', cc: 1584, cyl: 2 },
+  { customer: 3, make: 'Halvorsen', model: 'Dunmere', year: 2017, family: 'Halvorsen HV-1750', cc: 1746, cyl: 2 },
+  { customer: 4, make: 'Orrin', model: 'Ostrel 900', year: 2020, family: 'Orrin R3-900', cc: 898, cyl: 3 },
+  { customer: 1, make: 'Tamarack', model: 'Pellworth', year: 2016, family: 'Tamarack T2-1690', cc: 1690, cyl: 2 },
 ];
 
 const CUSTOMERS = [
@@ -94,7 +94,7 @@ export async function seedDemoIfEmpty(deps: AppDeps): Promise<DemoIds | null> {
   const other = em.create(Shop, { name: 'Bluewater Dyno Lab', address: '88 Harbour Road, Eastport', phone: '(555) 020-9000', units: 'metric', paperSize: 'a4', defaultCorrection: 'din-70020' } as Shop);
   em.create(User, { shop: other, email: 'owner@bluewater.pullbook.test', name: 'Noor Haddad', role: 'owner', passwordHash: hash } as User);
   const otherCustomer = em.create(Customer, { shop: other, name: 'Sam Iverson', email: 'sam.iverson@example.com', phone: '555-0300' } as Customer);
-  em.create(Bike, { shop: other, customer: otherCustomer, make: 'Orrin', model: 'Scrambler 1200', year: 2022, engineFamily: 'Orrin Twin 1200', displacementCc: 1200, cylinders: 2 } as Bike);
+  em.create(Bike, { shop: other, customer: otherCustomer, make: 'Orrin', model: 'Quarrel 1200', year: 2022, engineFamily: 'Orrin R2-1200', displacementCc: 1200, cylinders: 2 } as Bike);
   await em.flush();
 
   const ids: DemoIds = {
