@@ -111,4 +111,15 @@ describe('health', () => {
     expect(res.body.database.ok).toBe(true);
     expect(res.body.storage.ok).toBe(true);
   });
+
+  it('answers 503 naming the part that is down, without internals, when storage is unreachable', async () => {
+    const down = await createTestApp({ env: { S3_ENDPOINT: 'http://127.0.0.1:1' } });
+    try {
+      const res = await down.request.get('/api/health');
+      expect(res.status).toBe(503);
+      expect(res.body).toEqual({ status: 'degraded', database: { ok: true }, storage: { ok: false } });
+    } finally {
+      await down.close();
+    }
+  });
 });

@@ -1,12 +1,17 @@
 import { ApiRouter } from '../../http/api-router';
 import type { AppDeps } from '../../app-deps';
 
-async function probe(check: () => Promise<unknown>, timeoutMs = 2000): Promise<{ ok: boolean; error?: string }> {
+/** Try one dependency. The answer says only up or down: hosts, ports and driver errors go to the log, not to anonymous callers. */
+async function probe(name: string, check: () => Promise<unknown>, timeoutMs = 2000): Promise<{ ok: boolean }> {
+  let timer: NodeJS.Timeout | undefined;
   try {
-    await Promise.race([check(), new Promise((_, reject) => setTimeout(() => reject(new Error('timed out')), timeoutMs))]);
+    await Promise.race([check(), new Promise((_, reject) => (timer = setTimeout(() => reject(new Error('timed out')), timeoutMs)))]);
     return { ok: true };
   } catch (err) {
-    return { ok: false, error: err instanceof Error ? err.message || err.name : String(err) };
+    console.error(`[pullbook] health: ${name} is down:`, err instanceof Error ? err.message || err.name : err);
+    return { ok: false };
+  } finally {
+    clearTimeout(timer);
   }
 }
 
@@ -19,8 +24,8 @@ export function healthRoutes(deps: AppDeps) {
     summary: 'State of the database and object storage',
     handler: async ({ res }) => {
       const [database, storage] = await Promise.all([
-        probe(() => deps.orm.em.fork().getConnection().execute('select 1')),
-        probe(() => deps.storage.ping()),
+        probe('database', () => deps.orm.em.fork().getConnection().execute('select 1')),
+        probe('object storage', () => deps.storage.ping()),
       ]);
       const ok = database.ok && storage.ok;
       res.status(ok ? 200 : 503).json({ status: ok ? 'ok' : 'degraded', database, storage });
