@@ -28,7 +28,44 @@ function countRouteLayers(stack: Layer[]): number {
   return stack.reduce((n, layer) => n + (layer.route ? Object.keys(layer.route.methods).length : layer.handle?.stack ? countRouteLayers(layer.handle.stack) : 0), 0);
 }
 
+/**
+ * Expectations written down independently of the routes' own declarations, for the routes where
+ * a wrong rule would hurt most. If a declaration drifts from these, this test fails.
+ */
+const EXPECTED: { method: string; path: string; allowed: (Role | 'anonymous')[] }[] = [
+  { method: 'get', path: '/api/users/', allowed: ['owner'] },
+  { method: 'post', path: '/api/users/', allowed: ['owner'] },
+  { method: 'patch', path: '/api/users/:id', allowed: ['owner'] },
+  { method: 'get', path: '/api/audit/', allowed: ['owner'] },
+  { method: 'get', path: '/api/outbox/', allowed: ['owner'] },
+  { method: 'put', path: '/api/shop/', allowed: ['owner'] },
+  { method: 'post', path: '/api/dynos/', allowed: ['owner'] },
+  { method: 'post', path: '/api/customers/', allowed: ['owner', 'desk'] },
+  { method: 'post', path: '/api/bikes/', allowed: ['owner', 'desk'] },
+  { method: 'post', path: '/api/runs/', allowed: ['owner', 'tuner'] },
+  { method: 'get', path: '/api/runs/:id/raw', allowed: ['owner', 'tuner', 'desk'] },
+  { method: 'delete', path: '/api/runs/:id', allowed: ['owner'] },
+  { method: 'post', path: '/api/comparisons/preview', allowed: ['owner', 'tuner', 'desk'] },
+  { method: 'post', path: '/api/reports/:id/send', allowed: ['owner', 'tuner', 'desk'] },
+  { method: 'get', path: '/api/builds/search', allowed: ['owner', 'tuner', 'desk'] },
+  { method: 'get', path: '/api/bikes/:id/similar', allowed: ['owner', 'tuner', 'desk'] },
+  { method: 'get', path: '/api/bikes/', allowed: ['owner', 'tuner', 'desk', 'customer'] },
+  { method: 'get', path: '/api/health/', allowed: ['anonymous', 'owner', 'tuner', 'desk', 'customer'] },
+  { method: 'get', path: '/api/share/:token', allowed: ['anonymous', 'owner', 'tuner', 'desk', 'customer'] },
+];
+
 describe('route × role matrix', () => {
+  it('declares the independently expected rules on the sensitive routes', () => {
+    for (const e of EXPECTED) {
+      const r = t.routes.find((x) => x.method === e.method && x.path === e.path);
+      expect(r, `${e.method.toUpperCase()} ${e.path} is registered`).toBeTruthy();
+      const declared = (['anonymous', ...ROLES] as const).filter((who) =>
+        r!.access === 'public' ? true : who === 'anonymous' ? false : r!.access === 'signed-in' ? true : r!.access.includes(who),
+      );
+      expect(declared, `${e.method.toUpperCase()} ${e.path}`).toEqual(['anonymous', ...ROLES].filter((w) => e.allowed.includes(w as Role | 'anonymous')));
+    }
+  });
+
   it('has every Express route in the access registry', () => {
     const stack = (t.app as unknown as { router: { stack: Layer[] } }).router.stack;
     expect(t.routes.length).toBeGreaterThan(15);
