@@ -140,6 +140,9 @@ describe('invitations', () => {
     expect((await desk.get('/api/users')).status).toBe(403);
     expect((await owner.patch(`/api/users/${s.users.desk.id}`).send({ role: 'owner' })).status).toBe(200);
     expect((await desk.get('/api/users')).status).toBe(200);
+    const audit = await owner.get('/api/audit');
+    const entry = audit.body.find((e: { action: string; entityId: string }) => e.action === 'user.update' && e.entityId === s.users.desk.id);
+    expect(entry.details).toEqual({ before: expect.objectContaining({ role: 'desk' }), after: expect.objectContaining({ role: 'owner' }) });
   });
 
   it('stops an owner from demoting themselves', async () => {

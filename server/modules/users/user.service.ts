@@ -8,6 +8,7 @@ import { User } from './user.entity';
 import { Customer } from '../customers/customer.entity';
 import { Shop } from '../shops/shop.entity';
 import { issueToken } from '../auth/auth.service';
+import { recordAudit } from '../audit/audit.service';
 
 export type { UserDto };
 
@@ -53,6 +54,7 @@ export async function inviteUser(em: EntityManager, mailer: Mailer, publicUrl: s
   const user = em.create(User, { shop, email: input.email, name: input.name, role: input.role, customer } as User);
   await em.flush();
   await sendInvite(em, mailer, publicUrl, user, shop.name);
+  await recordAudit(em, actor, 'user.invite', 'user', user.id, { email: user.email, role: user.role });
   return toUserDto(user);
 }
 
@@ -61,6 +63,7 @@ export async function resendInvite(em: EntityManager, mailer: Mailer, publicUrl:
   if (!user) throw notFound('User');
   if (user.passwordHash) throw conflict('ALREADY_ACTIVE', 'This user has already set a password');
   await sendInvite(em, mailer, publicUrl, user, user.shop.name);
+  await recordAudit(em, actor, 'user.resend-invite', 'user', user.id, { email: user.email });
 }
 
 export async function updateUser(em: EntityManager, actor: Actor, id: string, patch: { name?: string; role?: Role; disabled?: boolean }): Promise<UserDto> {
@@ -72,10 +75,12 @@ export async function updateUser(em: EntityManager, actor: Actor, id: string, pa
   if (patch.role === 'customer' && !user.customer) {
     throw new AppError('CUSTOMER_REQUIRED', 'A customer sign-in must belong to a customer record; invite them from the customer page', 400);
   }
+  const before = { name: user.name, role: user.role, disabled: user.disabled };
   if (patch.name !== undefined) user.name = patch.name;
   if (patch.role !== undefined) user.role = patch.role;
   if (patch.disabled !== undefined) user.disabled = patch.disabled;
   await em.flush();
+  await recordAudit(em, actor, 'user.update', 'user', user.id, { before, after: { name: user.name, role: user.role, disabled: user.disabled } });
   if (patch.disabled) {
     // Signed-in sessions of a disabled user end at their next request (deserializeUser refuses
     // them); removing them here also frees the rows.
