@@ -2,7 +2,7 @@
  * Child process of the analysis bench: streams one file through analyzeFile and prints the time
  * and this process's peak RSS as JSON, so the memory figure is not polluted by the parent.
  */
-import { analyzeFile } from '../server/analysis/analyze-file.js';
+import { analyzeFile } from '../server/lib/run-files/index.js';
 
 const file = process.argv[2];
 const t0 = performance.now();

@@ -1,7 +1,7 @@
 /**
  * The ingest pipeline: bytes → decoded text → layout → columns → rows → sweep → cross-check →
  * resampled, smoothed curve → peaks and correction. `analyzeBuffer` works in memory; the
- * streaming `analyzeFile` (analyze-file.ts) shares every step after reading.
+ * streaming `analyzeFile` (server/lib/run-files/analyze-file.ts) shares every step after reading.
  */
 import { BLOCK_BYTES, BlockFeeder } from './blocks.js';
 import { type ColumnMapping, type ColumnPlan, recogniseColumns } from './columns.js';

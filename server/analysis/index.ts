@@ -2,8 +2,10 @@
  * Run-file ingest engine: read the files dynos export, normalise them, cross-check power against
  * torque × rpm, correct to standard air, and compare runs. Pure functions; no database or HTTP.
  *
- * Browser-safe parts (import them directly for the client): units.ts, correction.ts, compare.ts,
- * curve.ts, errors.ts. This index also exports the Node-only `analyzeFile`.
+ * Everything exported here is pure (no I/O, no Node-only modules). Browser-safe parts (import them
+ * directly for the client): units.ts, correction.ts, compare.ts, curve.ts, errors.ts. The Node-only
+ * streaming reader `analyzeFile` lives in server/lib/run-files/; the command-line helpers in
+ * server/cli/cli-support.ts.
  */
 export { AnalysisError, type AnalysisErrorCode, isAnalysisError } from './errors.js';
 export * from './units.js';
@@ -29,4 +31,3 @@ export {
   DEFAULT_SMOOTH,
   analyzeBuffer,
 } from './analyze.js';
-export { analyzeFile } from './analyze-file.js';

@@ -2,21 +2,22 @@
  * `npm run --silent analyze -- [--json] [options] FILE...` — analyses run files.
  * JSON: an array with one object per file (shape fixed by issue 3); exit 1 when any file failed.
  */
-import { analyzeFile } from '../analysis/analyze-file.js';
+import { analyzeFile } from '../lib/run-files/index.js';
 import type { AnalysisResult } from '../analysis/analyze.js';
 import { AnalysisError } from '../analysis/errors.js';
-import { failureSummary, installCrashGuard, parseCliArgs, round, successSummary } from '../analysis/cli-support.js';
+import { failureSummary, installCrashGuard, parseCliArgs, round, successSummary } from './cli-support.js';
 
 const USAGE = `Usage: analyze [--json] [--curve] [--grid 50] [--smooth N] [--correction none|sae-j1349|sae-j1349-1990|iso-1585|din-70020|sae-j607]
                [--temp C] [--baro kPa] [--humidity %] [--map JSON] FILE...`;
 
-function tableLine(file: string, r: AnalysisResult): string {
+function tableLine(file: string, r: AnalysisResult, fileWidth: number): string {
   const check = r.identity.status === 'derived' ? 'derived' : `${r.identity.status} (max ${r.identity.maxDeviationPct.toFixed(1)} %)`;
   return [
-    file.padEnd(32),
+    file.padEnd(fileWidth),
     `${r.peakPower.hp.toFixed(1)} hp @ ${r.peakPower.rpm}`.padEnd(20),
     `${r.peakTorque.lbft.toFixed(1)} lb·ft @ ${r.peakTorque.rpm}`.padEnd(24),
     `${r.rpmRange[0]}–${r.rpmRange[1]}`.padEnd(12),
+    String(r.droppedPoints).padEnd(8),
     check.padEnd(20),
     `${r.correction.standard} ×${round(r.correction.factor, 4)}`,
   ].join(' ');
@@ -37,15 +38,16 @@ async function main(): Promise<number> {
   }
   const summaries: Record<string, unknown>[] = [];
   let failed = false;
+  const fileWidth = Math.max(32, ...args.files.map((f) => f.length));
   if (!args.json) {
-    process.stdout.write(`${'File'.padEnd(32)} ${'Peak power'.padEnd(20)} ${'Peak torque'.padEnd(24)} ${'rpm range'.padEnd(12)} ${'Cross-check'.padEnd(20)} Correction\n`);
+    process.stdout.write(`${'File'.padEnd(fileWidth)} ${'Peak power'.padEnd(20)} ${'Peak torque'.padEnd(24)} ${'rpm range'.padEnd(12)} ${'Dropped'.padEnd(8)} ${'Cross-check'.padEnd(20)} Correction\n`);
   }
   for (const file of args.files) {
     try {
       const r = await analyzeFile(file, args.options);
       summaries.push(successSummary(file, r, args.curve));
       if (!args.json) {
-        process.stdout.write(`${tableLine(file, r)}\n`);
+        process.stdout.write(`${tableLine(file, r, fileWidth)}\n`);
         for (const w of r.warnings) process.stdout.write(`    ! ${w.code}: ${w.message}\n`);
       }
     } catch (e) {
@@ -54,7 +56,7 @@ async function main(): Promise<number> {
       if (!args.json) {
         const err = e instanceof AnalysisError ? e : new AnalysisError('READ_FAILED', 'The file could not be read.');
         const where = err.line !== undefined ? ` (line ${err.line})` : '';
-        process.stdout.write(`${file.padEnd(32)} FAILED ${err.code}: ${err.message}${where}\n`);
+        process.stdout.write(`${file.padEnd(fileWidth)} FAILED ${err.code}: ${err.message}${where}\n`);
       }
     }
   }

@@ -3,10 +3,10 @@
  * summaries (the shapes are a public interface used by outside checks — change them only by
  * adding keys).
  */
-import type { AnalysisResult, AnalyzeOptions } from './analyze.js';
-import type { ColumnMapping } from './columns.js';
-import { isCorrectionStandard } from './correction.js';
-import { AnalysisError } from './errors.js';
+import type { AnalysisResult, AnalyzeOptions } from '../analysis/analyze.js';
+import type { ColumnMapping } from '../analysis/columns.js';
+import { isCorrectionStandard } from '../analysis/correction.js';
+import { AnalysisError } from '../analysis/errors.js';
 
 /** Parsed command line. */
 export interface CliArgs {
@@ -74,7 +74,10 @@ export function round(v: number, decimals: number): number {
   return Math.round(v * f) / f;
 }
 
-/** The `analyze --json` object for a successful file (issue 3 shape). */
+/**
+ * The `analyze --json` object for a successful file (issue 3 shape). `droppedPoints` counts the
+ * rows outside the kept sweep (lead-in, deceleration tail, blank rows).
+ */
 export function successSummary(file: string, r: AnalysisResult, withCurve = false): Record<string, unknown> {
   const summary: Record<string, unknown> = {
     file,
@@ -82,6 +85,7 @@ export function successSummary(file: string, r: AnalysisResult, withCurve = fals
     columns: r.columns,
     units: r.units,
     points: r.points,
+    droppedPoints: r.droppedPoints,
     rpmRange: r.rpmRange,
     peakPower: { hp: round(r.peakPower.hp, 2), rpm: r.peakPower.rpm },
     peakTorque: { lbft: round(r.peakTorque.lbft, 2), rpm: r.peakTorque.rpm },

@@ -4,12 +4,12 @@
  * compared over their common rpm range. JSON: before/after summaries plus ComparisonFigures
  * (without the point-wise delta).
  */
-import { analyzeFile } from '../analysis/analyze-file.js';
+import { analyzeFile } from '../lib/run-files/index.js';
 import type { AnalysisResult } from '../analysis/analyze.js';
 import { compareCurves } from '../analysis/compare.js';
 import { applyCorrection } from '../analysis/curve.js';
 import { AnalysisError } from '../analysis/errors.js';
-import { failureSummary, installCrashGuard, parseCliArgs, round, successSummary } from '../analysis/cli-support.js';
+import { failureSummary, installCrashGuard, parseCliArgs, round, successSummary } from './cli-support.js';
 
 const USAGE = `Usage: compare [--json] [--bands 1000] [--grid 50] [--smooth N] [--correction STD] [--temp C] [--baro kPa] [--humidity %] BEFORE AFTER`;
 
