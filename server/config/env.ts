@@ -1,3 +1,5 @@
+import os from 'node:os';
+import path from 'node:path';
 import { z } from 'zod';
 
 /**
@@ -39,6 +41,8 @@ const envSchema = z.object({
   UPLOAD_MAX_FILE_BYTES: z.coerce.number().int().positive().default(50 * 1024 * 1024),
   /** Most files in one upload request. */
   UPLOAD_MAX_FILES: z.coerce.number().int().positive().default(40),
+  /** Folder for uploaded files while a request is handled (created on demand, emptied after each request). */
+  UPLOAD_TMP_DIR: z.string().min(1).default(path.join(os.tmpdir(), 'pullbook-uploads')),
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
 });
 

@@ -123,7 +123,7 @@ export async function importFolder(deps: AppDeps, opts: { bikeId: string; stageN
     const files: IncomingFile[] = names.slice(i, i + size).map((name) => ({
       originalName: name,
       contentType: CONTENT_TYPES[path.extname(name).toLowerCase()] ?? 'application/octet-stream',
-      bytes: fs.readFileSync(path.join(opts.dir, name)),
+      path: path.join(opts.dir, name),
     }));
     const batch = await ingestFiles(deps.orm.em.fork(), deps, actor, { bikeId: bike.id, stageId: stage.id }, files);
     for (const r of batch) onResult(r);

@@ -4,12 +4,13 @@
  * transaction. A file that fails analysis is still stored and listed ("nothing is lost").
  */
 import { createHash } from 'node:crypto';
+import fs from 'node:fs';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { UniqueConstraintViolationException } from '@mikro-orm/core';
 import type { AppDeps } from '../../app-deps';
 import type { Actor } from '../../http/actor';
 import { AppError, conflict, notFound } from '../../lib/errors';
-import { OrphanObject } from '../../lib/storage/orphan-object.entity';
+import { discardObject } from '../../lib/storage/discard-object';
 import {
   AnalysisError,
   analyzeBuffer,
@@ -20,6 +21,7 @@ import {
   type ColumnMapping,
   type CorrectionStandard,
 } from '../../analysis/index';
+import { analyzeFile } from '../../lib/run-files/index';
 import type { UploadResult } from '@shared/schemas/run';
 import { Run, ColumnLayout, type RunStatus } from './run.entity';
 import { Bike } from '../bikes/bike.entity';
@@ -30,11 +32,15 @@ import { DynoSession } from '../sessions/dyno-session.entity';
 import { recordAudit } from '../audit/audit.service';
 import { RUN_POPULATE, toRunSummaries } from './run.service';
 
-export interface IncomingFile {
-  originalName: string;
-  contentType: string | null;
-  bytes: Buffer;
-}
+/**
+ * A file to ingest: either bytes in memory (demo archive, small callers) or a file on disk (the
+ * upload route's temporary files, the import command's folder). Files on disk are never read
+ * into memory whole: hashed and stored as streams, analysed with the streaming reader.
+ */
+export type IncomingFile = { originalName: string; contentType: string | null } & ({ bytes: Buffer; path?: undefined } | { path: string; bytes?: undefined });
+
+/** What the analysis reads: bytes in memory or a file on disk. */
+export type RunSource = Uint8Array | { path: string };
 
 export interface IngestTarget {
   bikeId: string;
@@ -46,6 +52,13 @@ export interface IngestTarget {
 const MAPPING_CODES = new Set(['NEEDS_MAPPING', 'NO_RPM_COLUMN', 'NO_POWER_OR_TORQUE']);
 
 export const sha256Hex = (bytes: Uint8Array) => createHash('sha256').update(bytes).digest('hex');
+
+/** SHA-256 of a file on disk, streamed (constant memory). */
+export async function sha256File(file: string): Promise<string> {
+  const hash = createHash('sha256');
+  for await (const chunk of fs.createReadStream(file)) hash.update(chunk as Buffer);
+  return hash.digest('hex');
+}
 export const rawKeyFor = (shopId: string, bikeId: string, sha256: string) => `shops/${shopId}/bikes/${bikeId}/${sha256}`;
 
 /** What one analysis attempt produced, ready to be written onto a Run. */
@@ -82,8 +95,11 @@ function errorOf(e: unknown): { code: string; message: string; details?: unknown
  * One pass of the engine, uncorrected; the correction is applied here afterwards, so a file with
  * no known conditions (no session, nothing in its preamble) is read once, not twice.
  */
-function analyseOnce(bytes: Uint8Array, correction: CorrectionStandard, conditions: AnalyzeOptions['conditions'], mapping: ColumnMapping | null): AnalysisResult {
-  const result = analyzeBuffer(bytes, { correction: 'none', conditions, ...(mapping ? { mapping } : {}) });
+async function analyseOnce(source: RunSource, correction: CorrectionStandard, conditions: AnalyzeOptions['conditions'], mapping: ColumnMapping | null): Promise<AnalysisResult> {
+  const options: AnalyzeOptions = { correction: 'none', conditions, ...(mapping ? { mapping } : {}) };
+  // analyzeFile streams the file (memory bounded by the used columns, not the file) and gives
+  // the same result as analyzeBuffer (tests/unit/analysis/stream.test.ts checks that).
+  const result = source instanceof Uint8Array ? analyzeBuffer(source, options) : await analyzeFile(source.path, options);
   if (correction === 'none') return result;
   let factor: number;
   try {
@@ -106,19 +122,19 @@ function analyseOnce(bytes: Uint8Array, correction: CorrectionStandard, conditio
 }
 
 /**
- * Analyse bytes. Mapping precedence: the explicit one, then a saved column layout whose header
- * signature matches, then automatic recognition.
+ * Analyse a run file (bytes or a file on disk). Mapping precedence: the explicit one, then a saved
+ * column layout whose header signature matches, then automatic recognition.
  */
-export function analyseRunBytes(
-  bytes: Uint8Array,
+export async function analyseRun(
+  source: RunSource,
   ctx: { correction: CorrectionStandard; conditions: AnalyzeOptions['conditions'] },
   layouts: Map<string, ColumnMapping>,
   explicit: ColumnMapping | null = null,
-): AnalysisOutcome {
+): Promise<AnalysisOutcome> {
   const base = { correction: ctx.correction, conditions: { ...(ctx.conditions ?? {}) } };
-  const attempt = (mapping: ColumnMapping | null): AnalysisOutcome => {
+  const attempt = async (mapping: ColumnMapping | null): Promise<AnalysisOutcome> => {
     try {
-      const result = analyseOnce(bytes, ctx.correction, ctx.conditions, mapping);
+      const result = await analyseOnce(source, ctx.correction, ctx.conditions, mapping);
       return { ...base, status: 'ready', result, error: null, mapping, headerSignature: result.headerSignature, correction: result.correction.standard, conditions: result.conditions };
     } catch (e) {
       const error = errorOf(e);
@@ -128,10 +144,10 @@ export function analyseRunBytes(
     }
   };
   if (explicit) return attempt(explicit);
-  const first = attempt(null);
+  const first = await attempt(null);
   const saved = first.headerSignature ? layouts.get(first.headerSignature) : undefined;
   if (!saved) return first;
-  const withLayout = attempt(saved);
+  const withLayout = await attempt(saved);
   // A saved layout that no longer fits this file must not hide a good automatic reading.
   return withLayout.status === 'ready' || first.status !== 'ready' ? withLayout : first;
 }
@@ -163,24 +179,6 @@ export function applyOutcome(run: Run, o: AnalysisOutcome) {
 export async function shopLayouts(em: EntityManager, shopId: string): Promise<Map<string, ColumnMapping>> {
   const rows = await em.find(ColumnLayout, { shop: shopId });
   return new Map(rows.map((l) => [l.headerSignature, l.mapping as ColumnMapping]));
-}
-
-/** Remove an object whose row never committed; if that fails too, leave a note for the start-up pass. */
-export async function discardObject(deps: AppDeps, key: string, reason: string): Promise<'deleted' | 'recorded' | 'lost'> {
-  try {
-    await deps.storage.delete(key);
-    return 'deleted';
-  } catch {
-    try {
-      const em = deps.orm.em.fork();
-      em.create(OrphanObject, { key, reason } as OrphanObject);
-      await em.flush();
-      return 'recorded';
-    } catch (err) {
-      console.error(`[pullbook] could not remove or record orphan object ${key}:`, err);
-      return 'lost';
-    }
-  }
 }
 
 /** Loads and checks the upload target: bike of the shop, session of that bike (safety confirmed), stage of that bike. */
@@ -233,7 +231,9 @@ export async function ingestFiles(em: EntityManager, deps: AppDeps, actor: Actor
   }
   const ctx = analysisContext(session, bike.shop);
   const layouts = await shopLayouts(em, actor.shopId);
-  const hashes = files.map((f) => sha256Hex(f.bytes));
+  // One pass over each file (streamed from disk for temporary files), for the duplicate check.
+  const hashes: string[] = [];
+  for (const f of files) hashes.push(f.path !== undefined ? await sha256File(f.path) : sha256Hex(f.bytes));
   const existing = await em.find(Run, { bike: bike.id, rawSha256: { $in: [...new Set(hashes)] } }, { fields: ['id', 'rawSha256', 'deletedAt'] });
   const known = new Map(existing.map((r) => [r.rawSha256, r.id]));
 
@@ -249,15 +249,23 @@ export async function ingestFiles(em: EntityManager, deps: AppDeps, actor: Actor
       continue;
     }
     const key = rawKeyFor(actor.shopId, bike.id, sha);
+    let size: number;
     try {
-      await deps.storage.put(key, f.bytes, { contentType: f.contentType ?? 'application/octet-stream' });
+      // A file on disk goes up as a stream (lib-storage's Upload, multipart above its part size).
+      size = f.path !== undefined ? (await fs.promises.stat(f.path)).size : f.bytes.length;
+      const body = f.path !== undefined ? fs.createReadStream(f.path) : f.bytes;
+      try {
+        await deps.storage.put(key, body, { contentType: f.contentType ?? 'application/octet-stream' });
+      } finally {
+        if (body instanceof fs.ReadStream) body.destroy(); // a failed put may leave it open
+      }
     } catch (err) {
       if (stored === 0) throw err; // nothing written yet: the whole request answers 503
       const e = err instanceof AppError ? err : new AppError('STORAGE_UNAVAILABLE', 'File storage failed', 503);
       pending.push({ kind: 'done', result: resultOfError(f.originalName, { code: e.code, message: e.message }) });
       continue;
     }
-    const outcome = analyseRunBytes(f.bytes, ctx, layouts);
+    const outcome = await analyseRun(f.path !== undefined ? { path: f.path } : f.bytes, ctx, layouts);
     try {
       const runId = await em.transactional(async (tem) => {
         const run = tem.create(Run, {
@@ -268,7 +276,7 @@ export async function ingestFiles(em: EntityManager, deps: AppDeps, actor: Actor
           sequence: await nextSequence(tem, bike.id, session?.id ?? null),
           rawKey: key,
           rawSha256: sha,
-          rawSizeBytes: f.bytes.length,
+          rawSizeBytes: size,
           originalName: f.originalName,
           contentType: f.contentType,
           uploadedBy: tem.getReference(User, actor.id),
@@ -350,7 +358,7 @@ export async function reanalyseRun(em: EntityManager, deps: AppDeps, run: Run, o
   const layouts = await shopLayouts(em, run.shop.id);
   const ctx = analysisContext(run.session, run.shop);
   const explicit = opts.mapping !== undefined ? opts.mapping : ((run.mapping as ColumnMapping | null) ?? null);
-  const outcome = analyseRunBytes(bytes, ctx, layouts, explicit);
+  const outcome = await analyseRun(bytes, ctx, layouts, explicit);
   const before = snapshot(run);
   const probe = new Run();
   applyOutcome(probe, outcome);

@@ -4,7 +4,7 @@ import type { AppDeps } from '../../app-deps';
 import { STAFF, WORKSHOP } from '@shared/roles';
 import { idParams, uuid } from '@shared/schemas/common';
 import { applyMappingInput, runListQuery, runUpdateInput, type UploadResponse } from '@shared/schemas/run';
-import { runFilesUpload, uploadedFiles } from '../../middleware/upload';
+import { removeUploadedFiles, runFilesUpload, uploadedFiles } from '../../middleware/upload';
 import { deleteLayout, deleteRun, listLayouts, listRuns, restoreRun, runDetail, updateRun } from './run.service';
 import { ingestFiles } from './run-ingest';
 import { applyMapping, rawFile, reprocessRunById, runPreview } from './run-actions';
@@ -36,8 +36,13 @@ export function runRoutes(deps: AppDeps): ApiRouter[] {
     body: uploadFields,
     status: 201,
     handler: async ({ em, actor, body, req, deps: d }): Promise<UploadResponse> => {
-      const files = uploadedFiles(req).map((f) => ({ originalName: f.originalname, contentType: f.mimetype || null, bytes: f.buffer }));
-      return { results: await ingestFiles(em, d, actor, body, files) };
+      try {
+        // Temporary files on disk (multer disk storage): read one at a time, never all in memory.
+        const files = uploadedFiles(req).map((f) => ({ originalName: f.originalname, contentType: f.mimetype || null, path: f.path }));
+        return { results: await ingestFiles(em, d, actor, body, files) };
+      } finally {
+        await removeUploadedFiles(req);
+      }
     },
   });
   api.route({ method: 'get', path: '/', access: 'signed-in', summary: 'Runs the caller may see (filter, sort, page)', query: runListQuery, handler: ({ em, actor, query, req }) => {
