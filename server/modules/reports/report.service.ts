@@ -20,6 +20,7 @@ import { Stage, Part } from '../stages/stage.entity';
 import { Dyno } from '../dynos/dyno.entity';
 import { User } from '../users/user.entity';
 import { recordAudit } from '../audit/audit.service';
+import { discardObject } from '../../lib/storage/discard-object';
 import { Report, ReportDelivery, ShareLink } from './report.entity';
 import type { ReportData, ReportStage } from './report-data';
 import { renderReportPdf } from './pdf/render';
@@ -220,6 +221,7 @@ async function nextNumber(em: EntityManager, shopId: string, year: number): Prom
 export async function createReport(deps: AppDeps, em: EntityManager, actor: Actor, input: { comparisonId: string; technicianNote?: string | null }) {
   const comparison = await em.findOne(Comparison, { id: input.comparisonId, shop: actor.shopId });
   if (!comparison) throw notFound('Comparison');
+  let storedKey: string | null = null; // set once the PDF is in storage
   return em.transactional(async (tx) => {
     // One report number at a time per shop, so numbers and versions never collide.
     await tx.getConnection().execute('select pg_advisory_xact_lock(hashtext(?))', [`report-number:${actor.shopId}`], 'all', tx.getTransactionContext());
@@ -236,6 +238,7 @@ export async function createReport(deps: AppDeps, em: EntityManager, actor: Acto
     if (await deps.storage.exists(key)) throw new AppError('REPORT_VERSION_EXISTS', 'This report version is already stored; try again', 409);
     const hash = sha256(pdf);
     await deps.storage.put(key, pdf, { contentType: 'application/pdf', metadata: { sha256: hash } });
+    storedKey = key;
     const report = tx.create(Report, {
       shop: tx.getReference(Shop, actor.shopId),
       bike,
@@ -253,6 +256,13 @@ export async function createReport(deps: AppDeps, em: EntityManager, actor: Acto
     await tx.flush();
     await recordAudit(tx, actor, 'report.create', 'report', report.id, { number, version, comparisonId: comparison.id });
     return { id: report.id, number, version, pdfUrl: `/api/reports/${report.id}/pdf`, pdfSha256: hash };
+  }).catch(async (err: unknown) => {
+    // The row did not commit after the PDF was stored: remove the object (or record it for the start-up pass).
+    if (storedKey) {
+      const why = (err instanceof Error ? err.message : String(err)).split(' - ').pop()!.slice(0, 300);
+      await discardObject(deps, storedKey, `report row for ${storedKey} did not commit: ${why}`);
+    }
+    throw err;
   });
 }
 

@@ -1,12 +1,15 @@
 /**
- * Start-up reconciliation: objects written to storage whose run row never committed (and whose
- * immediate removal failed) are listed in orphan_object; remove them now. An object that a run
- * row does reference (the same file uploaded again since) is kept.
+ * Start-up reconciliation: objects written to storage whose row never committed (a run's raw
+ * file, a report's PDF; see lib/storage/discard-object.ts) and whose immediate removal failed are
+ * listed in orphan_object; remove them now. An object that a row does reference — a run's raw
+ * key (the same file uploaded again since), a report's PDF key or a shop's logo key — is kept.
  */
 import type { AppDeps } from '../../app-deps';
 import { registerStartupTask } from '../../startup';
 import { OrphanObject } from '../../lib/storage/orphan-object.entity';
 import { Run } from './run.entity';
+import { Report } from '../reports/report.entity';
+import { Shop } from '../shops/shop.entity';
 
 export async function reconcileOrphanObjects(deps: AppDeps, opts: { limit?: number } = {}): Promise<{ removed: number; kept: number; failed: number }> {
   const em = deps.orm.em.fork();
@@ -14,7 +17,8 @@ export async function reconcileOrphanObjects(deps: AppDeps, opts: { limit?: numb
   const out = { removed: 0, kept: 0, failed: 0 };
   for (const o of orphans) {
     try {
-      if ((await em.count(Run, { rawKey: o.key })) > 0) out.kept++;
+      const referenced = (await em.count(Run, { rawKey: o.key })) > 0 || (await em.count(Report, { pdfKey: o.key })) > 0 || (await em.count(Shop, { logoKey: o.key })) > 0;
+      if (referenced) out.kept++;
       else {
         await deps.storage.delete(o.key);
         out.removed++;
@@ -32,6 +36,6 @@ registerStartupTask({
   name: 'orphan objects',
   async run(deps) {
     const r = await reconcileOrphanObjects(deps);
-    if (r.removed || r.kept || r.failed) return `removed ${r.removed}, kept ${r.kept} (referenced by a run), ${r.failed} left for the next start`;
+    if (r.removed || r.kept || r.failed) return `removed ${r.removed}, kept ${r.kept} (still referenced), ${r.failed} left for the next start`;
   },
 });
