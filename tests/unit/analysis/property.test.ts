@@ -3,23 +3,45 @@ import fc from 'fast-check';
 import { AnalysisError, analyzeBuffer } from '@server/analysis/index';
 import { type RunFileFormat, syntheticRunFile } from '../../support/synthetic-runs';
 
+/**
+ * "Within bounded time" (the engine's contract for any input): every property stops generating
+ * new inputs after RUN_LIMIT_MS (fast-check interruptAfterTimeLimit), and each single input must
+ * be answered within PER_INPUT_LIMIT_MS. Both are generous bounds that catch a runaway loop or
+ * a pathological input (the inputs are at most a few KB); they are not speed targets, which live
+ * in `npm run bench`.
+ */
+const RUN_LIMIT_MS = 20_000;
+const PER_INPUT_LIMIT_MS = 5_000;
+const bounded = { plugins: [fc.interruptAfterTimeLimit(RUN_LIMIT_MS)] };
+
+/** Runs `fn` and fails the property when one input takes longer than PER_INPUT_LIMIT_MS. */
+function withinBound(fn: () => boolean): boolean {
+  const t0 = performance.now();
+  const ok = fn();
+  const ms = performance.now() - t0;
+  if (ms > PER_INPUT_LIMIT_MS) throw new Error(`one input took ${Math.round(ms)} ms (bound ${PER_INPUT_LIMIT_MS} ms)`);
+  return ok;
+}
+
 function resultOrTypedError(bytes: Uint8Array): boolean {
-  try {
-    const r = analyzeBuffer(bytes);
-    return r.ok === true && Number.isFinite(r.peakPower.hp) && r.curve.rpm.length >= 5;
-  } catch (e) {
-    return e instanceof AnalysisError && typeof e.code === 'string' && e.message.length > 0;
-  }
+  return withinBound(() => {
+    try {
+      const r = analyzeBuffer(bytes);
+      return r.ok === true && Number.isFinite(r.peakPower.hp) && r.curve.rpm.length >= 5;
+    } catch (e) {
+      return e instanceof AnalysisError && typeof e.code === 'string' && e.message.length > 0;
+    }
+  });
 }
 
 describe('property: any input gives a result or a typed error', () => {
   it('arbitrary bytes', () => {
-    fc.assert(fc.property(fc.uint8Array({ maxLength: 4096 }), resultOrTypedError), { numRuns: 300 });
+    fc.assert(fc.property(fc.uint8Array({ maxLength: 4096 }), resultOrTypedError), { numRuns: 300, ...bounded });
   });
 
   it('arbitrary text made of table-like characters', () => {
     const chars = fc.constantFrom(...'0123456789.,;|\t\n\r-" eE:abcRPMTorquePowerhpNm[]()'.split(''));
-    fc.assert(fc.property(fc.array(chars, { maxLength: 3000 }).map((a) => new TextEncoder().encode(a.join(''))), resultOrTypedError), { numRuns: 300 });
+    fc.assert(fc.property(fc.array(chars, { maxLength: 3000 }).map((a) => new TextEncoder().encode(a.join(''))), resultOrTypedError), { numRuns: 300, ...bounded });
   });
 
   it('corrupted real files (bytes flipped, truncated)', () => {
@@ -30,7 +52,7 @@ describe('property: any input gives a result or a typed error', () => {
         for (const [i, v] of edits) if (i < b.length) b[i] = v;
         return resultOrTypedError(b);
       }),
-      { numRuns: 200 },
+      { numRuns: 200, ...bounded },
     );
   });
 
@@ -49,10 +71,12 @@ describe('property: any input gives a result or a typed error', () => {
       fc.property(format, fc.integer({ min: 1, max: 10_000 }), (f, seed) => {
         const fmt = { ...f, decimalComma: f.delimiter !== ',' && f.decimalComma, conditions: { temperatureC: 21, baroKpa: 100 } } as RunFileFormat;
         const { run, bytes } = syntheticRunFile({ seed, torqueNoise: 0.05 }, fmt);
-        const r = analyzeBuffer(bytes);
-        return Math.abs(r.peakPower.hp / run.truth.peakPower.hp - 1) < 0.01 && r.identity.status === 'ok';
+        return withinBound(() => {
+          const r = analyzeBuffer(bytes);
+          return Math.abs(r.peakPower.hp / run.truth.peakPower.hp - 1) < 0.01 && r.identity.status === 'ok';
+        });
       }),
-      { numRuns: 60 },
+      { numRuns: 60, ...bounded },
     );
   });
 });
