@@ -12,7 +12,7 @@ import { fileURLToPath } from 'node:url';
 import { parse } from 'csv-parse/sync';
 import { build } from 'esbuild';
 import { analyzeBuffer } from '../server/analysis/analyze.js';
-import { largeRunFileChunks, syntheticRunFile } from '../tests/support/synthetic-runs.js';
+import { largeRunFileChunks, syntheticRunFile } from '../server/db/synthetic-runs.js';
 
 const DIR = join(tmpdir(), 'pullbook-bench');
 const CHILD_SOURCE = fileURLToPath(new URL('./analyze-child.ts', import.meta.url));

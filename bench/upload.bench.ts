@@ -18,7 +18,7 @@ import { Shop } from '../server/modules/shops/shop.entity';
 import { User } from '../server/modules/users/user.entity';
 import { Customer } from '../server/modules/customers/customer.entity';
 import { Bike } from '../server/modules/bikes/bike.entity';
-import { syntheticRunFile } from '../tests/support/synthetic-runs';
+import { syntheticRunFile } from '../server/db/synthetic-runs';
 
 const FILES = 20;
 const ROWS = 5_000;

@@ -6,7 +6,7 @@
  */
 import { writeFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { type RunFileFormat, type SyntheticRunOptions, syntheticRunFile } from '../../tests/support/synthetic-runs.js';
+import { type RunFileFormat, type SyntheticRunOptions, syntheticRunFile } from '../../server/db/synthetic-runs.js';
 
 const dir = fileURLToPath(new URL('../../sample-data/', import.meta.url));
 const run: SyntheticRunOptions = { sampleHz: 8, sweepRate: 500, leadInSeconds: 1.5, tailSeconds: 1, afrChannels: 2 };

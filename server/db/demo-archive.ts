@@ -12,7 +12,7 @@ import type { AppDeps } from '../app-deps';
 import type { Actor } from '../http/actor';
 import type { PartCategory, HeadWorkLevel } from '@shared/parts';
 import { extendDemo, type DemoIds } from './demo-seed';
-import { syntheticRunFile, type EngineModel } from '../../tests/support/synthetic-runs';
+import { syntheticRunFile, type EngineModel } from './synthetic-runs';
 import { Shop } from '../modules/shops/shop.entity';
 import { Bike } from '../modules/bikes/bike.entity';
 import { Dyno } from '../modules/dynos/dyno.entity';

@@ -4,7 +4,7 @@ import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type supertest from 'supertest';
 import { createTestApp, type TestApp, type TestShop } from '../support/test-app';
-import { modelPeaks, syntheticRunFile } from '../support/synthetic-runs';
+import { modelPeaks, syntheticRunFile } from '@server/db/synthetic-runs';
 import { SAFETY_CHECKS } from '@shared/schemas/run';
 import { Run } from '@server/modules/runs/run.entity';
 import { OrphanObject } from '@server/lib/storage/orphan-object.entity';

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type supertest from 'supertest';
 import { createTestApp, type TestApp, type TestShop } from '../support/test-app';
-import { DEFAULT_ENGINE, modelPeaks, syntheticRunFile } from '../support/synthetic-runs';
+import { DEFAULT_ENGINE, modelPeaks, syntheticRunFile } from '@server/db/synthetic-runs';
 import { Run } from '@server/modules/runs/run.entity';
 
 /** Build stages, parts and costs, reference runs and the derived gains. */

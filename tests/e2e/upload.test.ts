@@ -12,7 +12,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { chromium, type Page } from 'playwright-core';
 import { SAFETY_CHECKS } from '@shared/schemas/run';
 import { startBrowserHarness, type BrowserHarness } from '../support/browser';
-import { syntheticRunFile, type SyntheticRun } from '../support/synthetic-runs';
+import { syntheticRunFile, type SyntheticRun } from '@server/db/synthetic-runs';
 import type { TestShop } from '../support/test-app';
 
 // Invented session conditions. Dry air (0 % humidity) keeps the expected factor a closed form.

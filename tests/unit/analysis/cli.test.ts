@@ -6,7 +6,7 @@ import { join } from 'node:path';
 import { promisify } from 'node:util';
 import { analyzeBuffer } from '@server/analysis/index';
 import { successSummary } from '@server/cli/cli-support';
-import { syntheticRunFile } from '../../support/synthetic-runs';
+import { syntheticRunFile } from '@server/db/synthetic-runs';
 
 const run = promisify(execFile);
 const ROOT = join(import.meta.dirname, '..', '..', '..');

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { AnalysisError, type NormalizedCurve, applyCorrection, compareCurves, integrate, peaksOf, repeatability } from '@server/analysis/index';
 import { analyzeBuffer } from '@server/analysis/index';
-import { syntheticRunFile } from '../../support/synthetic-runs';
+import { syntheticRunFile } from '@server/db/synthetic-runs';
 
 /** A straight-line test curve: hp = a + b·rpm on a 50 rpm grid (values chosen by hand). */
 function line(from: number, to: number, a: number, b: number): NormalizedCurve {

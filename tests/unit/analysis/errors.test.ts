@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { AnalysisError, analyzeBuffer, type AnalyzeOptions } from '@server/analysis/index';
-import { syntheticRunFile } from '../../support/synthetic-runs';
+import { syntheticRunFile } from '@server/db/synthetic-runs';
 
 const enc = (s: string) => new TextEncoder().encode(s);
 const good = () => syntheticRunFile({ seed: 9 }, { columns: ['rpm', 'torque', 'power'] }).text;

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { HP_TORQUE_CONSTANT, analyzeBuffer, identityStats } from '@server/analysis/index';
-import { syntheticRunFile } from '../../support/synthetic-runs';
+import { syntheticRunFile } from '@server/db/synthetic-runs';
 
 const QUIET = { seed: 21, rpmNoise: 2, torqueNoise: 0.05 };
 const enc = (s: string) => new TextEncoder().encode(s);

@@ -1,7 +1,7 @@
 import { describe, it } from 'vitest';
 import fc from 'fast-check';
 import { AnalysisError, analyzeBuffer } from '@server/analysis/index';
-import { type RunFileFormat, syntheticRunFile } from '../../support/synthetic-runs';
+import { type RunFileFormat, syntheticRunFile } from '@server/db/synthetic-runs';
 
 /**
  * "Within bounded time" (the engine's contract for any input): every property stops generating

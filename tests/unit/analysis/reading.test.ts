@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { AnalysisError, analyzeBuffer, type AnalysisResult } from '@server/analysis/index';
-import { type RunFileFormat, modelPowerHp, modelTorqueLbft, syntheticRunFile } from '../../support/synthetic-runs';
+import { type RunFileFormat, modelPowerHp, modelTorqueLbft, syntheticRunFile } from '@server/db/synthetic-runs';
 
 const enc = (s: string) => new TextEncoder().encode(s);
 // Low noise so peak positions are defined by the model, not by noise.

@@ -4,7 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { AnalysisError, analyzeBuffer } from '@server/analysis/index';
 import { analyzeFile } from '@server/lib/run-files/index';
-import { largeRunFileChunks, syntheticRunFile } from '../../support/synthetic-runs';
+import { largeRunFileChunks, syntheticRunFile } from '@server/db/synthetic-runs';
 
 const dir = mkdtempSync(join(tmpdir(), 'pullbook-analysis-'));
 

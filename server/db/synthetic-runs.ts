@@ -5,10 +5,43 @@
  *
  * The engine model is invented (no real engine): torque is a smooth hump,
  *   T(rpm) = peakTorque · (1 − falloff · ((rpm − peakTorqueRpm) / 1000)²),
- * and power follows from hp = lb·ft × rpm / 5252.113. A run is a steady lead-in at the start
+ * and power follows from hp = lb·ft × rpm × 2π / 33 000. A run is a steady lead-in at the start
  * rpm, a linear sweep to the end rpm, and a throttle-off deceleration tail.
+ *
+ * The generator imports nothing from the analysis engine: its constants are written here from
+ * NIST SP 811 (2008 ed., Appendix B), so tests check the engine against an independent source.
  */
-import { HP_TORQUE_CONSTANT, type PowerUnit, type TorqueUnit, hpTo, lbftTo } from '../../server/analysis/units.js';
+
+/** Torque units the generator writes (same spelling as the reader's). */
+export type TorqueUnit = 'lbft' | 'nm' | 'kgfm';
+/** Power units the generator writes: mechanical hp (550 ft·lbf/s), kW, metric hp (PS). */
+export type PowerUnit = 'hp' | 'kw' | 'ps';
+
+/** NIST SP 811: 1 hp (550 ft·lbf/s) = 745.69987 W. */
+const W_PER_HP = 745.69987;
+/** NIST SP 811: 1 lbf·ft = 1.3558179 N·m. */
+const NM_PER_LBFT = 1.3558179;
+/** NIST SP 811: 1 PS (metric horsepower, 75 kgf·m/s) = 735.49875 W. */
+const W_PER_PS = 735.49875;
+/** NIST SP 811: 1 kgf·m = 9.80665 N·m (exact). */
+const NM_PER_KGFM = 9.80665;
+
+/** hp from lb·ft at an engine speed: 1 hp = 550 ft·lbf/s = 33 000 ft·lbf/min, one revolution = 2π rad. */
+function hpOf(lbft: number, rpm: number): number {
+  return (lbft * rpm * 2 * Math.PI) / 33_000;
+}
+/** A torque in lb·ft written in another unit. */
+function lbftTo(v: number, unit: TorqueUnit): number {
+  if (unit === 'nm') return v * NM_PER_LBFT;
+  if (unit === 'kgfm') return (v * NM_PER_LBFT) / NM_PER_KGFM;
+  return v;
+}
+/** A power in hp written in another unit. */
+function hpTo(v: number, unit: PowerUnit): number {
+  if (unit === 'kw') return (v * W_PER_HP) / 1000;
+  if (unit === 'ps') return (v * W_PER_HP) / W_PER_PS;
+  return v;
+}
 
 /** The invented engine: a torque hump. */
 export interface EngineModel {
@@ -28,7 +61,7 @@ export function modelTorqueLbft(engine: EngineModel, rpm: number): number {
 }
 /** Model power (hp) at an rpm. */
 export function modelPowerHp(engine: EngineModel, rpm: number): number {
-  return (modelTorqueLbft(engine, rpm) * rpm) / HP_TORQUE_CONSTANT;
+  return hpOf(modelTorqueLbft(engine, rpm), rpm);
 }
 
 /** Known answers of the model over an rpm range (peaks found by dense 0.5-rpm evaluation). */
@@ -170,7 +203,7 @@ export function* syntheticSamples(options: SyntheticRunOptions = {}): Generator<
       time: t,
       rpm: noisyRpm,
       torqueLbft: torque,
-      powerHp: (torque * noisyRpm) / HP_TORQUE_CONSTANT,
+      powerHp: hpOf(torque, noisyRpm),
       speedMph: noisyRpm / 46,
       afr,
       manifoldKpa: throttle ? 98 : 30,
