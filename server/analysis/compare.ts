@@ -30,7 +30,11 @@ export interface ComparisonFigures {
   bands: { from: number; to: number; averagePowerGainHp: number; averageTorqueGainLbft: number }[];
   /** Largest Δhp on the common grid. */
   largestGain: { rpm: number; hp: number };
-  /** Most negative Δhp on the common grid (hp ≥ 0 means the run did not lose anywhere). */
+  /**
+   * The rpm of the smallest change: the minimum Δhp on the common grid. When the run lost power
+   * somewhere, hp < 0 is the largest loss; hp > 0 means no loss anywhere (it is then the smallest
+   * gain, and hp = 0 means no change at that rpm). The shape `{rpm, hp}` is kept for API consumers.
+   */
   largestLoss: { rpm: number; hp: number };
   delta: { rpm: number[]; powerHp: number[]; torqueLbft: number[] };
 }

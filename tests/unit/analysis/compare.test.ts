@@ -32,7 +32,9 @@ describe('compareCurves', () => {
     // ∫(0.06·(20 + 0.012 r)) dr from 2500 to 5500 ÷ 3000 = 0.06·(20 + 0.012·4000) = 4.08 hp (hand calculation).
     expect(f.averagePowerGainHp).toBeCloseTo(4.08, 9);
     expect(f.largestGain.rpm).toBe(5500);
-    expect(f.largestLoss.hp).toBeGreaterThan(0);
+    // Gained everywhere: largestLoss is the smallest change, hp > 0 — here at the bottom of the
+    // range, 0.06·(20 + 0.012·2500) = 3 hp at 2500 rpm (hand calculation).
+    expect(f.largestLoss).toEqual({ rpm: 2500, hp: expect.closeTo(3, 9) });
   });
 
   it('uses the common range, aligns bands to whole multiples and clips them', () => {
