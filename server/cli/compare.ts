@@ -95,7 +95,9 @@ async function main(): Promise<number> {
     `Peak power:  ${sign(rest.peakPowerGain.hp)} hp (${sign(rest.peakPowerGain.pct)} %), peak moved ${sign(rest.peakPowerRpmShift, 0)} rpm`,
     `Peak torque: ${sign(rest.peakTorqueGain.lbft)} lb·ft (${sign(rest.peakTorqueGain.pct)} %), peak moved ${sign(rest.peakTorqueRpmShift, 0)} rpm`,
     `Area under the power curve: ${sign(rest.areaGainPct)} %; average ${sign(rest.averagePowerGainHp)} hp across the range`,
-    `Largest gain ${sign(rest.largestGain.hp)} hp at ${rest.largestGain.rpm} rpm; largest loss ${sign(rest.largestLoss.hp)} hp at ${rest.largestLoss.rpm} rpm`,
+    `Largest gain ${sign(rest.largestGain.hp)} hp at ${rest.largestGain.rpm} rpm; ${
+      rest.largestLoss.hp < 0 ? 'largest loss' : 'no loss anywhere, smallest change'
+    } ${sign(rest.largestLoss.hp)} hp at ${rest.largestLoss.rpm} rpm`,
     'By band:',
     ...rest.bands.map((b) => `  ${String(b.from).padStart(6)}–${String(b.to).padEnd(6)} ${sign(b.averagePowerGainHp).padStart(7)} hp ${sign(b.averageTorqueGainLbft).padStart(7)} lb·ft`),
   ];
