@@ -7,7 +7,7 @@
  */
 import type { EChartsOption, LineSeriesOption } from 'echarts';
 import { fontStack, palette } from '../../tailwind.config';
-import { formatNumber } from './format';
+import { formatNumber } from '@shared/format';
 
 /**
  * The Okabe–Ito qualitative palette, in its published order — eight colours that stay

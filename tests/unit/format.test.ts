@@ -19,7 +19,7 @@ import {
   formatRpmRange,
   formatTorque,
   toDate,
-} from '@/lib/format';
+} from '@shared/format';
 
 // Expected strings come from three places, named per case:
 //  - the product's voice examples in PRODUCT.md ("+6.1 hp at peak", "above 4,800 rpm");

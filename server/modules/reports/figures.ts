@@ -3,7 +3,7 @@
  * tests all format through these, so the printed text can be checked against the API's numbers.
  */
 import { NM_PER_LBFT, W_PER_HP } from '../../analysis/units';
-import { formatGain, formatMoney, formatNumber, formatPercentChange, formatRpm } from '../../../src/lib/format';
+import { formatGain, formatMoney, formatNumber, formatPercentChange, formatRpm } from '@shared/format';
 import type { UnitSystem } from '../shops/shop.entity';
 
 export interface UnitLabels {

@@ -6,7 +6,7 @@ import { fileKey, mergeFiles, type FileRejection } from './file-accept';
 import { Icon } from './Icon';
 import { IconButton } from './IconButton';
 import { errorTextClass, hintClass, labelClass } from './styles';
-import { formatCount, formatFileSize } from '@/lib/format';
+import { formatCount, formatFileSize } from '@shared/format';
 
 export interface DropZoneProps {
   /** Visible label, e.g. "Run files". */

@@ -2,7 +2,7 @@ import { useId } from 'react';
 import { cn } from './cn';
 import { Icon } from './Icon';
 import { IconButton } from './IconButton';
-import { formatNumber } from '@/lib/format';
+import { formatNumber } from '@shared/format';
 
 export interface PaginationProps {
   /** Current page, 0-based (as TanStack Table counts). */

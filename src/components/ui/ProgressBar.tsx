@@ -1,7 +1,7 @@
 import type { ReactNode } from 'react';
 import { useId } from 'react';
 import { cn } from './cn';
-import { formatNumber } from '@/lib/format';
+import { formatNumber } from '@shared/format';
 
 export interface ProgressBarProps {
   /** Visible label, e.g. "Uploading 12 files". Also the bar's accessible name. */

@@ -1,7 +1,7 @@
 import type { ReactNode } from 'react';
 import { cn } from './cn';
 import { Icon } from './Icon';
-import { formatNumber, MISSING } from '@/lib/format';
+import { formatNumber, MISSING } from '@shared/format';
 
 export interface StatDelta {
   /** Signed change, e.g. 6.1 for +6.1 hp. */

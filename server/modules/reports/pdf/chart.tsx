@@ -6,7 +6,7 @@
 import { G, Line, Polyline, Rect, Svg, Text } from '@react-pdf/renderer';
 import { LINE_DASHARRAY, LINE_STYLES, runColor } from '../../../../src/lib/chart-theme';
 import { palette } from '../../../../tailwind.config';
-import { formatNumber } from '../../../../src/lib/format';
+import { formatNumber } from '@shared/format';
 import type { UnitSystem } from '../../shops/shop.entity';
 import { powerIn, torqueIn, unitLabels } from '../figures';
 import type { ReportCurve, ReportRun } from '../report-data';

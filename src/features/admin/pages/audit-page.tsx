@@ -1,7 +1,7 @@
 import { useInfiniteQuery } from '@tanstack/react-query';
 import { createColumnHelper } from '@tanstack/react-table';
 import { Button, DataTable, ErrorState, PageHeader } from '@/components/ui';
-import { formatDateTime } from '@/lib/format';
+import { formatDateTime } from '@shared/format';
 import { adminQueries, type AuditEntry } from '../api/admin-queries';
 import { OwnerOnly } from '../components/owner-only';
 

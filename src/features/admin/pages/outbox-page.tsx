@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import { createColumnHelper } from '@tanstack/react-table';
 import { Button, Caution, DataTable, Dialog, ErrorState, LoadingState, PageHeader } from '@/components/ui';
-import { formatDateTime, formatFileSize } from '@/lib/format';
+import { formatDateTime, formatFileSize } from '@shared/format';
 import { adminQueries, outboxAttachmentUrl, type OutboxItem } from '../api/admin-queries';
 import { OwnerOnly } from '../components/owner-only';
 

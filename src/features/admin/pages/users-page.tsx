@@ -9,7 +9,7 @@ import { inviteUserInput } from '@shared/schemas/auth';
 import { ROLE_LABELS, STAFF, type Role } from '@shared/roles';
 import { Button, Card, ConfirmDialog, DataTable, ErrorState, FormError, PageHeader, SelectField, StatusBadge, TextField, useToast } from '@/components/ui';
 import { ApiError, applyFieldErrors } from '@/lib/api-client';
-import { formatDateTime } from '@/lib/format';
+import { formatDateTime } from '@shared/format';
 import { useCurrentUser } from '@/lib/auth';
 import { paths } from '@/config/paths';
 import { adminQueries, type UserDto } from '../api/admin-queries';

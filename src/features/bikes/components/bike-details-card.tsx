@@ -2,7 +2,7 @@ import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import type { BikeDto } from '@shared/schemas/bike';
 import { Card } from '@/components/ui';
-import { formatDate, formatNumber } from '@/lib/format';
+import { formatDate, formatNumber } from '@shared/format';
 import { paths } from '@/config/paths';
 import { formatCc, formatCubicInches } from './displacement';
 

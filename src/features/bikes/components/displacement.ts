@@ -1,5 +1,5 @@
 import { ccToCubicInches } from '@shared/displacement';
-import { formatNumber } from '@/lib/format';
+import { formatNumber } from '@shared/format';
 
 /** "1,640 cm³" — whole cm³, as engine makers quote it. */
 export const formatCc = (cc: number) => `${formatNumber(cc)} cm³`;

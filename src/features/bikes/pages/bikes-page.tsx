@@ -4,7 +4,7 @@ import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { createColumnHelper, type PaginationState, type SortingState } from '@tanstack/react-table';
 import type { BikeDto } from '@shared/schemas/bike';
 import { Button, DataTable, ErrorState, Icon, PageHeader, SearchInput, useDebouncedValue } from '@/components/ui';
-import { formatNumber } from '@/lib/format';
+import { formatNumber } from '@shared/format';
 import { hasRole, useCurrentUser } from '@/lib/auth';
 import { paths } from '@/config/paths';
 import { bikeQueries } from '../api/bike-queries';

@@ -4,7 +4,7 @@ import { STAFF } from '@shared/roles';
 import type { TimelineGain, TimelineStage } from '@shared/schemas/comparison';
 import { Badge, Card, ErrorState, LoadingState } from '@/components/ui';
 import { hasRole, useCurrentUser } from '@/lib/auth';
-import { formatMoney, formatNumber, formatRpm } from '@/lib/format';
+import { formatMoney, formatNumber, formatRpm } from '@shared/format';
 import { paths } from '@/config/paths';
 import { comparisonQueries } from '../api/comparison-queries';
 

@@ -4,7 +4,7 @@ import * as echarts from 'echarts';
 import type { EChartsOption, LineSeriesOption } from 'echarts';
 import type { ComparisonPreview } from '@shared/schemas/comparison';
 import { CHART_COLORS, LINE_DASHARRAY, baseChartOption, deltaSeries, runColor, runSeries, whenChartFontReady } from '@/lib/chart-theme';
-import { formatNumber } from '@/lib/format';
+import { formatNumber } from '@shared/format';
 import type { DisplayUnits } from '../lib/display';
 
 const escapeHtml = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);

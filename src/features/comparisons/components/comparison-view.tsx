@@ -3,7 +3,7 @@ import type { ComparisonPreview, ComparisonResult, ComparisonWarning } from '@sh
 import { Badge, Button, Card, Caution, SelectField, Stat, cn, useToast } from '@/components/ui';
 import { CORRECTION_STANDARDS } from '@server/analysis/correction';
 import { runColor } from '@/lib/chart-theme';
-import { formatNumber, formatRpm, formatRpmRange } from '@/lib/format';
+import { formatNumber, formatRpm, formatRpmRange } from '@shared/format';
 import { type ChartHandle, DifferenceChart, OverlayChart, chartPng, chartSvg } from './comparison-charts';
 import { curvesCsv, displayUnits, download, fileSlug } from '../lib/display';
 

@@ -1,7 +1,7 @@
 import { useQuery } from '@tanstack/react-query';
 import { MAX_COMPARISON_RUNS } from '@shared/schemas/comparison';
 import { Badge, Button, ErrorState, LoadingState, cn } from '@/components/ui';
-import { formatDate, formatNumber } from '@/lib/format';
+import { formatDate, formatNumber } from '@shared/format';
 import { comparisonQueries } from '../api/comparison-queries';
 
 export interface RunPickerProps {

@@ -5,7 +5,7 @@ import { STAFF, WORKSHOP } from '@shared/roles';
 import { Button, ConfirmDialog, EmptyState, ErrorState, Icon, LoadingState, PageHeader, useToast } from '@/components/ui';
 import { ApiError } from '@/lib/api-client';
 import { hasRole, useCurrentUser } from '@/lib/auth';
-import { formatDate } from '@/lib/format';
+import { formatDate } from '@shared/format';
 import { paths } from '@/config/paths';
 import { comparisonQueries } from '../api/comparison-queries';
 import { useDeleteComparison } from '../api/delete-comparison';

@@ -1,7 +1,7 @@
 import { useQuery } from '@tanstack/react-query';
 import { Link, useSearchParams } from 'react-router-dom';
 import { EmptyState, ErrorState, Icon, LoadingState, PageHeader } from '@/components/ui';
-import { formatDate } from '@/lib/format';
+import { formatDate } from '@shared/format';
 import { paths } from '@/config/paths';
 import { comparisonQueries } from '../api/comparison-queries';
 

@@ -5,7 +5,7 @@ import type { CustomerDto } from '@shared/schemas/customer';
 import { ccToCubicInches } from '@shared/displacement';
 import { Button, Card, ConfirmDialog, Dialog, EmptyState, ErrorState, Icon, LoadingState, PageHeader, StatusBadge, useToast } from '@/components/ui';
 import { ApiError } from '@/lib/api-client';
-import { formatDate, formatNumber } from '@/lib/format';
+import { formatDate, formatNumber } from '@shared/format';
 import { hasRole, useCurrentUser } from '@/lib/auth';
 import { paths } from '@/config/paths';
 import { customerQueries } from '../api/customer-queries';

@@ -4,7 +4,7 @@ import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { createColumnHelper, type PaginationState, type SortingState } from '@tanstack/react-table';
 import type { CustomerDto } from '@shared/schemas/customer';
 import { Button, DataTable, ErrorState, Icon, PageHeader, SearchInput, StatusBadge, useDebouncedValue } from '@/components/ui';
-import { formatDate, formatNumber } from '@/lib/format';
+import { formatDate, formatNumber } from '@shared/format';
 import { hasRole, useCurrentUser } from '@/lib/auth';
 import { paths } from '@/config/paths';
 import { customerQueries } from '../api/customer-queries';

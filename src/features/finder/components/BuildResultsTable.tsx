@@ -3,7 +3,7 @@ import { Link } from 'react-router-dom';
 import { createColumnHelper, type SortingState } from '@tanstack/react-table';
 import { DataTable } from '@/components/ui';
 import { paths } from '@/config/paths';
-import { formatDate, formatGain, formatMoney, formatNumber } from '@/lib/format';
+import { formatDate, formatGain, formatMoney, formatNumber } from '@shared/format';
 import type { BuildItemDto } from '../api/finder-queries';
 import { categoryLabel, formatDisplacement } from './format-build';
 

@@ -2,7 +2,7 @@ import { useQuery } from '@tanstack/react-query';
 import { Link } from 'react-router-dom';
 import { Card, EmptyState, ErrorState, LoadingState } from '@/components/ui';
 import { paths } from '@/config/paths';
-import { formatGain, formatMoney, formatNumber } from '@/lib/format';
+import { formatGain, formatMoney, formatNumber } from '@shared/format';
 import { finderQueries } from '../api/finder-queries';
 import { formatDisplacement } from './format-build';
 

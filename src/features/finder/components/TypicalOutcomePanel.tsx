@@ -2,7 +2,7 @@ import { useId, useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import { Caution, Card, ErrorState, LoadingState, SelectField } from '@/components/ui';
 import { HEAD_WORK_LEVELS, PART_CATEGORIES, type PartCategory } from '@shared/parts';
-import { formatCount, formatGain, formatMoney } from '@/lib/format';
+import { formatCount, formatGain, formatMoney } from '@shared/format';
 import { finderQueries, type TypicalOutcomeDto } from '../api/finder-queries';
 import { categoryLabel, headLabel } from './format-build';
 

@@ -1,6 +1,6 @@
 import { PART_CATEGORY_LABELS, HEAD_WORK_LABELS, type PartCategory, type HeadWorkLevel } from '@shared/parts';
 import { ccToCubicInches } from '@shared/displacement';
-import { formatNumber } from '@/lib/format';
+import { formatNumber } from '@shared/format';
 
 export const categoryLabel = (c: PartCategory) => PART_CATEGORY_LABELS[c] ?? c;
 export const headLabel = (l: HeadWorkLevel) => HEAD_WORK_LABELS[l] ?? l;

@@ -1,7 +1,7 @@
 import { useInfiniteQuery } from '@tanstack/react-query';
 import { useSearchParams } from 'react-router-dom';
 import { Button, EmptyState, ErrorState, LoadingState, PageHeader } from '@/components/ui';
-import { formatCount } from '@/lib/format';
+import { formatCount } from '@shared/format';
 import { finderQueries, type FinderFilters } from '../api/finder-queries';
 import { FinderFiltersForm } from '../components/FinderFiltersForm';
 import { BuildResultsTable, type BuildSort } from '../components/BuildResultsTable';

@@ -2,7 +2,7 @@ import { useQuery } from '@tanstack/react-query';
 import { Link } from 'react-router-dom';
 import { ccToCubicInches } from '@shared/displacement';
 import { EmptyState, ErrorState, Icon, LoadingState, PageHeader } from '@/components/ui';
-import { formatNumber } from '@/lib/format';
+import { formatNumber } from '@shared/format';
 import { useCurrentUser } from '@/lib/auth';
 import { paths } from '@/config/paths';
 import { homeQueries } from '../api/home-queries';

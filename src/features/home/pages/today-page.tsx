@@ -3,7 +3,7 @@ import { useQuery, type UseQueryResult } from '@tanstack/react-query';
 import { Link, useNavigate } from 'react-router-dom';
 import type { Page } from '@shared/schemas/common';
 import { Button, Card, EmptyState, ErrorState, Icon, LoadingState, PageHeader, SearchInput } from '@/components/ui';
-import { formatDate } from '@/lib/format';
+import { formatDate } from '@shared/format';
 import { hasRole, useCurrentUser } from '@/lib/auth';
 import { paths } from '@/config/paths';
 import { homeQueries } from '../api/home-queries';

@@ -3,7 +3,7 @@ import { Link } from 'react-router-dom';
 import { Card, EmptyState, ErrorState, LoadingState, buttonBaseClass, buttonSizeClass, buttonVariantClass, cn } from '@/components/ui';
 import { paths } from '@/config/paths';
 import { hasRole, useAuth } from '@/lib/auth';
-import { formatDate } from '@/lib/format';
+import { formatDate } from '@shared/format';
 import { reportQueries } from '../api/report-queries';
 
 const linkButton = cn(buttonBaseClass, buttonSizeClass.sm, buttonVariantClass.secondary);

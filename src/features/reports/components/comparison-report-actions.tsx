@@ -4,7 +4,7 @@ import { Link, useNavigate } from 'react-router-dom';
 import { Button, Card, FormError, TextAreaField, useToast } from '@/components/ui';
 import { paths } from '@/config/paths';
 import { hasRole, useAuth } from '@/lib/auth';
-import { formatDate } from '@/lib/format';
+import { formatDate } from '@shared/format';
 import { reportQueries } from '../api/report-queries';
 import { useCreateReport } from '../api/report-mutations';
 

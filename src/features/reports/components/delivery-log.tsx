@@ -1,6 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
 import { Badge, Card, EmptyState, ErrorState, LoadingState } from '@/components/ui';
-import { formatDateTime } from '@/lib/format';
+import { formatDateTime } from '@shared/format';
 import { reportQueries } from '../api/report-queries';
 
 /** Every attempt to e-mail this report (all versions), newest first. */

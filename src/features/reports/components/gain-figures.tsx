@@ -1,4 +1,4 @@
-import { formatRpm } from '@/lib/format';
+import { formatRpm } from '@shared/format';
 import type { ReportGainView, ReportRunView } from '../api/types';
 import { pctChange, powerGain, powerValue, torqueGain, torqueValue, type DisplayUnits } from '../lib/units';
 

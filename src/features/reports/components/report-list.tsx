@@ -1,7 +1,7 @@
 import { Link } from 'react-router-dom';
 import { Badge } from '@/components/ui';
 import { paths } from '@/config/paths';
-import { formatDate, formatFileSize } from '@/lib/format';
+import { formatDate, formatFileSize } from '@shared/format';
 import type { ReportSummary } from '../api/types';
 
 /** Report versions as a calm list: number, version, date, headline gain, PDF link. */

@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import { Badge, Button, Card, ConfirmDialog, EmptyState, ErrorState, LoadingState, SelectField, useToast } from '@/components/ui';
-import { formatCount, formatDate, formatDateTime } from '@/lib/format';
+import { formatCount, formatDate, formatDateTime } from '@shared/format';
 import { reportQueries } from '../api/report-queries';
 import { useCreateShare, useRevokeShare } from '../api/report-mutations';
 import type { ShareLinkView } from '../api/types';

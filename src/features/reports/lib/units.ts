@@ -1,4 +1,4 @@
-import { formatGain, formatNumber, formatPercentChange } from '@/lib/format';
+import { formatGain, formatNumber, formatPercentChange } from '@shared/format';
 import type { Units } from '../api/types';
 
 /** 1 hp = 745.6999 W and 1 lbf·ft = 1.355818 N·m (NIST SP 811), as the PDF uses. */

@@ -4,7 +4,7 @@ import { Link, useParams, useSearchParams } from 'react-router-dom';
 import { Button, Card, Caution, ErrorState, LoadingState, PageHeader, buttonBaseClass, buttonSizeClass, buttonVariantClass, cn } from '@/components/ui';
 import { paths } from '@/config/paths';
 import { hasRole, useAuth } from '@/lib/auth';
-import { formatDate, formatDateTime } from '@/lib/format';
+import { formatDate, formatDateTime } from '@shared/format';
 import { reportQueries } from '../api/report-queries';
 import { ReportChart } from '../components/report-chart';
 import { HeadlineFigures } from '../components/gain-figures';

@@ -2,7 +2,7 @@ import { useQuery } from '@tanstack/react-query';
 import { useParams } from 'react-router-dom';
 import { Caution, LoadingState, buttonBaseClass, buttonSizeClass, buttonVariantClass, cn } from '@/components/ui';
 import { ApiError } from '@/lib/api-client';
-import { formatDate, formatRpm } from '@/lib/format';
+import { formatDate, formatRpm } from '@shared/format';
 import { reportQueries } from '../api/report-queries';
 import { ReportChart } from '../components/report-chart';
 import { HeadlineFigures } from '../components/gain-figures';

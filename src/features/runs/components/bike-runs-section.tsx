@@ -4,7 +4,7 @@ import { createColumnHelper } from '@tanstack/react-table';
 import type { RunSummaryDto } from '@shared/schemas/run';
 import { STAFF, WORKSHOP } from '@shared/roles';
 import { Card, DataTable, ErrorState, Icon } from '@/components/ui';
-import { formatDate, formatDateTime, formatHp, formatRpm, formatTorque } from '@/lib/format';
+import { formatDate, formatDateTime, formatHp, formatRpm, formatTorque } from '@shared/format';
 import { useCurrentUser } from '@/lib/auth';
 import { paths } from '@/config/paths';
 import { runQueries } from '../api/run-queries';

@@ -5,7 +5,7 @@ import { HEAD_WORK_LABELS, PART_CATEGORY_LABELS } from '@shared/parts';
 import type { StageDto } from '@shared/schemas/run';
 import { WORKSHOP } from '@shared/roles';
 import { Badge, Button, Card, ConfirmDialog, EmptyState, ErrorState, Icon, LoadingState, StatusBadge, useToast } from '@/components/ui';
-import { formatCostPerHp, formatDate, formatGain, formatHp, formatMoney, formatPercentChange, formatRpm, formatTorque } from '@/lib/format';
+import { formatCostPerHp, formatDate, formatGain, formatHp, formatMoney, formatPercentChange, formatRpm, formatTorque } from '@shared/format';
 import { useCurrentUser } from '@/lib/auth';
 import { paths } from '@/config/paths';
 import { runQueries } from '../api/run-queries';

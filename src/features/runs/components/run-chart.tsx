@@ -2,7 +2,7 @@ import { useEffect, useMemo, useRef } from 'react';
 import ReactECharts from 'echarts-for-react';
 import type { EChartsOption, LineSeriesOption } from 'echarts';
 import { baseChartOption, runColor, runSeries, whenChartFontReady } from '@/lib/chart-theme';
-import { formatNumber } from '@/lib/format';
+import { formatNumber } from '@shared/format';
 import type { DisplayCurve } from '../lib/display-curve';
 
 function pairs(x: number[], y: number[]): [number, number][] {

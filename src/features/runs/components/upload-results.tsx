@@ -3,7 +3,7 @@ import { Link } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
 import type { RunSummaryDto, UploadResult } from '@shared/schemas/run';
 import { Button, Icon, ProgressBar, StatusBadge } from '@/components/ui';
-import { formatFileSize, formatHp, formatRpm, formatTorque } from '@/lib/format';
+import { formatFileSize, formatHp, formatRpm, formatTorque } from '@shared/format';
 import { paths } from '@/config/paths';
 import { runQueries } from '../api/run-queries';
 import type { UploadItem } from '../api/upload-runs';

@@ -4,7 +4,7 @@ import { useQuery } from '@tanstack/react-query';
 import { createColumnHelper, type PaginationState, type SortingState } from '@tanstack/react-table';
 import { RUN_STATUSES, type RunStatusId, type RunSummaryDto } from '@shared/schemas/run';
 import { Button, DataTable, ErrorState, Icon, PageHeader, SelectField, TextField } from '@/components/ui';
-import { formatDate, formatHp, formatRpm, formatTorque } from '@/lib/format';
+import { formatDate, formatHp, formatRpm, formatTorque } from '@shared/format';
 import { useCurrentUser } from '@/lib/auth';
 import { paths } from '@/config/paths';
 import { bikeLabel, lookupQueries, runQueries, type RunFilters } from '../api/run-queries';

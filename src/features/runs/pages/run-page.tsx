@@ -5,7 +5,7 @@ import { CORRECTION_IDS, type CorrectionId, type RunDetailDto } from '@shared/sc
 import { STAFF, WORKSHOP } from '@shared/roles';
 import { CORRECTION_STANDARDS } from '@server/analysis/correction';
 import { Badge, Button, Card, Caution, ConfirmDialog, ErrorState, Icon, LoadingState, PageHeader, SelectField, Stat, StatusBadge, useToast } from '@/components/ui';
-import { formatDateTime, formatFileSize, formatNumber, formatRpmRange, MISSING } from '@/lib/format';
+import { formatDateTime, formatFileSize, formatNumber, formatRpmRange, MISSING } from '@shared/format';
 import { useCurrentUser } from '@/lib/auth';
 import { ApiError } from '@/lib/api-client';
 import { paths } from '@/config/paths';

@@ -5,7 +5,7 @@ import { createColumnHelper } from '@tanstack/react-table';
 import type { RunSummaryDto, SessionDto, StageDto } from '@shared/schemas/run';
 import { WORKSHOP } from '@shared/roles';
 import { Button, Card, DataTable, ErrorState, Icon, LoadingState, PageHeader, StatusBadge, useToast } from '@/components/ui';
-import { formatDateTime, formatHp, formatNumber, formatRpm, formatTorque } from '@/lib/format';
+import { formatDateTime, formatHp, formatNumber, formatRpm, formatTorque } from '@shared/format';
 import { useCurrentUser } from '@/lib/auth';
 import { paths } from '@/config/paths';
 import { bikeLabel, lookupQueries, runQueries } from '../api/run-queries';

@@ -3,7 +3,7 @@ import { Link, useSearchParams } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
 import type { SessionDto } from '@shared/schemas/run';
 import { Button, Card, DropZone, ErrorState, Icon, LoadingState, PageHeader, SelectField, useToast } from '@/components/ui';
-import { formatCount, formatDateTime, formatNumber } from '@/lib/format';
+import { formatCount, formatDateTime, formatNumber } from '@shared/format';
 import { paths } from '@/config/paths';
 import { bikeLabel, lookupQueries } from '../api/run-queries';
 import { sessionQueries } from '../api/session-queries';
