@@ -5,7 +5,7 @@ import type { Actor } from '../../http/actor';
 import { AppError } from '../../lib/errors';
 import type { BuildSearchQuery } from './build.schemas';
 import type { BuildSearchPage } from '@shared/schemas/builds';
-import { BUILD_COLUMNS, FTS, Sql, cumulativeParts, escapeLike, toBuildItem, type BuildRow } from './build-sql';
+import { BUILD_INDEX_COLUMNS, Sql, escapeLike, toBuildItem, type BuildIndexRow } from './build-sql';
 
 /**
  * Build finder search. A "build" is one stage of one bike that has measured gains against that
@@ -23,15 +23,20 @@ import { BUILD_COLUMNS, FTS, Sql, cumulativeParts, escapeLike, toBuildItem, type
  *   a minimum ("mild-port" = mild port or better, by HEAD_WORK_LEVELS order) and implies
  *   cylinder-heads.
  * - partText: substring of a part description in the cumulative build.
- * - q: PostgreSQL full-text (websearch syntax, 'english' configuration) over the stage's name and
- *   description, the notes of the stage's runs, and the part descriptions of the cumulative build.
- * - tag: the stage has a (not deleted) run carrying every listed tag.
+ * - q: PostgreSQL full-text (websearch syntax, 'english' configuration) over one document per
+ *   build: the stage's name and description, the notes of the stage's (not deleted) runs, and the
+ *   part descriptions of the cumulative build — all words of q must be in that document, not
+ *   necessarily in the same note or part.
+ * - tag: every listed tag is on one of the stage's (not deleted) runs.
  * - from/to: stage date (or the day the stage was recorded when it has no date), inclusive.
  * - customerId: bikes of that customer.
  * Everything is scoped to the caller's shop.
  *
  * Sorting is always descending with the stage id as tie-breaker, and paging is keyset: the
  * cursor carries the last row's sort key and id.
+ *
+ * Everything reads build_index (one row per stage with the cumulative build; see
+ * Migration20261202001000), never the stage, part and run tables.
  */
 
 type Sort = BuildSearchPage['sort'];
@@ -60,93 +65,96 @@ function decodeCursor(raw: string, sort: Sort): Cursor {
 export function searchSql(actor: Actor, query: BuildSearchQuery): { sql: string; params: unknown[]; sort: Sort } {
   const sort: Sort = query.sort ?? (query.engine ? 'similarity' : 'gain');
   // Placeholders are positional: each part of the statement collects its own values, joined in text order.
-  const q = new Sql(); // WHERE of the found CTE
-  const cq = new Sql(); // the text CTEs
-  const sq = new Sql(); // the select list (score)
+  const cq = new Sql(); // the engine family CTE
+  const q = new Sql(); // WHERE
   const oq = new Sql(); // cursor and limit
-  const shop = actor.shopId;
-  const where: string[] = [`s.shop_id = ${q.p(shop)}`, `b.shop_id = ${q.p(shop)}`, `s.gain_peak_power_hp is not null`];
-  const ctes: string[] = [];
+  const where: string[] = [`bi.shop_id = ${q.p(actor.shopId)}`, `bi.gain_peak_power_hp is not null`];
 
-  const scoreExpr = query.engine ? `coalesce(word_similarity(${sq.p(query.engine)}, b.engine_family), 0)::float8` : `0::float8`;
-
-  if (query.engine) {
-    where.push(`(${q.p(query.engine)} <% b.engine_family or b.engine_family ilike ${q.p(`%${escapeLike(query.engine)}%`)})`);
-  }
-  if (query.make) where.push(`b.make ilike ${q.p(`%${escapeLike(query.make)}%`)}`);
-  if (query.model) where.push(`b.model ilike ${q.p(`%${escapeLike(query.model)}%`)}`);
+  // The fuzzy match is decided once per distinct engine family of the shop (build_family, trigram
+  // index), not once per build; the builds of the matching families are then found by btree.
+  const fam = query.engine
+    ? `with fam as materialized (
+        select f.engine_family, coalesce(word_similarity(${cq.p(query.engine)}, f.engine_family), 0)::float8 as score
+          from build_family f
+         where f.shop_id = ${cq.p(actor.shopId)} and (${cq.p(query.engine)} <% f.engine_family or f.engine_family ilike ${cq.p(`%${escapeLike(query.engine)}%`)}))`
+    : '';
+  const scoreExpr = query.engine ? 'fam.score' : '0::float8';
+  if (query.make) where.push(`bi.make ilike ${q.p(`%${escapeLike(query.make)}%`)}`);
+  if (query.model) where.push(`bi.model ilike ${q.p(`%${escapeLike(query.model)}%`)}`);
 
   const mins = [query.ccMin, query.ciMin !== undefined ? query.ciMin * CC_PER_CUBIC_INCH : undefined].filter((v): v is number => v !== undefined);
   const maxs = [query.ccMax, query.ciMax !== undefined ? query.ciMax * CC_PER_CUBIC_INCH : undefined].filter((v): v is number => v !== undefined);
-  if (mins.length) where.push(`b.displacement_cc >= ${q.p(Math.max(...mins))}`);
-  if (maxs.length) where.push(`b.displacement_cc <= ${q.p(Math.min(...maxs))}`);
-  if (query.cylinders !== undefined) where.push(`b.cylinders = ${q.p(query.cylinders)}`);
-  if (query.customerId) where.push(`b.customer_id = ${q.p(query.customerId)}`);
-  if (query.from) where.push(`coalesce(s.date, s.created_at::date) >= ${q.p(query.from)}::date`);
-  if (query.to) where.push(`coalesce(s.date, s.created_at::date) <= ${q.p(query.to)}::date`);
+  if (mins.length) where.push(`bi.displacement_cc >= ${q.p(Math.max(...mins))}`);
+  if (maxs.length) where.push(`bi.displacement_cc <= ${q.p(Math.min(...maxs))}`);
+  if (query.cylinders !== undefined) where.push(`bi.cylinders = ${q.p(query.cylinders)}`);
+  if (query.customerId) where.push(`bi.customer_id = ${q.p(query.customerId)}`);
+  if (query.from) where.push(`bi.stage_date >= ${q.p(query.from)}::date`);
+  if (query.to) where.push(`bi.stage_date <= ${q.p(query.to)}::date`);
 
-  const categories = new Set(query.parts);
+  // Cumulative categories: part_keys holds each category and 'category:level' for head work.
+  // Inside one family's id-ordered walk (below) the handful of categories are too common for the
+  // GIN index to pay, and the planner misjudges combined containment; `|| '{}'` keeps it to the walk.
+  const perFamily = !!query.engine && sort === 'similarity';
+  const partKeys = perFamily ? `(bi.part_keys || '{}'::text[])` : 'bi.part_keys';
+  const categories = new Set<string>(query.parts);
   if (query.headLevel) categories.add('cylinder-heads');
-  for (const category of categories) {
-    const categoryPh = q.p(category);
-    let extra = '';
-    if (category === 'cylinder-heads' && query.headLevel) {
-      const levels = HEAD_WORK_LEVELS.slice(HEAD_WORK_LEVELS.indexOf(query.headLevel));
-      extra = ` and p.head_work_level in (${q.list(levels)})`;
-    }
-    where.push(`exists (select 1 from stage ps join part p on p.stage_id = ps.id
-                         where ps.bike_id = s.bike_id and ps.position <= s.position and p.category = ${categoryPh}${extra})`);
+  if (categories.size) where.push(`${partKeys} @> array[${q.list([...categories])}]::text[]`);
+  if (query.headLevel) {
+    const levels = HEAD_WORK_LEVELS.slice(HEAD_WORK_LEVELS.indexOf(query.headLevel));
+    where.push(`${partKeys} && array[${q.list(levels.map((l) => `cylinder-heads:${l}`))}]::text[]`);
   }
-  if (query.partText) {
-    where.push(`exists (select 1 from stage ps join part p on p.stage_id = ps.id
-                         where ps.bike_id = s.bike_id and ps.position <= s.position and p.description ilike ${q.p(`%${escapeLike(query.partText)}%`)})`);
-  }
-  for (const tag of query.tag) {
-    where.push(`s.id in (select r.stage_id from run r where r.shop_id = ${q.p(shop)} and r.deleted_at is null and r.tags @> array[${q.p(tag)}]::text[])`);
-  }
-  if (query.q) {
-    // Materialized so each text match is one index scan over its table, not a per-row recheck.
-    // websearch_to_tsquery(regconfig, text) is immutable, so each copy folds to a constant the indexes can use.
-    const tsq = () => `websearch_to_tsquery('english', ${cq.p(query.q)})`;
-    ctes.push(`text_stage as materialized (
-        select ts.id as stage_id from stage ts where ts.shop_id = ${cq.p(shop)} and ${FTS.stage('ts')} @@ ${tsq()}
-        union
-        select r.stage_id from run r where r.shop_id = ${cq.p(shop)} and r.deleted_at is null and r.stage_id is not null and ${FTS.run('r')} @@ ${tsq()})`);
-    ctes.push(`text_part as materialized (
-        select ps.bike_id, min(ps.position) as position from part p join stage ps on ps.id = p.stage_id
-         where p.shop_id = ${cq.p(shop)} and ${FTS.part('p')} @@ ${tsq()} group by ps.bike_id)`);
-    where.push(`(s.id in (select stage_id from text_stage) or exists (select 1 from text_part tp where tp.bike_id = s.bike_id and tp.position <= s.position))`);
-  }
+  // parts_text has one description a line, so a substring never spans two parts.
+  if (query.partText) where.push(`bi.parts_text ilike ${q.p(`%${escapeLike(query.partText)}%`)}`);
+  if (query.tag.length) where.push(`bi.run_tags @> array[${q.list(query.tag)}]::text[]`);
+  // websearch_to_tsquery(regconfig, text) is immutable: it folds to a constant the GIN index can use.
+  if (query.q) where.push(`bi.search_tsv @@ websearch_to_tsquery('english', ${q.p(query.q)})`);
 
-  const keyExpr = sort === 'similarity' ? 'score' : sort === 'gain' ? 'gain_peak_power_hp' : 'stage_date';
-  const outer: string[] = [];
+  const keyExpr = sort === 'similarity' ? 'score' : sort === 'gain' ? 'bi.gain_peak_power_hp' : 'bi.stage_date';
   if (query.cursor) {
     const c = decodeCursor(query.cursor, sort);
-    const cast = sort === 'date' ? '::text' : '::float8';
-    outer.push(`(${keyExpr}, stage_id) < (${oq.p(c.k)}${cast}, ${oq.p(c.id)}::uuid)`);
+    const cast = sort === 'date' ? '::date' : '::float8';
+    const key = sort === 'similarity' ? scoreExpr : keyExpr;
+    where.push(`(${key}, bi.stage_id) < (${oq.p(c.k)}${cast}, ${oq.p(c.id)}::uuid)`);
   }
-  const limit = query.limit;
-  const sql = `with ${[...ctes, `found as (
-      select ${BUILD_COLUMNS}, ${scoreExpr} as score
-        from stage s join bike b on b.id = s.bike_id join customer c on c.id = b.customer_id
-       where ${where.join('\n         and ')})`].join(',\n')}
-    select * from found ${outer.length ? `where ${outer.join(' and ')}` : ''}
-     order by ${keyExpr} desc, stage_id desc
-     limit ${oq.p(limit + 1)}`;
-  return { sql, params: [...cq.params, ...sq.params, ...q.params, ...oq.params], sort };
+  const outerKey = sort === 'similarity' ? 'score' : sort === 'gain' ? 'gain_peak_power_hp' : 'stage_date';
+  const limit = oq.p(query.limit + 1);
+  let inner: string;
+  if (perFamily) {
+    // The score is one value per family, so the first page in (score, stage_id) order is among each
+    // matching family's first rows in stage_id order: read those by index, then merge.
+    const familyLimit = oq.p(query.limit + 1);
+    inner = `select x.* from fam cross join lateral (
+        select ${BUILD_INDEX_COLUMNS}, ${scoreExpr} as score
+          from build_index bi
+         where bi.engine_family = fam.engine_family
+           and ${where.join('\n           and ')}
+         order by bi.stage_id desc
+         limit ${familyLimit}) x
+     order by x.score desc, x.stage_id desc
+     limit ${limit}`;
+  } else {
+    inner = `select ${BUILD_INDEX_COLUMNS}, ${scoreExpr} as score
+      from build_index bi${query.engine ? ' join fam on fam.engine_family = bi.engine_family' : ''}
+     where ${where.join('\n       and ')}
+     order by ${keyExpr} desc, bi.stage_id desc
+     limit ${limit}`;
+  }
+  const sql = `${fam}
+  select f.*, c.name as customer_name from (${inner}) f
+    join customer c on c.id = f.customer_id
+   order by f.${outerKey} desc, f.stage_id desc`;
+  return { sql, params: [...cq.params, ...q.params, ...oq.params], sort };
 }
 
 export async function searchBuilds(em: EntityManager, actor: Actor, query: BuildSearchQuery): Promise<BuildSearchPage> {
   const { sql, params, sort } = searchSql(actor, query);
   const limit = query.limit;
-  const shop = actor.shopId;
-  const rows = (await em.getConnection().execute(sql, params)) as BuildRow[];
+  const rows = (await em.getConnection().execute(sql, params)) as BuildIndexRow[];
   const page = rows.slice(0, limit);
-  const parts = await cumulativeParts(em, shop, page.map((r) => r.stage_id));
   const last = page[page.length - 1];
   const next =
     rows.length > limit && last
       ? encodeCursor({ s: sort, k: sort === 'similarity' ? Number(last.score) : sort === 'gain' ? Number(last.gain_peak_power_hp) : last.stage_date, id: last.stage_id })
       : null;
-  return { items: page.map((r) => toBuildItem(r, parts.get(r.stage_id) ?? [])), next, sort };
+  return { items: page.map((r) => toBuildItem(r, r.parts)), next, sort };
 }

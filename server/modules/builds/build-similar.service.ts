@@ -3,7 +3,7 @@ import { PART_CATEGORY_LABELS, type PartCategory } from '@shared/parts';
 import type { Actor } from '../../http/actor';
 import { notFound } from '../../lib/errors';
 import type { SimilarBuildsDto } from '@shared/schemas/builds';
-import { BUILD_COLUMNS, Sql, cumulativeParts, toBuildItem, type BuildRow } from './build-sql';
+import { BUILD_INDEX_COLUMNS, Sql, toBuildItem, type BuildIndexRow } from './build-sql';
 
 /**
  * "Similar to this bike": other builds of the same shop ranked by a weighted similarity
@@ -34,7 +34,7 @@ export const SIMILAR_CANDIDATE_BIKES = 200;
 
 export const SIMILARITY_WEIGHTS = { engineFamily: 0.4, displacement: 0.3, partCategories: 0.2, partsText: 0.1 } as const;
 
-interface SimilarRow extends BuildRow {
+interface SimilarRow extends BuildIndexRow {
   e: number;
   d: number;
   c: number;
@@ -49,59 +49,80 @@ interface SimilarRow extends BuildRow {
 export async function similarBuilds(em: EntityManager, actor: Actor, bikeId: string, limit: number): Promise<SimilarBuildsDto> {
   const q = new Sql();
   const shop = actor.shopId;
-  const [me] = (await em.getConnection().execute(`select id from bike where id = ? and shop_id = ?`, [bikeId, shop])) as { id: string }[];
+  const conn = em.getConnection();
+  const [me] = (await conn.execute(`select id, engine_family, displacement_cc, cylinders from bike where id = ? and shop_id = ?`, [bikeId, shop])) as {
+    id: string; engine_family: string | null; displacement_cc: number | null; cylinders: number | null;
+  }[];
   if (!me) throw notFound('Bike');
   const w = SIMILARITY_WEIGHTS;
+  const fam = me.engine_family;
+  const cc = me.displacement_cc !== null && me.displacement_cc > 0 ? me.displacement_cc : null;
+  // Candidate bikes: indexed conditions only — the trigram `%` is decided once per engine family of
+  // the shop (build_family), the displacement range by btree. Each piece is a function so its
+  // placeholders are taken in text order.
+  const candidate = () => {
+    const c: string[] = [];
+    if (fam !== null) c.push('fam.engine_family is not null');
+    if (me.displacement_cc !== null) c.push(`b.displacement_cc between ${q.p(me.displacement_cc * 0.8)} and ${q.p(me.displacement_cc * 1.2)}`);
+    if (fam === null && me.displacement_cc === null) c.push('true');
+    return c.join(' or ');
+  };
+  const famCte = () =>
+    fam === null
+      ? `fam as (select null::varchar as engine_family, 0::float8 as e where false)`
+      : `fam as materialized (
+          select f.engine_family, similarity(f.engine_family, ${q.p(fam)})::float8 as e
+            from build_family f where f.shop_id = ${q.p(shop)} and f.engine_family % ${q.p(fam)})`;
+  const e = () => (fam === null ? '0' : `coalesce(fam.e, similarity(b.engine_family, ${q.p(fam)}), 0)`);
+  const d = () => (cc === null ? '0' : `case when b.displacement_cc is null then 0 else greatest(0, 1 - abs(b.displacement_cc - ${q.p(cc)}) / (0.2 * ${q.p(cc)})) end`);
+  const ccRel = () => (cc === null ? 'null' : `abs(b.displacement_cc - ${q.p(cc)}) / ${q.p(cc)}`);
+  const sameFamily = () => (fam === null ? 'false' : `(lower(b.engine_family) = lower(${q.p(fam)})) is true`);
+  const sameCyl = () => (me.cylinders === null ? 'false' : `(b.cylinders = ${q.p(me.cylinders)}) is true`);
+  // The part terms add at most partCategories + partsText; the text term (the costly one) is
+  // computed only for builds that can still reach the top \`limit\` once it is added.
   const sql = `
-    with me as (select id, engine_family, displacement_cc, cylinders from bike where id = ${q.p(bikeId)} and shop_id = ${q.p(shop)}),
-    my_parts as (
-      select coalesce(array_agg(distinct p.category), '{}') as cats, coalesce(string_agg(p.description, ' ' order by ps.position, p.description), '') as txt
-        from stage ps join part p on p.stage_id = ps.id where ps.bike_id = ${q.p(bikeId)} and ps.shop_id = ${q.p(shop)}),
-    all_bikes as (
-      select b.id,
-             coalesce(similarity(b.engine_family, me.engine_family), 0)::float8 as e,
-             case when b.displacement_cc is null or me.displacement_cc is null or me.displacement_cc <= 0 then 0
-                  else greatest(0, 1 - abs(b.displacement_cc - me.displacement_cc) / (0.2 * me.displacement_cc)) end::float8 as d,
-             case when b.displacement_cc is null or me.displacement_cc is null or me.displacement_cc <= 0 then null
-                  else abs(b.displacement_cc - me.displacement_cc) / me.displacement_cc end::float8 as cc_rel,
-             (lower(b.engine_family) = lower(me.engine_family)) is true as same_family,
-             (b.cylinders = me.cylinders) is true as same_cylinders
-        from bike b, me
-       where b.shop_id = ${q.p(shop)} and b.id <> me.id
-         and (b.engine_family % me.engine_family
-              or b.displacement_cc between me.displacement_cc * 0.8 and me.displacement_cc * 1.2
-              or (me.engine_family is null and me.displacement_cc is null))
-),
+    with mine as (
+      select coalesce((select categories from build_index where bike_id = ${q.p(me.id)} order by stage_position desc limit 1), '{}') as cats,
+             coalesce((select parts_text from build_index where bike_id = ${q.p(me.id)} order by stage_position desc limit 1), '') as txt),
+    ${famCte()},
+    bike_score as (
+      select b.id, ${e()}::float8 as e, ${d()}::float8 as d, ${ccRel()}::float8 as cc_rel, ${sameFamily()} as same_family, ${sameCyl()} as same_cylinders
+        from bike b left join fam on fam.engine_family = b.engine_family
+       where b.shop_id = ${q.p(shop)} and b.id <> ${q.p(me.id)} and (${candidate()})),
     cand_bike as (
-      select * from all_bikes order by ${w.engineFamily} * e + ${w.displacement} * d desc, id limit ${q.p(SIMILAR_CANDIDATE_BIKES)}),
-    cand as (
-      select ${BUILD_COLUMNS}, cb.e, cb.d, cb.cc_rel, cb.same_family, cb.same_cylinders, cum.cats, cum.txt
-        from cand_bike cb
-        join bike b on b.id = cb.id
-        join customer c on c.id = b.customer_id
-        join stage s on s.bike_id = cb.id and s.gain_peak_power_hp is not null
-        cross join lateral (
-          select coalesce(array_agg(distinct p.category), '{}') as cats, coalesce(string_agg(p.description, ' ' order by ps.position, p.description), '') as txt
-            from stage ps join part p on p.stage_id = ps.id
-           where ps.bike_id = s.bike_id and ps.position <= s.position) cum),
+      select * from bike_score order by ${w.engineFamily} * e + ${w.displacement} * d desc, id limit ${q.p(SIMILAR_CANDIDATE_BIKES)}),
+    cand as materialized (
+      select bi.stage_id, cb.e, cb.d, cb.cc_rel, cb.same_family, cb.same_cylinders, bi.parts_text,
+             array(select unnest(bi.categories) intersect select unnest(mine.cats) order by 1) as shared,
+             cardinality(bi.categories) + cardinality(mine.cats) as sizes
+        from cand_bike cb join build_index bi on bi.bike_id = cb.id and bi.gain_peak_power_hp is not null, mine),
+    jaccard as (
+      -- Both category lists are sets, so |A ∪ B| = |A| + |B| − |A ∩ B|.
+      select cand.*, coalesce(cardinality(shared)::float8 / nullif(sizes - cardinality(shared), 0), 0) as c from cand),
+    partial as materialized (
+      select jaccard.*, (${w.engineFamily} * e + ${w.displacement} * d + ${w.partCategories} * c)::float8 as part_score from jaccard),
+    cut as (
+      select part_score - ${w.partsText} - 1e-9 as floor from partial order by part_score desc offset ${q.p(limit - 1)} limit 1),
+    kept as (
+      select * from partial where part_score >= coalesce((select floor from cut), '-infinity'::float8)),
+    -- Builds often share a parts list word for word: one similarity per distinct text.
+    text_sim as materialized (
+      select k.parts_text, case when k.parts_text = '' or mine.txt = '' then 0 else similarity(k.parts_text, mine.txt) end::float8 as t
+        from (select distinct parts_text from kept) k, mine),
     scored as (
-      select cand.*,
-             array(select unnest(cand.cats) intersect select unnest(my_parts.cats) order by 1) as shared,
-             coalesce(cardinality(array(select unnest(cand.cats) intersect select unnest(my_parts.cats)))::float8
-                      / nullif(cardinality(array(select unnest(cand.cats) union select unnest(my_parts.cats))), 0), 0) as c,
-             case when cand.txt = '' or my_parts.txt = '' then 0 else similarity(cand.txt, my_parts.txt) end::float8 as t
-        from cand, my_parts)
-    select scored.*, (${w.engineFamily} * e + ${w.displacement} * d + ${w.partCategories} * c + ${w.partsText} * t)::float8 as similarity
-      from scored
-     order by similarity desc, stage_id desc
-     limit ${q.p(limit)}`;
-  const rows = (await em.getConnection().execute(sql, q.params)) as SimilarRow[];
-  const parts = await cumulativeParts(em, shop, rows.map((r) => r.stage_id));
+      select kept.*, text_sim.t from kept join text_sim on text_sim.parts_text = kept.parts_text),
+    top as (
+      select scored.*, (part_score + ${w.partsText} * t)::float8 as similarity from scored
+       order by similarity desc, stage_id desc limit ${q.p(limit)})
+    select ${BUILD_INDEX_COLUMNS}, c.name as customer_name, top.e, top.d, top.c, top.t, top.similarity, top.shared, top.same_family, top.same_cylinders, top.cc_rel
+      from top join build_index bi on bi.stage_id = top.stage_id join customer c on c.id = bi.customer_id
+     order by top.similarity desc, top.stage_id desc`;
+  const rows = (await conn.execute(sql, q.params)) as SimilarRow[];
   return {
     bikeId,
     weights: { ...w },
     items: rows.map((r) => ({
-      ...toBuildItem(r, parts.get(r.stage_id) ?? []),
+      ...toBuildItem(r, r.parts),
       score: r.similarity,
       similarity: r.similarity,
       components: { engineFamily: r.e, displacement: r.d, partCategories: r.c, partsText: r.t },

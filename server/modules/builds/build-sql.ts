@@ -1,5 +1,3 @@
-import type { EntityManager } from '@mikro-orm/postgresql';
-import type { HeadWorkLevel, PartCategory } from '@shared/parts';
 import type { BuildItemDto, BuildPartDto } from '@shared/schemas/builds';
 
 /** Collects bound values; `p(v)` returns the placeholder. Every user value goes through it. */
@@ -22,22 +20,14 @@ export class Sql {
 export const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
 
 /**
- * The full-text expressions, exactly as the expression indexes of Migration20261201235000 spell
- * them (an expression index is only used when the query repeats its expression).
+ * Columns every build row selects from build_index `bi` (Migration20261202001000): one row per
+ * stage with the bike's fields and the cumulative build, kept current by triggers.
  */
-export const FTS = {
-  part: (alias: string) => `to_tsvector('english', ${alias}.description)`,
-  stage: (alias: string) => `to_tsvector('english', ${alias}.name || ' ' || coalesce(${alias}.description, ''))`,
-  run: (alias: string) => `to_tsvector('english', coalesce(${alias}.note, ''))`,
-};
-
-/** Columns every build row selects (stage `s`, bike `b`, customer `c`). */
-export const BUILD_COLUMNS = `
-  s.id as stage_id, s.bike_id, s.name as stage_name, s.position as stage_position,
-  to_char(coalesce(s.date, s.created_at::date), 'YYYY-MM-DD') as stage_date,
-  s.gain_peak_power_hp, s.gain_peak_torque_lbft, s.gain_area_pct, s.gain_average_power_hp,
-  s.total_cost_cents, b.make, b.model, b.year, b.engine_family, b.displacement_cc, b.cylinders,
-  b.customer_id, c.name as customer_name`;
+export const BUILD_INDEX_COLUMNS = `
+  bi.stage_id, bi.bike_id, bi.stage_name, bi.stage_position, to_char(bi.stage_date, 'YYYY-MM-DD') as stage_date,
+  bi.gain_peak_power_hp, bi.gain_peak_torque_lbft, bi.gain_area_pct, bi.gain_average_power_hp,
+  bi.total_cost_cents, bi.make, bi.model, bi.year, bi.engine_family, bi.displacement_cc, bi.cylinders,
+  bi.customer_id, bi.parts`;
 
 export interface BuildRow {
   stage_id: string;
@@ -61,40 +51,9 @@ export interface BuildRow {
   score?: number;
 }
 
-interface PartRow {
-  build_stage_id: string;
-  category: PartCategory;
-  description: string;
-  head_work_level: HeadWorkLevel | null;
-  added_here: boolean;
-  cost_cents: number;
-}
-
-/** Cumulative parts (this stage and every earlier stage of the same bike) of each given stage. */
-export async function cumulativeParts(em: EntityManager, shopId: string, stageIds: string[]): Promise<Map<string, BuildPartDto[]>> {
-  const out = new Map<string, BuildPartDto[]>(stageIds.map((id) => [id, []]));
-  if (!stageIds.length) return out;
-  const q = new Sql();
-  const rows = (await em.getConnection().execute(
-    `select s.id as build_stage_id, p.category, p.description, p.head_work_level, (ps.id = s.id) as added_here,
-            (p.part_cost_cents + p.labour_cost_cents)::int as cost_cents
-       from stage s
-       join stage ps on ps.bike_id = s.bike_id and ps.position <= s.position
-       join part p on p.stage_id = ps.id
-      where s.shop_id = ${q.p(shopId)} and s.id in (${q.list(stageIds)})
-      order by ps.position, p.created_at, p.id`,
-    q.params,
-  )) as PartRow[];
-  for (const r of rows) {
-    out.get(r.build_stage_id)?.push({
-      category: r.category,
-      description: r.description,
-      headWorkLevel: r.head_work_level,
-      addedInThisStage: r.added_here,
-      costCents: r.cost_cents,
-    });
-  }
-  return out;
+/** A row of BUILD_INDEX_COLUMNS (plus the customer's name): the build with its cumulative parts. */
+export interface BuildIndexRow extends BuildRow {
+  parts: BuildPartDto[];
 }
 
 export function toBuildItem(r: BuildRow, parts: BuildPartDto[]): BuildItemDto {

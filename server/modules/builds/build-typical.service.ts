@@ -49,9 +49,9 @@ export async function typicalOutcome(em: EntityManager, actor: Actor, query: Typ
   // Placeholders are positional: the similarity conditions collect their own values (cond), placed in text order below.
   const cond = new Sql();
   const conditions: string[] = [];
-  if (me.engine_family) conditions.push(`similarity(b.engine_family, ${cond.p(me.engine_family)}) >= ${TYPICAL_FAMILY_SIMILARITY}`);
+  if (me.engine_family) conditions.push(`similarity(bi.engine_family, ${cond.p(me.engine_family)}) >= ${TYPICAL_FAMILY_SIMILARITY}`);
   if (me.displacement_cc) {
-    conditions.push(`b.displacement_cc between ${cond.p(me.displacement_cc * (1 - TYPICAL_DISPLACEMENT_TOLERANCE))} and ${cond.p(me.displacement_cc * (1 + TYPICAL_DISPLACEMENT_TOLERANCE))}`);
+    conditions.push(`bi.displacement_cc between ${cond.p(me.displacement_cc * (1 - TYPICAL_DISPLACEMENT_TOLERANCE))} and ${cond.p(me.displacement_cc * (1 + TYPICAL_DISPLACEMENT_TOLERANCE))}`);
   }
   const what = `${PART_CATEGORY_LABELS[query.category]}${level ? `: ${HEAD_WORK_LABELS[level]}` : ''}`;
   const criteria = [
@@ -61,29 +61,22 @@ export async function typicalOutcome(em: EntityManager, actor: Actor, query: Typ
 
   let builds: TypicalBuildDto[] = [];
   if (conditions.length) {
+    // build_index.own_part_keys: this stage's own categories, and 'category:level' for head work.
+    const key = level ? `${query.category}:${level}` : query.category;
     const sql = `
-      with sim as (
-        select b.id, b.make, b.model, b.engine_family, b.displacement_cc from bike b
-         where b.shop_id = ${q.p(shop)} and b.id <> ${q.p(me.id)} and ${q.embed(cond, conditions.join(' and '))}),
-      added as (
-        select distinct on (s.bike_id) s.id, s.bike_id, s.position, s.name,
-               to_char(coalesce(s.date, s.created_at::date), 'YYYY-MM-DD') as stage_date,
-               s.gain_peak_power_hp, s.gain_average_power_hp, s.total_cost_cents
-          from stage s join sim on sim.id = s.bike_id
-         where s.shop_id = ${q.p(shop)}
-           and exists (select 1 from part p where p.stage_id = s.id and p.category = ${q.p(query.category)}${level ? ` and p.head_work_level = ${q.p(level)}` : ''})
-         order by s.bike_id, s.position)
-      select a.id as stage_id, a.bike_id, a.name as stage_name, a.stage_date, a.total_cost_cents,
-             sim.make, sim.model, sim.engine_family, sim.displacement_cc,
-             (a.gain_peak_power_hp - coalesce(prev.gain_peak_power_hp, 0))::float8 as peak_inc,
-             (a.gain_average_power_hp - coalesce(prev.gain_average_power_hp, 0))::float8 as avg_inc
-        from added a join sim on sim.id = a.bike_id
-        left join lateral (
-          select ps.gain_peak_power_hp, ps.gain_average_power_hp from stage ps
-           where ps.bike_id = a.bike_id and ps.position < a.position and ps.gain_peak_power_hp is not null
-           order by ps.position desc limit 1) prev on true
+      with added as (
+        select distinct on (bi.bike_id) bi.*
+          from build_index bi
+         where bi.shop_id = ${q.p(shop)} and bi.bike_id <> ${q.p(me.id)} and ${q.embed(cond, conditions.join(' and '))}
+           and bi.own_part_keys @> array[${q.p(key)}]::text[]
+         order by bi.bike_id, bi.stage_position, bi.stage_id)
+      select a.stage_id, a.bike_id, a.stage_name, to_char(a.stage_date, 'YYYY-MM-DD') as stage_date, a.total_cost_cents,
+             a.make, a.model, a.engine_family, a.displacement_cc,
+             (a.gain_peak_power_hp - coalesce(a.prev_gain_peak_power_hp, 0))::float8 as peak_inc,
+             (a.gain_average_power_hp - coalesce(a.prev_gain_average_power_hp, 0))::float8 as avg_inc
+        from added a
        where a.gain_peak_power_hp is not null
-       order by peak_inc desc, a.id`;
+       order by peak_inc desc, a.stage_id`;
     const rows = (await em.getConnection().execute(sql, q.params)) as {
       stage_id: string; bike_id: string; stage_name: string; stage_date: string; total_cost_cents: number;
       make: string; model: string; engine_family: string | null; displacement_cc: number | null; peak_inc: number; avg_inc: number | null;
