@@ -78,3 +78,20 @@ export function useCurrentUser(): CurrentUser {
 export function hasRole(user: CurrentUser | null, roles: readonly Role[]) {
   return Boolean(user && roles.includes(user.role));
 }
+
+/**
+ * Renders its children only for the given roles; others get a plain "not for your role" page
+ * instead of a screen whose requests would all answer 403. Wrap a route's element with it.
+ */
+export function RequireRole({ roles, children }: { roles: readonly Role[]; children: ReactNode }) {
+  const { user } = useAuth();
+  if (!hasRole(user, roles)) {
+    return (
+      <div role="alert" className="mx-auto max-w-xl rounded-card border border-line bg-paper-raised p-6 text-ink">
+        <h1 className="text-xl font-semibold">Not available for your role</h1>
+        <p className="mt-2 text-ink-muted">This page is for shop staff. Use the navigation above to get back to your own pages.</p>
+      </div>
+    );
+  }
+  return <>{children}</>;
+}
