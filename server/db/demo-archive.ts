@@ -1,6 +1,6 @@
 /**
  * Demo archive (sessions, stages, parts and runs) added on top of the base demo data. Every
- * figure is invented: runs come from the invented engine model of tests/support/synthetic-runs.ts
+ * figure is invented: runs come from the invented engine model of server/db/synthetic-runs.ts
  * and from the files in sample-data/, and go through the same ingest pipeline as an upload, so
  * their raw files land in object storage.
  */

@@ -16,7 +16,7 @@ import os from 'node:os';
 
 /**
  * Run archive API against the real PostgreSQL and the S3 fake. Run files come from the invented
- * engine model of tests/support/synthetic-runs.ts (known answers) and from sample-data/.
+ * engine model of server/db/synthetic-runs.ts (known answers) and from sample-data/.
  */
 let t: TestApp;
 let a: TestShop;
