@@ -59,8 +59,9 @@ export function sharedPowerTorqueRange(
   const lo = Math.min(finiteOr(minPower, 0), finiteOr(minTorque, 0), 0);
   if (hi - lo <= 0) return { min: 0, max: 1 };
   const step = niceStep(hi - lo);
-  const min = Math.floor(lo / step) * step;
+  let min = Math.floor(lo / step) * step;
   let max = Math.ceil(hi / step) * step;
-  if (max === hi && hi > 0) max = hi; // already on a step: keep it, the curve touches the top
+  if (min > lo) min -= step; // floating-point rounding at the edges
+  if (max < hi) max += step;
   return { min: min === 0 ? 0 : min, max };
 }
