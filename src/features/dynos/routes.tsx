@@ -1,7 +1,18 @@
 import type { RouteObject } from 'react-router-dom';
+import { RequireRole } from '@/lib/auth';
 import { paths } from '@/config/paths';
 
-/** Settings → Dynos (owner manages; other staff may look). */
+/** Settings → Dynos: the owner's page (the session form reads the dyno list through the API). */
 export const dynoRoutes: RouteObject[] = [
-  { path: paths.dynos, lazy: () => import('./pages/dynos-page').then((m) => ({ Component: m.DynosPage })) },
+  {
+    path: paths.dynos,
+    lazy: () =>
+      import('./pages/dynos-page').then(({ DynosPage }) => ({
+        element: (
+          <RequireRole roles={['owner']}>
+            <DynosPage />
+          </RequireRole>
+        ),
+      })),
+  },
 ];

@@ -13,7 +13,6 @@ import { BikePicker } from '../components/bike-picker';
 import { SessionForm, CORRECTION_OPTIONS } from '../components/session-form';
 import { SafetyChecklist } from '../components/safety-checklist';
 import { UploadResults } from '../components/upload-results';
-import { RoleGate } from '../components/role-gate';
 
 const ACCEPT = ['.csv', '.txt', '.tsv', '.log', '.dat'];
 const MAX_BYTES = 50_000_000;
@@ -211,10 +210,7 @@ function UploadScreen() {
   );
 }
 
+/** The upload screen; the route admits only the tuner and the owner (RequireRole in routes.tsx). */
 export function UploadPage() {
-  return (
-    <RoleGate roles={['owner', 'tuner']} message="Only the tuner and the owner upload runs.">
-      <UploadScreen />
-    </RoleGate>
-  );
+  return <UploadScreen />;
 }
