@@ -4,8 +4,8 @@ import { useQuery } from '@tanstack/react-query';
 import { HEAD_WORK_LABELS, PART_CATEGORY_LABELS } from '@shared/parts';
 import type { StageDto } from '@shared/schemas/run';
 import { WORKSHOP } from '@shared/roles';
-import { Badge, Button, Card, ConfirmDialog, EmptyState, ErrorState, Icon, LoadingState, StatusBadge, useToast } from '@/components/ui';
-import { formatCostPerHp, formatDate, formatGain, formatHp, formatMoney, formatPercentChange, formatRpm, formatTorque } from '@shared/format';
+import { Button, Card, ConfirmDialog, EmptyState, ErrorState, Icon, LoadingState, useToast } from '@/components/ui';
+import { formatDate, formatHp, formatMoney, formatRpm, formatTorque } from '@shared/format';
 import { useCurrentUser } from '@/lib/auth';
 import { paths } from '@/config/paths';
 import { runQueries } from '../api/run-queries';
@@ -41,11 +41,10 @@ function StageItem({ stage, index, canEdit, onEdit, onDelete }: { stage: StageDt
           <div>
             <h3 className="text-lg font-semibold text-ink">{stage.name}</h3>
             <p className="num text-sm text-ink-muted">
-              {stage.date ? formatDate(stage.date) : 'No date'} · {stage.runCount} {stage.runCount === 1 ? 'run' : 'runs'}
+              {stage.date ? <time dateTime={stage.date}>{formatDate(stage.date)}</time> : 'No date'} · {stage.runCount} {stage.runCount === 1 ? 'run' : 'runs'}
             </p>
           </div>
           <div className="flex flex-wrap items-center gap-2">
-            {index === 0 && <Badge>Baseline for gains</Badge>}
             {canEdit && (
               <>
                 <Button size="sm" onClick={onEdit} aria-label={`Edit stage ${stage.name}`}>
@@ -59,33 +58,8 @@ function StageItem({ stage, index, canEdit, onEdit, onDelete }: { stage: StageDt
           </div>
         </div>
         {stage.description && <p className="mt-2 whitespace-pre-wrap text-ink">{stage.description}</p>}
-        {stage.gainPeakPowerHp !== null && (
-          <dl className="num mt-3 flex flex-wrap gap-x-6 gap-y-1">
-            <div>
-              <dt className="text-sm text-ink-muted">Peak power vs baseline</dt>
-              <dd className="text-lg font-semibold">{formatGain(stage.gainPeakPowerHp)}</dd>
-            </div>
-            {stage.gainAveragePowerHp !== null && (
-              <div>
-                <dt className="text-sm text-ink-muted">Average over the range</dt>
-                <dd className="text-lg font-semibold">{formatGain(stage.gainAveragePowerHp)}</dd>
-              </div>
-            )}
-            {stage.gainAreaPct !== null && (
-              <div>
-                <dt className="text-sm text-ink-muted">Area under the curve</dt>
-                <dd className="text-lg font-semibold">{formatPercentChange(stage.gainAreaPct / 100)}</dd>
-              </div>
-            )}
-            {cost > 0 && (
-              <div>
-                <dt className="text-sm text-ink-muted">Cost per peak hp</dt>
-                <dd className="text-lg font-semibold">{formatCostPerHp(cost / 100, stage.gainPeakPowerHp)}</dd>
-              </div>
-            )}
-          </dl>
-        )}
         {stage.referenceRunId ? <div className="mt-2"><ReferenceRun runId={stage.referenceRunId} /></div> : <p className="mt-2 text-sm text-ink-subtle">No reference run chosen yet (choose one on a session page).</p>}
+        {stage.parts.length === 0 && <p className="mt-2 text-sm text-ink-muted">No parts or work recorded for this stage.</p>}
         {stage.parts.length > 0 && (
           <div className="mt-3 overflow-x-auto">
             <table className="min-w-full text-sm">
@@ -127,7 +101,11 @@ function StageItem({ stage, index, canEdit, onEdit, onDelete }: { stage: StageDt
   );
 }
 
-/** A bike's build as a timeline of stages: parts, costs, reference runs and gains. */
+/**
+ * "Stages and parts": a bike's build as its stages in order, the parts and work of each with
+ * their costs, the stage total and the reference run. Gains and cost per hp are not shown here;
+ * the comparisons feature computes them like for like.
+ */
 export function BikeBuildTimeline({ bikeId }: { bikeId: string }) {
   const user = useCurrentUser();
   const toast = useToast();
@@ -141,7 +119,7 @@ export function BikeBuildTimeline({ bikeId }: { bikeId: string }) {
 
   return (
     <Card
-      title="Build"
+      title="Stages and parts"
       description={stages.data?.length ? `${stages.data.length} stages · ${formatMoney(total, { minorUnits: true })} in parts and labour` : 'The stages of work on this bike.'}
       actions={
         canEdit && (
@@ -181,11 +159,6 @@ export function BikeBuildTimeline({ bikeId }: { bikeId: string }) {
             />
           ))}
         </ol>
-      )}
-      {stages.data?.some((s) => s.gainPeakPowerHp !== null) && (
-        <p className="mt-4 text-sm text-ink-muted">
-          <StatusBadge status="info">Note</StatusBadge> Gains compare each stage's reference run with the baseline's. Dyno figures depend on the dyno, the correction standard and the day's air; compare like with like.
-        </p>
       )}
       <StageFormDialog bikeId={bikeId} stage={editing} open={formOpen} onClose={() => setFormOpen(false)} />
       <ConfirmDialog
