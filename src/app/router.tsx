@@ -13,7 +13,7 @@ import { runRoutes } from '@/features/runs/routes';
 import { dynoRoutes } from '@/features/dynos/routes';
 import { comparisonRoutes } from '@/features/comparisons/routes';
 import { publicReportRoutes, reportRoutes } from '@/features/reports/routes';
-import { CustomerReportsList } from '@/features/reports';
+import { ComparisonReportActions, CustomerReportsList } from '@/features/reports';
 import { finderRoutes } from '@/features/finder/routes';
 
 /**
@@ -30,7 +30,7 @@ const routes: RouteObject[] = [
       {
         element: <AppShell />,
         errorElement: <RouteErrorPage />,
-        children: [...homeRoutes(<CustomerReportsList />), ...customerRoutes, ...bikeRoutes, ...runRoutes, ...comparisonRoutes, ...reportRoutes, ...finderRoutes, ...adminRoutes, ...dynoRoutes, ...accountRoutes, { path: '*', element: <NotFoundPage /> }],
+        children: [...homeRoutes(<CustomerReportsList />), ...customerRoutes, ...bikeRoutes, ...runRoutes, ...comparisonRoutes({ savedComparisonActions: (id) => <ComparisonReportActions comparisonId={id} /> }), ...reportRoutes, ...finderRoutes, ...adminRoutes, ...dynoRoutes, ...accountRoutes, { path: '*', element: <NotFoundPage /> }],
       },
     ],
   },

@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useState, type ReactNode } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { STAFF, WORKSHOP } from '@shared/roles';
@@ -11,8 +11,11 @@ import { comparisonQueries } from '../api/comparison-queries';
 import { useDeleteComparison } from '../api/delete-comparison';
 import { ComparisonView } from '../components/comparison-view';
 
-/** A saved comparison with its figures computed now. Customers see their own bikes' comparisons read-only. */
-export default function ComparisonPage() {
+/**
+ * A saved comparison with its figures computed now. Customers see their own bikes' comparisons read-only.
+ * `actions` (staff only) is what the app layer composes in — the reports feature's "Make gain report".
+ */
+export default function ComparisonPage({ actions }: { actions?: (comparisonId: string) => ReactNode }) {
   const { comparisonId = '' } = useParams();
   const user = useCurrentUser();
   const isStaff = hasRole(user, STAFF);
@@ -72,6 +75,7 @@ export default function ComparisonPage() {
       ) : (
         <ErrorState title="The figures cannot be computed now" message={previewError?.message ?? 'Try again in a moment.'} onRetry={() => q.refetch()} isRetrying={q.isFetching} />
       )}
+      {isStaff && actions ? <div className="mt-6">{actions(c.id)}</div> : null}
       <ConfirmDialog
         open={confirming}
         onCancel={() => setConfirming(false)}
