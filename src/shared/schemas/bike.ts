@@ -3,15 +3,25 @@ import { listQuery, optionalNumber, optionalText, requiredText, uuid } from './c
 import { VIN_MESSAGES, vinProblem } from '../vin';
 import { toCc } from '../displacement';
 
+/** The latest model year a bike may have: makers sell next year's models from mid-year. Read at validation time. */
+export const latestModelYear = (now: Date = new Date()) => now.getFullYear() + 1;
+
+/** The owner customer; an empty choice gets a plain message instead of "Not a valid id". */
+const OWNER_MESSAGE = "Choose the bike's owner";
+const ownerId = z.string({ required_error: OWNER_MESSAGE }).uuid(OWNER_MESSAGE);
+
 /**
  * Create or edit a bike. Displacement may be entered in cm³ or cubic inches; the parsed value
  * carries `displacementCc` only, so the server never stores anything else.
  */
 export const bikeFormSchema = z.object({
-  customerId: uuid,
+  customerId: ownerId,
   make: requiredText(100, 'Make'),
   model: requiredText(100, 'Model'),
-  year: optionalNumber({ label: 'Year', min: 1900, max: 2100, int: true }),
+  year: optionalNumber({ label: 'Year', min: 1900, int: true }).superRefine((year, ctx) => {
+    const latest = latestModelYear();
+    if (year !== null && year > latest) ctx.addIssue({ code: z.ZodIssueCode.custom, message: `Model year cannot be later than ${latest}` });
+  }),
   vin: z
     .string()
     .trim()
