@@ -40,7 +40,8 @@ interface SimilarRow extends BuildIndexRow {
   c: number;
   t: number;
   similarity: number;
-  shared: PartCategory[] | null;
+  categories: PartCategory[];
+  shared?: PartCategory[];
   same_family: boolean;
   same_cylinders: boolean;
   cc_rel: number | null;
@@ -50,10 +51,15 @@ export async function similarBuilds(em: EntityManager, actor: Actor, bikeId: str
   const q = new Sql();
   const shop = actor.shopId;
   const conn = em.getConnection();
-  const [me] = (await conn.execute(`select id, engine_family, displacement_cc, cylinders from bike where id = ? and shop_id = ?`, [bikeId, shop])) as {
-    id: string; engine_family: string | null; displacement_cc: number | null; cylinders: number | null;
-  }[];
+  // This bike and its whole build (the cumulative build of its last stage).
+  const [me] = (await conn.execute(
+    `select b.id, b.engine_family, b.displacement_cc, b.cylinders, coalesce(l.categories, '{}') as cats, coalesce(l.parts_text, '') as txt
+       from bike b left join lateral (select categories, parts_text from build_index where bike_id = b.id order by stage_position desc limit 1) l on true
+      where b.id = ? and b.shop_id = ?`,
+    [bikeId, shop],
+  )) as { id: string; engine_family: string | null; displacement_cc: number | null; cylinders: number | null; cats: PartCategory[]; txt: string }[];
   if (!me) throw notFound('Bike');
+  const myCats = new Set(me.cats);
   const w = SIMILARITY_WEIGHTS;
   const fam = me.engine_family;
   const cc = me.displacement_cc !== null && me.displacement_cc > 0 ? me.displacement_cc : null;
@@ -73,6 +79,8 @@ export async function similarBuilds(em: EntityManager, actor: Actor, bikeId: str
       : `fam as materialized (
           select f.engine_family, similarity(f.engine_family, ${q.p(fam)})::float8 as e
             from build_family f where f.shop_id = ${q.p(shop)} and f.engine_family % ${q.p(fam)})`;
+  // |A ∩ B| with this bike's categories as constants: one containment test per category.
+  const sharedCount = () => (myCats.size ? [...myCats].map((c) => `(bi.categories @> array[${q.p(c)}]::text[])::int`).join(' + ') : '0');
   const e = () => (fam === null ? '0' : `coalesce(fam.e, similarity(b.engine_family, ${q.p(fam)}), 0)`);
   const d = () => (cc === null ? '0' : `case when b.displacement_cc is null then 0 else greatest(0, 1 - abs(b.displacement_cc - ${q.p(cc)}) / (0.2 * ${q.p(cc)})) end`);
   const ccRel = () => (cc === null ? 'null' : `abs(b.displacement_cc - ${q.p(cc)}) / ${q.p(cc)}`);
@@ -81,9 +89,7 @@ export async function similarBuilds(em: EntityManager, actor: Actor, bikeId: str
   // The part terms add at most partCategories + partsText; the text term (the costly one) is
   // computed only for builds that can still reach the top \`limit\` once it is added.
   const sql = `
-    with mine as (
-      select coalesce((select categories from build_index where bike_id = ${q.p(me.id)} order by stage_position desc limit 1), '{}') as cats,
-             coalesce((select parts_text from build_index where bike_id = ${q.p(me.id)} order by stage_position desc limit 1), '') as txt),
+    with mine as (select ${q.p(me.txt)}::text as txt),
     ${famCte()},
     bike_score as (
       select b.id, ${e()}::float8 as e, ${d()}::float8 as d, ${ccRel()}::float8 as cc_rel, ${sameFamily()} as same_family, ${sameCyl()} as same_cylinders
@@ -93,12 +99,11 @@ export async function similarBuilds(em: EntityManager, actor: Actor, bikeId: str
       select * from bike_score order by ${w.engineFamily} * e + ${w.displacement} * d desc, id limit ${q.p(SIMILAR_CANDIDATE_BIKES)}),
     cand as materialized (
       select bi.stage_id, cb.e, cb.d, cb.cc_rel, cb.same_family, cb.same_cylinders, bi.parts_text,
-             array(select unnest(bi.categories) intersect select unnest(mine.cats) order by 1) as shared,
-             cardinality(bi.categories) + cardinality(mine.cats) as sizes
-        from cand_bike cb join build_index bi on bi.bike_id = cb.id and bi.gain_peak_power_hp is not null, mine),
+             ${sharedCount()} as n_shared, cardinality(bi.categories) + ${q.p(myCats.size)} as sizes
+        from cand_bike cb join build_index bi on bi.bike_id = cb.id and bi.gain_peak_power_hp is not null),
     jaccard as (
       -- Both category lists are sets, so |A ∪ B| = |A| + |B| − |A ∩ B|.
-      select cand.*, coalesce(cardinality(shared)::float8 / nullif(sizes - cardinality(shared), 0), 0) as c from cand),
+      select cand.*, coalesce(n_shared::float8 / nullif(sizes - n_shared, 0), 0) as c from cand),
     partial as materialized (
       select jaccard.*, (${w.engineFamily} * e + ${w.displacement} * d + ${w.partCategories} * c)::float8 as part_score from jaccard),
     cut as (
@@ -114,7 +119,7 @@ export async function similarBuilds(em: EntityManager, actor: Actor, bikeId: str
     top as (
       select scored.*, (part_score + ${w.partsText} * t)::float8 as similarity from scored
        order by similarity desc, stage_id desc limit ${q.p(limit)})
-    select ${BUILD_INDEX_COLUMNS}, c.name as customer_name, top.e, top.d, top.c, top.t, top.similarity, top.shared, top.same_family, top.same_cylinders, top.cc_rel
+    select ${BUILD_INDEX_COLUMNS}, c.name as customer_name, top.e, top.d, top.c, top.t, top.similarity, bi.categories, top.same_family, top.same_cylinders, top.cc_rel
       from top join build_index bi on bi.stage_id = top.stage_id join customer c on c.id = bi.customer_id
      order by top.similarity desc, top.stage_id desc`;
   const rows = (await conn.execute(sql, q.params)) as SimilarRow[];
@@ -126,7 +131,7 @@ export async function similarBuilds(em: EntityManager, actor: Actor, bikeId: str
       score: r.similarity,
       similarity: r.similarity,
       components: { engineFamily: r.e, displacement: r.d, partCategories: r.c, partsText: r.t },
-      reasons: reasonsFor(r),
+      reasons: reasonsFor({ ...r, shared: r.categories.filter((c) => myCats.has(c)).sort() }),
     })),
   };
 }
