@@ -3,7 +3,6 @@ import { createColumnHelper } from '@tanstack/react-table';
 import { Button, DataTable, ErrorState, PageHeader } from '@/components/ui';
 import { formatDateTime } from '@shared/format';
 import { adminQueries, type AuditEntry } from '../api/admin-queries';
-import { OwnerOnly } from '../components/owner-only';
 
 /** "customer.update" → "Customer updated"; unknown verbs are shown as they are. */
 const VERBS: Record<string, string> = { create: 'created', update: 'updated', delete: 'deleted' };
@@ -30,15 +29,8 @@ const columns = [
   col.accessor('details', { header: 'Details', meta: { wrap: true }, cell: (c) => <span className="text-ink-muted">{summarize(c.getValue())}</span> }),
 ];
 
+/** Owner only: the guard is the settings layout route (../routes.tsx). */
 export default function AuditPage() {
-  return (
-    <OwnerOnly>
-      <AuditScreen />
-    </OwnerOnly>
-  );
-}
-
-function AuditScreen() {
   const audit = useInfiniteQuery(adminQueries.audit());
   const rows = audit.data?.pages.flat() ?? [];
   return (

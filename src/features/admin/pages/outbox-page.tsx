@@ -4,15 +4,6 @@ import { createColumnHelper } from '@tanstack/react-table';
 import { Button, Caution, DataTable, Dialog, ErrorState, LoadingState, PageHeader } from '@/components/ui';
 import { formatDateTime, formatFileSize } from '@shared/format';
 import { adminQueries, outboxAttachmentUrl, type OutboxItem } from '../api/admin-queries';
-import { OwnerOnly } from '../components/owner-only';
-
-export default function OutboxPage() {
-  return (
-    <OwnerOnly>
-      <OutboxScreen />
-    </OwnerOnly>
-  );
-}
 
 function Attachments({ message }: { message: OutboxItem }) {
   if (!message.attachments.length) return <span className="text-ink-subtle">None</span>;
@@ -30,7 +21,8 @@ function Attachments({ message }: { message: OutboxItem }) {
   );
 }
 
-function OutboxScreen() {
+/** Owner only: the guard is the settings layout route (../routes.tsx). */
+export default function OutboxPage() {
   const outbox = useQuery(adminQueries.outbox());
   const [openId, setOpenId] = useState<string | null>(null);
   const col = createColumnHelper<OutboxItem>();

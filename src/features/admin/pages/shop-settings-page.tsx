@@ -8,7 +8,6 @@ import { Button, Card, ErrorState, FormError, LoadingState, PageHeader, SelectFi
 import { applyFieldErrors } from '@/lib/api-client';
 import { adminQueries } from '../api/admin-queries';
 import { useUpdateShop } from '../api/update-shop';
-import { OwnerOnly } from '../components/owner-only';
 
 const CORRECTION_LABELS: Record<CorrectionStandard, string> = {
   none: 'None — observed figures as measured',
@@ -19,15 +18,8 @@ const CORRECTION_LABELS: Record<CorrectionStandard, string> = {
   'sae-j607': 'SAE J607',
 };
 
+/** Owner only: the guard is the settings layout route (../routes.tsx). */
 export default function ShopSettingsPage() {
-  return (
-    <OwnerOnly>
-      <ShopSettingsScreen />
-    </OwnerOnly>
-  );
-}
-
-function ShopSettingsScreen() {
   const shop = useQuery(adminQueries.shop());
   return (
     <>

@@ -16,21 +16,13 @@ import { adminQueries, type UserDto } from '../api/admin-queries';
 import { useInviteUser } from '../api/invite-user';
 import { useUpdateUser } from '../api/update-user';
 import { useResendInvite } from '../api/resend-invite';
-import { OwnerOnly } from '../components/owner-only';
 
 const staffOptions = STAFF.map((r) => ({ value: r, label: ROLE_LABELS[r] }));
 const staffInviteForm = inviteUserInput.pick({ name: true, email: true }).extend({ role: z.enum(['owner', 'tuner', 'desk']) });
 type InviteValues = z.input<typeof staffInviteForm>;
 
+/** Owner only: the guard is the settings layout route (../routes.tsx). */
 export default function UsersPage() {
-  return (
-    <OwnerOnly>
-      <UsersScreen />
-    </OwnerOnly>
-  );
-}
-
-function UsersScreen() {
   const users = useQuery(adminQueries.users());
   return (
     <>
