@@ -1,3 +1,3 @@
 /** What the finder feature offers other screens (composed in src/app/routes). */
-export { SimilarBuilds, type SimilarBuildsProps } from './components/SimilarBuilds';
-export { TypicalOutcomePanel, type TypicalOutcomePanelProps } from './components/TypicalOutcomePanel';
+export { SimilarBuilds, type SimilarBuildsProps } from './components/similar-builds';
+export { TypicalOutcomePanel, type TypicalOutcomePanelProps } from './components/typical-outcome-panel';

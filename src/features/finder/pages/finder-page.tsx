@@ -3,8 +3,8 @@ import { useSearchParams } from 'react-router-dom';
 import { Button, EmptyState, ErrorState, LoadingState, PageHeader } from '@/components/ui';
 import { formatCount } from '@shared/format';
 import { finderQueries, type FinderFilters } from '../api/finder-queries';
-import { FinderFiltersForm } from '../components/FinderFiltersForm';
-import { BuildResultsTable, type BuildSort } from '../components/BuildResultsTable';
+import { FinderFiltersForm } from '../components/finder-filters-form';
+import { BuildResultsTable, type BuildSort } from '../components/build-results-table';
 
 /** Build finder: search the shop's past builds; filters live in the URL so a search can be shared. */
 export default function FinderPage() {
