@@ -92,16 +92,15 @@ export function searchSql(actor: Actor, query: BuildSearchQuery): { sql: string;
   if (query.to) where.push(`bi.stage_date <= ${q.p(query.to)}::date`);
 
   // Cumulative categories: part_keys holds each category and 'category:level' for head work.
-  // Inside one family's id-ordered walk (below) the handful of categories are too common for the
-  // GIN index to pay, and the planner misjudges combined containment; `|| '{}'` keeps it to the walk.
+  // No index on part_keys: a handful of categories, each common, so the filter rides along the
+  // btree walks in gain, date or family order (see Migration20261202001000).
   const perFamily = !!query.engine && sort === 'similarity';
-  const partKeys = perFamily ? `(bi.part_keys || '{}'::text[])` : 'bi.part_keys';
   const categories = new Set<string>(query.parts);
   if (query.headLevel) categories.add('cylinder-heads');
-  if (categories.size) where.push(`${partKeys} @> array[${q.list([...categories])}]::text[]`);
+  if (categories.size) where.push(`bi.part_keys @> array[${q.list([...categories])}]::text[]`);
   if (query.headLevel) {
     const levels = HEAD_WORK_LEVELS.slice(HEAD_WORK_LEVELS.indexOf(query.headLevel));
-    where.push(`${partKeys} && array[${q.list(levels.map((l) => `cylinder-heads:${l}`))}]::text[]`);
+    where.push(`bi.part_keys && array[${q.list(levels.map((l) => `cylinder-heads:${l}`))}]::text[]`);
   }
   // parts_text has one description a line, so a substring never spans two parts.
   if (query.partText) where.push(`bi.parts_text ilike ${q.p(`%${escapeLike(query.partText)}%`)}`);
