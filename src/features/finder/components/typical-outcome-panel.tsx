@@ -14,6 +14,16 @@ export interface TypicalOutcomePanelProps {
 
 type Spread = NonNullable<TypicalOutcomeDto['peakPowerGainHp']>;
 
+const money = (cents: number) => formatMoney(cents, { minorUnits: true, wholeUnits: true });
+/** "+4.2 hp to +9.4 hp", or one figure when both ends are the same (one build, or identical ones). */
+const gainRange = (low: number, high: number) => (formatGain(low) === formatGain(high) ? formatGain(low) : `${formatGain(low)} to ${formatGain(high)}`);
+
+/** The cost sentence: a single figure when every build cost the same, else the range and median. */
+function costText(c: NonNullable<TypicalOutcomeDto['costCents']>) {
+  if (money(c.min) === money(c.max)) return `Cost of that stage: ${money(c.min)}.`;
+  return `Cost of that stage: ${money(c.min)} to ${money(c.max)} (median ${money(c.median)}).`;
+}
+
 function SpreadRow({ label, s }: { label: string; s: Spread | null }) {
   return (
     <tr className="border-b border-line">
@@ -23,12 +33,8 @@ function SpreadRow({ label, s }: { label: string; s: Spread | null }) {
       {s ? (
         <>
           <td className="num py-2 text-right">{formatGain(s.median)}</td>
-          <td className="num py-2 text-right">
-            {formatGain(s.q1)} to {formatGain(s.q3)}
-          </td>
-          <td className="num py-2 text-right">
-            {formatGain(s.min)} to {formatGain(s.max)}
-          </td>
+          <td className="num py-2 text-right">{gainRange(s.q1, s.q3)}</td>
+          <td className="num py-2 text-right">{gainRange(s.min, s.max)}</td>
         </>
       ) : (
         <td colSpan={3} className="py-2 text-right text-ink-muted">
@@ -47,7 +53,7 @@ export function TypicalOutcomePanel({ bikeId, category: initialCategory = 'cylin
   const headingId = useId();
   const d = query.data;
   return (
-    <Card title="Typical outcome of a planned change" description="Past results on similar builds in this shop — not a promise.">
+    <Card title="Typical outcome of a planned change" description="Past results on similar builds in this shop — not a promise." className="self-start">
       <div className="grid gap-4">
         <div className="grid gap-3 md:grid-cols-2">
           <SelectField
@@ -71,10 +77,14 @@ export function TypicalOutcomePanel({ bikeId, category: initialCategory = 'cylin
           <ErrorState error={query.error} onRetry={() => query.refetch()} isRetrying={query.isFetching} />
         ) : d ? (
           <div className="grid gap-3" aria-live="polite">
-            <p className="text-base text-ink">
-              <strong className="num">{formatCount(d.count, 'similar build')}</strong> measured this change. {d.message}
-            </p>
-            {d.lowConfidence && (
+            {d.count === 0 ? (
+              <p className="text-base text-ink">No similar builds have recorded this yet, so there is no past range to quote.</p>
+            ) : (
+              <p className="text-base text-ink">
+                <strong className="num">{formatCount(d.count, 'similar build')}</strong> measured this change. {d.message}
+              </p>
+            )}
+            {d.count > 0 && d.lowConfidence && (
               <Caution kind="caution" title="Few builds behind this figure">
                 Fewer than 5 similar builds back it, so the range may not hold for this bike. Quote it as a rough guide only.
               </Caution>
@@ -102,14 +112,15 @@ export function TypicalOutcomePanel({ bikeId, category: initialCategory = 'cylin
                 </table>
               </div>
             )}
-            {d.costCents && (
-              <p className="num text-sm text-ink">
-                Cost of that stage: {formatMoney(d.costCents.min, { minorUnits: true, wholeUnits: true })} to {formatMoney(d.costCents.max, { minorUnits: true, wholeUnits: true })} (median{' '}
-                {formatMoney(d.costCents.median, { minorUnits: true, wholeUnits: true })}).
-              </p>
-            )}
+            {d.count > 0 && d.costCents && <p className="num text-sm text-ink">{costText(d.costCents)}</p>}
             <p className="text-xs text-ink-muted">
-              {d.disclaimer} Similar builds: {d.criteria}. Gains are what that stage added over the stage measured before it. Quartiles: {d.quantileMethod}.
+              {d.count === 0 ? (
+                <>Similar builds: {d.criteria}.</>
+              ) : (
+                <>
+                  {d.disclaimer} Similar builds: {d.criteria}. Gains are what that stage added over the stage measured before it. Quartiles: {d.quantileMethod}.
+                </>
+              )}
             </p>
           </div>
         ) : null}
