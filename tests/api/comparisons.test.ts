@@ -456,6 +456,35 @@ describe('stage timeline', () => {
   });
 });
 
+describe('stage timeline, a stage without a reference run (hand-computed)', () => {
+  it('charges the stage in between to the next measured gain, as the gain report does', async () => {
+    const em = t.deps.orm.em.fork();
+    const f = new ComparisonFixtures(em, a.shop);
+    const owner = await t.signIn(a.users.owner);
+    const bike = em.create(Bike, { shop: a.shop.id, customer: a.customer.id, make: 'Testmake', model: 'Gap', cylinders: 2 } as never) as Bike;
+    const session = f.session(bike, { dyno: f.dyno() });
+    const s0 = f.stage(bike, 'Stock', 0);
+    // Not measured: no reference run.
+    f.stage(bike, 'Pipe + tune', 1, [{ category: 'exhaust', description: 'Two-into-one pipe', partCostCents: 90_000, labourCostCents: 70_000 }]);
+    const s2 = f.stage(bike, 'Heads', 2, [{ category: 'cylinder-heads', description: 'Mild port', partCostCents: 150_000, labourCostCents: 50_000 }]);
+    s0.referenceRun = f.run(bike, { curve: curveFromPower((r) => 20 + 0.01 * r), stage: s0, session });
+    s2.referenceRun = f.run(bike, { curve: curveFromPower((r) => 20 + 0.012 * r), stage: s2, session });
+    await em.flush();
+
+    const res = await owner.get('/api/comparisons/timeline').query({ bikeId: bike.id });
+    expect(res.status).toBe(200);
+    const heads = res.body.stages[2];
+    // Hand-computed: Δ = 0.002 r → +12 hp at 6000 rpm, average over 2000–6000 rpm = 0.002 × 4000 = +8 hp.
+    // The gain was bought by Pipe + tune (1600.00) and Heads (2000.00) = 3600.00:
+    // 360 000 / 12 = 30 000 cents per hp at peak, 360 000 / 8 = 45 000 per average hp — not Heads alone (16 667).
+    expect(heads.vsPrevious.peakPowerHp).toBeCloseTo(12, 4);
+    expect(heads.vsPrevious.averagePowerHp).toBeCloseTo(8, 4);
+    expect(heads.costCents).toBe(200_000);
+    expect(heads.costPerHp).toEqual({ peakCents: 30_000, averageCents: 45_000 });
+    expect(heads.cumulativeCostPerHp).toEqual({ peakCents: 30_000, averageCents: 45_000 });
+  });
+});
+
 describe('builder candidates', () => {
   it('suggests the previous stage’s reference run against the latest stage’s', async () => {
     const em = t.deps.orm.em.fork();

@@ -11,6 +11,7 @@ import { PEAKS_HP, seedReportScenario, solidPng } from '../support/report-fixtur
 import { fmtPctChange, fmtPowerGain, fmtRpm, fmtTorqueGain, powerIn, torqueIn } from '@server/modules/reports/figures';
 import { Shop } from '@server/modules/shops/shop.entity';
 import { ShareLink } from '@server/modules/reports/report.entity';
+import { Stage } from '@server/modules/stages/stage.entity';
 import type { ComparisonDetailDto } from '@shared/schemas/comparison';
 
 const ARTIFACTS = path.resolve('tests/artifacts');
@@ -342,5 +343,40 @@ describe('share links', () => {
     expect(statuses.slice(0, 60).every((s) => s === 404)).toBe(true);
     expect(statuses[61]).toBe(429);
     await resetShareLimits();
+  });
+});
+
+describe('cost per hp with a stage left out of the comparison (hand-computed)', () => {
+  it('counts every stage from the baseline’s to the compared run’s, and says which', async () => {
+    const { r0, r1, r2 } = scenario.runs;
+    const saved = await desk.post('/api/comparisons').send({ name: 'Stage 2 straight against baseline', runIds: [r0.id, r2.id], baselineRunId: r0.id, options: { correction: 'sae-j1349' } });
+    expect(saved.status).toBe(201);
+    const made = await desk.post('/api/reports').send({ comparisonId: saved.body.id });
+    expect(made.status).toBe(201);
+    const detail = (await desk.get(`/api/reports/${made.body.id}`)).body;
+    // Hand-computed from the fixture's parts: Stage 1 = 899.00 + 180.00 + 0 + 450.00 = 1,529.00;
+    // Stage 2 = 549.00 + 720.00 = 1,269.00; together 2,798.00. Peak gain 103.5 − 85 = 18.5 hp
+    // (set by construction, SAE J1349 reference air, factor 1): 2,798.00 / 18.5 = 151.24 → "$151 per hp".
+    expect(detail.data.cost).toMatchObject({ totalCostCents: 279_800, fromStageName: 'Baseline', stageNames: ['Stage 1', 'Stage 2'] });
+    expect(detail.data.cost.gainHp).toBeCloseTo(18.5, 2);
+    // Stage 1 is listed with its parts although no run of it is in the comparison.
+    expect(detail.data.stages.map((s: { name: string }) => s.name)).toEqual(['Baseline', 'Stage 1', 'Stage 2']);
+    const text = pdfText((await binary(desk.get(made.body.pdfUrl))).body as Buffer).replace(/\s+/g, ' ');
+    expect(text).toContain('$2,798.00');
+    expect(text).toContain('$151');
+    expect(text).toContain('Stage 1 and Stage 2 (all work after Baseline)');
+    renderPage1((await binary(desk.get(made.body.pdfUrl))).body as Buffer, 'report-cost-page1');
+
+    // The bike page's stage timeline uses the same rule and the same numbers.
+    const em = t.deps.orm.em.fork();
+    await em.nativeUpdate(Stage, { id: scenario.stages.base.id }, { referenceRun: r0.id } as never);
+    await em.nativeUpdate(Stage, { id: scenario.stages.s1.id }, { referenceRun: r1.id } as never);
+    await em.nativeUpdate(Stage, { id: scenario.stages.s2.id }, { referenceRun: r2.id } as never);
+    const tl = (await desk.get('/api/comparisons/timeline').query({ bikeId: a.bike.id, correction: 'sae-j1349' })).body;
+    const st2 = tl.stages.find((s: { name: string }) => s.name === 'Stage 2');
+    expect(st2.cumulativeCostCents - tl.stages.find((s: { name: string }) => s.name === 'Baseline').cumulativeCostCents).toBe(279_800);
+    expect(st2.vsBaseline.peakPowerHp).toBeCloseTo(detail.data.cost.gainHp, 6);
+    // 279 800 / 18.5 = 15 124.3 cents per hp.
+    expect(st2.cumulativeCostPerHp.peakCents).toBeCloseTo(279_800 / 18.5, 0);
   });
 });

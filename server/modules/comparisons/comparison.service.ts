@@ -7,6 +7,8 @@
  */
 import type { EntityManager } from '@mikro-orm/postgresql';
 import type { FilterQuery } from '@mikro-orm/core';
+import { runColorSlots, type ArchiveRun } from './run-colors';
+import { costBetweenStages, stageCostCents, type CostedStage } from './stage-cost';
 import type { Actor } from '../../http/actor';
 import { AppError, notFound } from '../../lib/errors';
 import {
@@ -154,6 +156,7 @@ function prepare(run: Run, options: ComparisonOptions): Prepared {
     summary: {
       runId: run.id,
       name: runName(run),
+      colorIndex: 0,
       bikeId: run.bike.id,
       bikeLabel: bikeLabel(run.bike),
       stageId: run.stage?.id ?? null,
@@ -471,6 +474,19 @@ function parseInput(input: EvaluateInput) {
  * run-to-run spread of every stage involved that has 2+ ready runs, and plain sentences.
  * Runs must all be visible to the actor (shop; customers: their own bikes) — else 404.
  */
+/** Colour slots of the compared runs from their bikes' archives (run-colors.ts). */
+async function colorSlotsOf(em: EntityManager, actor: Actor, all: Prepared[]): Promise<Map<string, number>> {
+  const bikeIds = [...new Set(all.map((p) => p.run.bike.id))];
+  const rows: { id: string; bike_id: string; position: number | null; sequence: number; created_at: string | Date }[] = await em
+    .getConnection()
+    .execute(
+      `select r.id, r.bike_id, s.position, r.sequence, r.created_at from run r left join stage s on s.id = r.stage_id where r.shop_id = ? and r.deleted_at is null and r.bike_id in (${bikeIds.map(() => '?').join(', ')})`,
+      [actor.shopId, ...bikeIds],
+    );
+  const archive: ArchiveRun[] = rows.map((r) => ({ id: r.id, bikeId: r.bike_id, stagePosition: r.position, sequence: r.sequence, createdAt: r.created_at }));
+  return runColorSlots(archive, all.map((p) => p.run.id));
+}
+
 export async function evaluateComparison(em: EntityManager, actor: Actor, input: EvaluateInput): Promise<ComparisonPreview> {
   const data = parseInput(input);
   const options = data.options;
@@ -543,6 +559,9 @@ export async function evaluateComparison(em: EntityManager, actor: Actor, input:
   }
   if (!spreads.size) summary.push('No stage in this comparison has two or more runs, so run-to-run spread is unknown; treat small differences with care.');
   if (warnings.some((w) => w.code !== 'SEVERAL_BIKES' && w.code !== 'DYNO_UNKNOWN')) summary.push('Read these figures with the warnings below in mind.');
+
+  const colors = await colorSlotsOf(em, actor, all);
+  for (const p of all) p.summary.colorIndex = colors.get(p.run.id) ?? 0;
 
   return {
     baseline: baseline.summary,
@@ -683,14 +702,16 @@ export async function stageTimeline(em: EntityManager, actor: Actor, query: { bi
   const used = [...prepared.values()];
   if (used.length >= 2) warnings.push(...fairnessWarnings(used, used[0]).filter((w) => w.code !== 'LITTLE_OVERLAP'));
 
-  let baseline: { stage: Stage; p: Prepared; spentBefore: number } | null = null;
+  let baseline: { stage: Stage; p: Prepared } | null = null;
   let previous: { stage: Stage; p: Prepared } | null = null;
   let cumulative = 0;
   const out: TimelineStage[] = [];
-  for (const stage of stages) {
+  // The same cost rule as the gain report (stage-cost.ts): a gain from stage A to stage B is paid
+  // for by every stage after A up to B, including stages in between without a reference run.
+  const costed: CostedStage[] = stages.map((st) => ({ id: st.id, name: st.name, costCents: stageCostCents(st, parts.filter((x) => x.stage.id === st.id)) }));
+  for (const [index, stage] of stages.entries()) {
     const stageParts = parts.filter((x) => x.stage.id === stage.id);
-    const partsCost = stageParts.reduce((s, x) => s + x.partCostCents + x.labourCostCents, 0);
-    const cost = stageParts.length ? partsCost : stage.totalCostCents;
+    const cost = costed[index].costCents;
     cumulative += cost;
     const p = stage.referenceRun ? prepared.get(stage.referenceRun.id) : undefined;
     const own = spreads.get(stage.id);
@@ -729,18 +750,19 @@ export async function stageTimeline(em: EntityManager, actor: Actor, query: { bi
         const f = safe(previous.p, p);
         if (f) {
           row.vsPrevious = gainOf(f, spreadVs(previous.stage));
-          row.costPerHp = { peakCents: perHp(cost, f.peakPowerGain.hp), averageCents: perHp(cost, f.averagePowerGainHp) };
+          const spent = costBetweenStages(costed, previous.stage.id, stage.id)?.totalCents ?? cost;
+          row.costPerHp = { peakCents: perHp(spent, f.peakPowerGain.hp), averageCents: perHp(spent, f.averagePowerGainHp) };
         }
       }
       if (baseline) {
         const f = safe(baseline.p, p);
         if (f) {
           row.vsBaseline = gainOf(f, spreadVs(baseline.stage));
-          const spent = cumulative - baseline.spentBefore;
+          const spent = costBetweenStages(costed, baseline.stage.id, stage.id)?.totalCents ?? 0;
           row.cumulativeCostPerHp = { peakCents: perHp(spent, f.peakPowerGain.hp), averageCents: perHp(spent, f.averagePowerGainHp) };
         }
       }
-      if (!baseline) baseline = { stage, p, spentBefore: cumulative };
+      if (!baseline) baseline = { stage, p };
       previous = { stage, p };
     }
     out.push(row);

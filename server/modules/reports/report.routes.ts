@@ -6,13 +6,13 @@ import type { Readable } from 'node:stream';
 import { ApiRouter } from '../../http/api-router';
 import type { AppDeps } from '../../app-deps';
 import { STAFF } from '@shared/roles';
-import { idParams, optionalText, uuid } from '@shared/schemas/common';
+import { idParams, uuid } from '@shared/schemas/common';
+import { reportInput, reportListQuery, sendInput, shareInput } from '@shared/schemas/report';
 import { AppError } from '../../lib/errors';
 import { Shop } from '../shops/shop.entity';
 import { recordAudit } from '../audit/audit.service';
 import type { Report } from './report.entity';
 import {
-  DEFAULT_SHARE_DAYS,
   createReport,
   createShareLink,
   getReport,
@@ -31,13 +31,7 @@ import { imageFormatOf } from './pdf/render';
 const SENDERS = ['owner', 'desk', 'tuner'] as const;
 export const LOGO_MAX_BYTES = 2 * 1024 * 1024;
 
-export const reportInput = z.object({ comparisonId: uuid, technicianNote: optionalText(3000).optional() });
-export const reportListQuery = z.object({ bikeId: uuid.optional(), comparisonId: uuid.optional() });
-export const sendInput = z.object({
-  to: z.string({ required_error: 'Recipient is required' }).trim().toLowerCase().email('Enter a valid e-mail address').max(320),
-  message: z.string({ required_error: 'Message is required' }).trim().min(1, 'Message is required').max(5000, 'At most 5,000 characters'),
-});
-export const shareInput = z.object({ expiresInDays: z.coerce.number().int().min(1, 'At least 1 day').max(365, 'At most 365 days').default(DEFAULT_SHARE_DAYS) });
+export { reportInput, reportListQuery, sendInput, shareInput };
 const shareParams = z.object({ id: uuid, shareId: uuid });
 const tokenParams = z.object({ token: z.string().max(200) });
 

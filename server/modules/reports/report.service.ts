@@ -21,13 +21,15 @@ import { Dyno } from '../dynos/dyno.entity';
 import { User } from '../users/user.entity';
 import { recordAudit } from '../audit/audit.service';
 import { discardObject } from '../../lib/storage/discard-object';
+import { costBetweenStages, stageCostCents } from '../comparisons/stage-cost';
 import { Report, ReportDelivery, ShareLink } from './report.entity';
 import type { ReportData, ReportStage } from './report-data';
+import { DEFAULT_SHARE_DAYS, type ReportSummary } from '@shared/schemas/report';
 import { renderReportPdf } from './pdf/render';
 import { fmtPctChange, fmtPowerGain } from './figures';
 
 const NO_CUSTOMER = '00000000-0000-0000-0000-000000000000';
-export const DEFAULT_SHARE_DAYS = 30;
+export { DEFAULT_SHARE_DAYS } from '@shared/schemas/report';
 /** Share-page look-ups allowed per IP address per minute (our own limit: generous for people, tight for guessing). */
 export const SHARE_RATE_RULE = { limit: 60, windowSeconds: 60 };
 
@@ -75,23 +77,45 @@ function repeatabilityText(preview: ComparisonPreview, units: Shop['units']): Re
   };
 }
 
-async function stagesOf(em: EntityManager, actor: Actor, preview: ComparisonPreview): Promise<{ stages: ReportStage[]; afterBaselineCents: number }> {
-  const ids = [...new Set(preview.runs.map((r) => r.stageId).filter((s): s is string => !!s))];
-  if (!ids.length) return { stages: [], afterBaselineCents: 0 };
-  const stages = await em.find(Stage, { id: { $in: ids }, shop: actor.shopId }, { orderBy: { position: 'asc' } });
-  const parts = await em.find(Part, { stage: { $in: stages.map((s) => s.id) }, shop: actor.shopId }, { orderBy: { createdAt: 'asc' } });
-  const baseStage = preview.baseline.stageId;
-  const out = stages.map((st) => {
-    const own = parts.filter((p) => p.stage.id === st.id);
+/**
+ * The build stages the report lists — every stage of the bike from the earliest to the latest stage
+ * in the comparison, in build order, so stages in between without a run still show — and the cost
+ * behind the headline gain: every stage after the baseline's stage up to the compared run's stage
+ * (the rule of the stage timeline, ../comparisons/stage-cost.ts).
+ */
+async function stagesOf(em: EntityManager, actor: Actor, preview: ComparisonPreview, comparedRunId: string | null): Promise<{ stages: ReportStage[]; cost: { totalCostCents: number; fromStageName: string; stageNames: string[] } | null }> {
+  const ids = new Set(preview.runs.map((r) => r.stageId).filter((s): s is string => !!s));
+  if (!ids.size) return { stages: [], cost: null };
+  const bikeIds = [...new Set(preview.runs.map((r) => r.bikeId).filter((b): b is string => !!b))];
+  const all = await em.find(Stage, { bike: { $in: bikeIds }, shop: actor.shopId }, { orderBy: { position: 'asc', createdAt: 'asc' } });
+  const baseStageId = preview.baseline.stageId;
+  const comparedStageId = comparedRunId ? preview.runs.find((r) => r.runId === comparedRunId)?.stageId ?? null : null;
+  const bikeOfBaseline = all.find((st) => st.id === baseStageId)?.bike.id;
+  // One bike's build: the baseline's (a comparison across bikes lists only the stages it used).
+  const build = bikeOfBaseline ? all.filter((st) => st.bike.id === bikeOfBaseline) : [];
+  const used = build.map((st, i) => (ids.has(st.id) ? i : -1)).filter((i) => i >= 0);
+  const listed = used.length ? build.slice(Math.min(...used), Math.max(...used) + 1) : [];
+  const others = all.filter((st) => ids.has(st.id) && !listed.includes(st));
+  const shown = [...listed, ...others];
+  const parts = shown.length ? await em.find(Part, { stage: { $in: [...new Set([...shown, ...build].map((s) => s.id))] }, shop: actor.shopId }, { orderBy: { createdAt: 'asc' } }) : [];
+  const partsOf = (id: string) => parts.filter((p) => p.stage.id === id);
+  const out = shown.map((st) => {
+    const own = partsOf(st.id);
     return {
       name: st.name,
       date: st.date,
-      isBaseline: st.id === baseStage,
+      isBaseline: st.id === baseStageId,
       parts: own.map((p) => ({ category: p.category, description: p.description, partCostCents: p.partCostCents, labourCostCents: p.labourCostCents })),
-      totalCostCents: own.reduce((sum, p) => sum + p.partCostCents + p.labourCostCents, 0),
+      totalCostCents: stageCostCents(st, own),
     };
   });
-  return { stages: out, afterBaselineCents: out.filter((s) => !s.isBaseline).reduce((sum, s) => sum + s.totalCostCents, 0) };
+  const costed = build.map((st) => ({ id: st.id, name: st.name, costCents: stageCostCents(st, partsOf(st.id)) }));
+  const between = costBetweenStages(costed, baseStageId, comparedStageId);
+  const baseName = build.find((st) => st.id === baseStageId)?.name ?? 'the baseline';
+  return {
+    stages: out,
+    cost: between && between.totalCents > 0 ? { totalCostCents: between.totalCents, fromStageName: baseName, stageNames: between.stages.map((x) => x.name) } : null,
+  };
 }
 
 /** Everything the PDF prints, from the saved comparison evaluated now. */
@@ -111,8 +135,8 @@ export async function buildReportData(
   const dynoIds = [...new Set(preview.runs.map((r) => r.dynoId).filter((d): d is string => !!d))];
   const dynos = dynoIds.length ? await em.find(Dyno, { id: { $in: dynoIds }, shop: actor.shopId }) : [];
   const kindLabel: Record<string, string> = { inertia: 'inertia', 'eddy-current': 'eddy-current', other: 'other type' };
-  const { stages, afterBaselineCents } = await stagesOf(em, actor, preview);
   const last = preview.results[preview.results.length - 1];
+  const { stages, cost } = await stagesOf(em, actor, preview, last?.runId ?? null);
 
   const data: ReportData = {
     number: meta.number,
@@ -131,7 +155,7 @@ export async function buildReportData(
         label: r.name,
         stageName: r.stageName,
         isBaseline: r.runId === preview.baseline.runId,
-        colorIndex: i,
+        colorIndex: r.colorIndex ?? i,
         recordedAt: r.recordedAt,
         dynoName: r.dynoName,
         dynoKind: dyno ? kindLabel[dyno.kind] ?? dyno.kind : null,
@@ -156,7 +180,7 @@ export async function buildReportData(
     curves: curvesOf(preview),
     stages,
     repeatability: repeatabilityText(preview, shop.units),
-    cost: last && afterBaselineCents > 0 ? { totalCostCents: afterBaselineCents, gainHp: last.peakPowerGain.hp } : null,
+    cost: last && cost ? { ...cost, gainHp: last.peakPowerGain.hp } : null,
     warnings: preview.warnings.map((w) => w.message),
     summary: preview.summary.join(' '),
     technicianNote: meta.technicianNote,
@@ -166,22 +190,7 @@ export async function buildReportData(
 
 // ---- DTOs
 
-export interface ReportDto {
-  id: string;
-  number: string;
-  version: number;
-  bikeId: string;
-  bikeLabel: string;
-  comparisonId: string;
-  comparisonName: string;
-  createdAt: string;
-  createdByName: string | null;
-  technicianNote: string | null;
-  pdfUrl: string;
-  pdfSha256: string;
-  pdfSizeBytes: number;
-  headline: { peakPowerGain: string; areaGain: string } | null;
-}
+export type ReportDto = ReportSummary;
 
 function toDto(r: Report): ReportDto {
   const data = r.summary as unknown as ReportData | null;

@@ -99,6 +99,12 @@ export interface ComparisonRunSummary {
   runId: string;
   /** Display name: the run's label, or stage + sequence. */
   name: string;
+  /**
+   * The run's colour slot (index into the run palette), from its place in its bike's archive, so a
+   * run has the same colour in every comparison, the share page and the PDF
+   * (server/modules/comparisons/run-colors.ts).
+   */
+  colorIndex: number;
   bikeId: string;
   bikeLabel: string;
   stageId: string | null;

@@ -9,6 +9,7 @@ import { formatDate, formatNumber, formatRpmRange } from '@shared/format';
 import { PART_CATEGORY_LABELS, type PartCategory } from '@shared/parts';
 import { costPerPower, fmtMoneyCents, fmtPctChange, fmtPower, fmtPowerGain, fmtRpm, fmtTorque, fmtTorqueGain, unitLabels } from '../figures';
 import { headlineGain, type ReportData } from '../report-data';
+import { costCoverage } from '@shared/schemas/report';
 import { LegendSwatch, OverlayChart } from './chart';
 import { PDF_FONT } from './fonts';
 
@@ -291,14 +292,19 @@ export function GainReportDocument({ data, logo }: { data: ReportData; logo?: Re
             )}
           />
           {data.cost ? (
-            <View style={{ flexDirection: 'row', justifyContent: 'flex-end', gap: 18, marginTop: 5 }}>
-              <Text>
-                <Text style={s.muted}>Total work after baseline </Text>
-                <Text style={{ fontWeight: 600, fontFeatureSettings: [...tnum] }}>{fmtMoneyCents(data.cost.totalCostCents)}</Text>
-              </Text>
-              <Text>
-                <Text style={s.muted}>Cost per {labels.power} of peak gain </Text>
-                <Text style={{ fontWeight: 600, fontFeatureSettings: [...tnum] }}>{perPower ? perPower.replace(/ per .*/, '') : 'not meaningful (no peak gain)'}</Text>
+            <View style={{ marginTop: 5 }}>
+              <View style={{ flexDirection: 'row', justifyContent: 'flex-end', gap: 18 }}>
+                <Text>
+                  <Text style={s.muted}>Cost of the work counted </Text>
+                  <Text style={{ fontWeight: 600, fontFeatureSettings: [...tnum] }}>{fmtMoneyCents(data.cost.totalCostCents)}</Text>
+                </Text>
+                <Text>
+                  <Text style={s.muted}>{`Cost per ${labels.power} of peak gain `}</Text>
+                  <Text style={{ fontWeight: 600, fontFeatureSettings: [...tnum] }}>{perPower ? perPower.replace(/ per .*/, '') : 'not meaningful (no peak gain)'}</Text>
+                </Text>
+              </View>
+              <Text style={[s.subtle, { fontSize: 7.5, marginTop: 2, textAlign: 'right' }]}>
+                {`Counts ${costCoverage(data.cost)}, against the peak power gain of ${fmtPowerGain(data.cost.gainHp, u)}${finalRun ? ` (${finalRun.label} against ${baseline?.label ?? 'the baseline'})` : ''}.`}
               </Text>
             </View>
           ) : null}

@@ -46,6 +46,7 @@ export function OverlayChart({ preview, units, onReady, height = 440 }: { previe
     performance.mark('pb:overlay-option');
     const { rpm, runs } = preview.curves;
     const names = new Map(preview.runs.map((r) => [r.runId, r.name]));
+    const slot = new Map(preview.runs.map((r, i) => [r.runId, r.colorIndex ?? i]));
     const base = baseChartOption({
       xName: 'Engine speed (rpm)',
       yName: `Power (${units.power})`,
@@ -55,8 +56,8 @@ export function OverlayChart({ preview, units, onReady, height = 440 }: { previe
     const series: LineSeriesOption[] = runs.flatMap((c, i) => {
       const name = names.get(c.runId) ?? `Run ${i + 1}`;
       return [
-        runSeries(i, 'power', { id: `${c.runId}-p`, name, data: rpm.map((r, k) => [r, c.powerHp[k] === null ? null : units.p(c.powerHp[k]!)]), connectNulls: false }),
-        runSeries(i, 'torque', { id: `${c.runId}-t`, name, data: rpm.map((r, k) => [r, c.torqueLbft[k] === null ? null : units.t(c.torqueLbft[k]!)]), connectNulls: false }),
+        runSeries(slot.get(c.runId) ?? i, 'power', { id: `${c.runId}-p`, name, data: rpm.map((r, k) => [r, c.powerHp[k] === null ? null : units.p(c.powerHp[k]!)]), connectNulls: false }),
+        runSeries(slot.get(c.runId) ?? i, 'torque', { id: `${c.runId}-t`, name, data: rpm.map((r, k) => [r, c.torqueLbft[k] === null ? null : units.t(c.torqueLbft[k]!)]), connectNulls: false }),
       ];
     });
     const tooltip = {
@@ -73,7 +74,7 @@ export function OverlayChart({ preview, units, onReady, height = 440 }: { previe
           .map((c, i) => {
             const p = c.powerHp[k];
             const t = c.torqueLbft[k];
-            return `<tr><td style="padding-right:8px"><span style="display:inline-block;width:10px;height:10px;border-radius:2px;background:${runColor(i)};margin-right:6px"></span>${escapeHtml(names.get(c.runId) ?? '')}</td><td style="text-align:right;padding-right:8px">${p === null ? '—' : fmt(units.p(p))}</td><td style="text-align:right">${t === null ? '—' : fmt(units.t(t))}</td></tr>`;
+            return `<tr><td style="padding-right:8px"><span style="display:inline-block;width:10px;height:10px;border-radius:2px;background:${runColor(slot.get(c.runId) ?? i)};margin-right:6px"></span>${escapeHtml(names.get(c.runId) ?? '')}</td><td style="text-align:right;padding-right:8px">${p === null ? '—' : fmt(units.p(p))}</td><td style="text-align:right">${t === null ? '—' : fmt(units.t(t))}</td></tr>`;
           })
           .join('');
         return `<div data-testid="overlay-tooltip"><div style="font-weight:600;margin-bottom:4px">${formatNumber(rpm[k])} rpm</div><table style="border-collapse:collapse"><thead><tr><th></th><th style="text-align:right;padding-right:8px;font-weight:500">${units.power}</th><th style="text-align:right;font-weight:500">${units.torque}</th></tr></thead><tbody>${rows}</tbody></table></div>`;
@@ -130,6 +131,7 @@ export function DifferenceChart({ preview, runId, units, onReady, height = 300 }
     const result = preview.results.find((r) => r.runId === runId) ?? preview.results[0];
     const index = Math.max(0, preview.runs.findIndex((r) => r.runId === result.runId));
     const name = preview.runs[index]?.name ?? 'Run';
+    const colorIndex = preview.runs[index]?.colorIndex ?? index;
     const { rpm, powerHp, torqueLbft } = result.delta;
     const dp = powerHp.map(units.p);
     const dt = torqueLbft.map(units.t);
@@ -153,8 +155,8 @@ export function DifferenceChart({ preview, runId, units, onReady, height = 300 }
       series: [
         origin0(deltaSeries('gain', { name: 'Gain', data: rpm.map((r, i) => [r, Math.max(0, dp[i])]), tooltip: { show: false } })),
         origin0(deltaSeries('loss', { name: 'Loss', data: rpm.map((r, i) => [r, Math.min(0, dp[i])]), tooltip: { show: false } })),
-        runSeries(index, 'power', { name: `Δ power (${units.power})`, data: rpm.map((r, i) => [r, dp[i]]), markLine: { silent: true, symbol: 'none', label: { show: false }, lineStyle: { color: CHART_COLORS.axisLine, type: 'solid', width: 1 }, data: [{ yAxis: 0 }] } }),
-        runSeries(index, 'torque', { name: `Δ torque (${units.torque})`, data: rpm.map((r, i) => [r, dt[i]]) }),
+        runSeries(colorIndex, 'power', { name: `Δ power (${units.power})`, data: rpm.map((r, i) => [r, dp[i]]), markLine: { silent: true, symbol: 'none', label: { show: false }, lineStyle: { color: CHART_COLORS.axisLine, type: 'solid', width: 1 }, data: [{ yAxis: 0 }] } }),
+        runSeries(colorIndex, 'torque', { name: `Δ torque (${units.torque})`, data: rpm.map((r, i) => [r, dt[i]]) }),
       ],
     };
   }, [preview, runId, units]);

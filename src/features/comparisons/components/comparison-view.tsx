@@ -21,7 +21,10 @@ export function ComparisonView({ preview, name }: { preview: ComparisonPreview; 
   const toast = useToast();
   const slug = fileSlug(name);
   const nameOf = (id: string) => preview.runs.find((r) => r.runId === id)?.name ?? 'Run';
-  const colourOf = (id: string) => runColor(Math.max(0, preview.runs.findIndex((r) => r.runId === id)));
+  const colourOf = (id: string) => {
+    const i = Math.max(0, preview.runs.findIndex((r) => r.runId === id));
+    return runColor(preview.runs[i]?.colorIndex ?? i);
+  };
 
   const exportChart = (which: 'overlay' | 'difference', type: 'png' | 'svg') => {
     const h = (which === 'overlay' ? overlay : difference).current;
@@ -237,7 +240,7 @@ function RunsTable({ preview, units }: { preview: ComparisonPreview; units: Retu
               <tr key={r.runId} className="border-t border-line">
                 <th scope="row" className="px-3 py-2 text-left font-medium">
                   <span className="inline-flex items-center gap-2">
-                    <span aria-hidden="true" className="inline-block h-3 w-3 rounded-sm" style={{ background: runColor(i) }} />
+                    <span aria-hidden="true" className="inline-block h-3 w-3 rounded-sm" style={{ background: runColor(r.colorIndex ?? i) }} />
                     {r.name}
                     {r.runId === preview.baseline.runId && <Badge tone="neutral">baseline</Badge>}
                   </span>

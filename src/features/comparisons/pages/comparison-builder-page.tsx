@@ -76,9 +76,12 @@ export default function ComparisonBuilderPage() {
     if (fromRuns.length) setBikeIds((b) => [...new Set([...b, ...fromRuns])]);
   }, [preview.data, bikeIds]);
 
+  // The run's own colour (its place in the bike's archive, set by the server) once the preview
+  // names it; no colour before, so a picked run never shows a colour it will not keep.
   const colourOf = (id: string) => {
-    const i = selected.indexOf(id);
-    return i < 0 ? undefined : runColor(i);
+    if (!selected.includes(id)) return undefined;
+    const r = preview.data?.runs.find((x) => x.runId === id);
+    return r ? runColor(r.colorIndex) : undefined;
   };
   const toggle = (id: string, on: boolean) => {
     setSelected((s) => {
@@ -87,7 +90,7 @@ export default function ComparisonBuilderPage() {
       return next;
     });
   };
-  // Keep the baseline first so it takes the first colour everywhere.
+  // Keep the baseline first in the list.
   const chooseBaseline = (id: string) => {
     setBaseline(id);
     setSelected((s) => [id, ...s.filter((x) => x !== id)]);

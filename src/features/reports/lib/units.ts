@@ -1,17 +1,15 @@
 import { formatGain, formatNumber, formatPercentChange } from '@shared/format';
+import { hpTo, lbftTo } from '@server/analysis/units';
 import type { Units } from '../api/types';
 
-/** 1 hp = 745.6999 W and 1 lbf·ft = 1.355818 N·m (NIST SP 811), as the PDF uses. */
-const KW_PER_HP = 0.7456999;
-const NM_PER_LBFT = 1.355818;
-
+/** The shop's units for display; conversions from the analysis module (NIST SP 811 factors), as the PDF uses. */
 export function displayUnits(units: Units) {
   const metric = units === 'metric';
   return {
     power: metric ? 'kW' : 'hp',
     torque: metric ? 'N·m' : 'lb·ft',
-    p: (hp: number) => (metric ? hp * KW_PER_HP : hp),
-    t: (lbft: number) => (metric ? lbft * NM_PER_LBFT : lbft),
+    p: (hp: number) => (metric ? hpTo(hp, 'kw') : hp),
+    t: (lbft: number) => (metric ? lbftTo(lbft, 'nm') : lbft),
   };
 }
 export type DisplayUnits = ReturnType<typeof displayUnits>;
