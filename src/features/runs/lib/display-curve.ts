@@ -1,6 +1,7 @@
 import type { CorrectionId, RunDetailDto } from '@shared/schemas/run';
 import { correctionFactor } from '@server/analysis/correction';
-import { hpTo, lbftTo } from '@server/analysis/units';
+import { GASOLINE_STOICH_AFR, hpTo, lbftTo } from '@server/analysis/units';
+import { formatNumber } from '@shared/format';
 
 export type PowerChoice = 'hp' | 'kw';
 export type TorqueChoice = 'lbft' | 'nm';
@@ -54,4 +55,41 @@ function peak(rpm: number[], values: number[]): { value: number; rpm: number } |
   let best = -1;
   for (let i = 0; i < values.length; i++) if (Number.isFinite(values[i]) && (best < 0 || values[i] > values[best])) best = i;
   return best < 0 ? null : { value: values[best], rpm: rpm[best] };
+}
+
+/** How the mixture panel reads: air–fuel ratio, or lambda (AFR ÷ stoichiometric AFR). */
+export type MixtureChoice = 'afr' | 'lambda';
+
+export interface MixtureChannel {
+  /** The stored channel key, e.g. "lambda1 (AFR)". */
+  key: string;
+  /** What the legend and tooltip say, e.g. "Lambda 1 → AFR (×14.7)". */
+  label: string;
+  values: number[];
+}
+
+/** "lambda1" → "Lambda 1", "afr_front" → "Afr front": a header as a legend label. */
+function prettyHeader(header: string): string {
+  const spaced = header
+    .replace(/[_]+/g, ' ')
+    .replace(/([a-zA-Z])(\d)/g, '$1 $2')
+    .trim();
+  return spaced ? spaced[0].toUpperCase() + spaced.slice(1) : header;
+}
+
+const STOICH = formatNumber(GASOLINE_STOICH_AFR, { decimals: 1 });
+
+/**
+ * The mixture channels as the panel shows them. The stored curve holds every channel as AFR; a
+ * channel the file recorded as lambda was multiplied by the gasoline stoichiometric ratio (14.7,
+ * common practice for petrol) and is keyed "<header> (AFR)". The labels say which conversion was
+ * made, and in lambda mode every channel is divided by the same ratio.
+ */
+export function mixtureChannels(afr: Record<string, number[]>, mode: MixtureChoice): MixtureChannel[] {
+  return Object.entries(afr).map(([key, values]) => {
+    const fromLambda = key.endsWith(' (AFR)');
+    const header = prettyHeader(fromLambda ? key.slice(0, -' (AFR)'.length) : key);
+    if (mode === 'afr') return { key, label: fromLambda ? `${header} → AFR (×${STOICH})` : `${header} (AFR)`, values };
+    return { key, label: fromLambda ? `${header} (lambda)` : `${header} → lambda (÷${STOICH})`, values: values.map((v) => v / GASOLINE_STOICH_AFR) };
+  });
 }

@@ -1,9 +1,9 @@
 import { useMemo, useState } from 'react';
-import { Link, useNavigate, useParams } from 'react-router-dom';
+import { Link, useNavigate, useParams, useSearchParams } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
 import { CORRECTION_IDS, type CorrectionId, type RunDetailDto } from '@shared/schemas/run';
 import { STAFF, WORKSHOP } from '@shared/roles';
-import { CORRECTION_STANDARDS } from '@server/analysis/correction';
+import { GASOLINE_STOICH_AFR } from '@server/analysis/units';
 import { Badge, Button, Card, Caution, ConfirmDialog, ErrorState, Icon, LoadingState, PageHeader, SelectField, Stat, StatusBadge, useToast } from '@/components/ui';
 import { formatDateTime, formatFileSize, formatNumber, formatRpmRange, MISSING } from '@shared/format';
 import { useCurrentUser } from '@/lib/auth';
@@ -12,34 +12,71 @@ import { paths } from '@/config/paths';
 import { runQueries } from '../api/run-queries';
 import { useDeleteRun } from '../api/delete-run';
 import { useRestoreRun } from '../api/restore-run';
-import { displayCurve, POWER_LABEL, TORQUE_LABEL, type PowerChoice, type TorqueChoice } from '../lib/display-curve';
+import { displayCurve, mixtureChannels, POWER_LABEL, TORQUE_LABEL, type MixtureChoice, type PowerChoice, type TorqueChoice } from '../lib/display-curve';
 import { AfrChart, RunChart } from '../components/run-chart';
+import { CORRECTION_HINT, CORRECTION_OPTIONS } from '../lib/correction';
 import { CrossCheckBadge, RunStatusBadge } from '../components/run-status';
 import { MappingDialog } from '../components/mapping-dialog';
 import { RunEditForm } from '../components/run-edit-form';
 
-const STANDARD_OPTIONS = CORRECTION_IDS.map((id) => ({ value: id, label: CORRECTION_STANDARDS.find((s) => s.id === id)?.label ?? id }));
+const STANDARD_OPTIONS = CORRECTION_OPTIONS;
+const STOICH = formatNumber(GASOLINE_STOICH_AFR, { decimals: 1 });
+
+function pick<T extends string>(value: string | null, allowed: readonly T[], fallback: T): T {
+  return value !== null && (allowed as readonly string[]).includes(value) ? (value as T) : fallback;
+}
+
+/**
+ * The run page's view choices, kept in the URL search params so a reload or a shared link keeps
+ * them: ?power=kw&torque=nm&correction=din-70020&mixture=lambda. Defaults are left out of the URL.
+ */
+function useViewChoices(defaultStandard: CorrectionId) {
+  const [params, setParams] = useSearchParams();
+  const power = pick<PowerChoice>(params.get('power'), ['hp', 'kw'], 'hp');
+  const torque = pick<TorqueChoice>(params.get('torque'), ['lbft', 'nm'], 'lbft');
+  const standard = pick<CorrectionId>(params.get('correction'), CORRECTION_IDS, defaultStandard);
+  const mixture = pick<MixtureChoice>(params.get('mixture'), ['afr', 'lambda'], 'afr');
+  const set = (key: 'power' | 'torque' | 'correction' | 'mixture', value: string, fallback: string) =>
+    setParams(
+      (old) => {
+        const next = new URLSearchParams(old);
+        if (value === fallback) next.delete(key);
+        else next.set(key, value);
+        return next;
+      },
+      { replace: true },
+    );
+  return {
+    power,
+    torque,
+    standard,
+    mixture,
+    setPower: (v: PowerChoice) => set('power', v, 'hp'),
+    setTorque: (v: TorqueChoice) => set('torque', v, 'lbft'),
+    setStandard: (v: CorrectionId) => set('correction', v, defaultStandard),
+    setMixture: (v: MixtureChoice) => set('mixture', v, 'afr'),
+  };
+}
 
 function CurveCard({ run }: { run: RunDetailDto }) {
-  const [power, setPower] = useState<PowerChoice>('hp');
-  const [torque, setTorque] = useState<TorqueChoice>('lbft');
-  const [standard, setStandard] = useState<CorrectionId>(run.correctionStandard ?? 'none');
+  const { power, torque, standard, mixture, setPower, setTorque, setStandard, setMixture } = useViewChoices(run.correctionStandard ?? 'none');
   const curve = useMemo(() => displayCurve(run, standard, power, torque), [run, standard, power, torque]);
   const pu = POWER_LABEL[power];
   const tu = TORQUE_LABEL[torque];
   const std = STANDARD_OPTIONS.find((o) => o.value === standard)?.label;
   if (!curve) return null;
   const hasAfr = Object.keys(curve.afr).length > 0;
+  const crossing = power === 'hp' && torque === 'lbft' ? ' In hp and lb·ft the two curves cross at 5,252 rpm.' : power === 'kw' && torque === 'nm' ? ' In kW and N·m they cross at 9,549 rpm.' : '';
   return (
     <>
       <Card
         title="Power and torque"
-        description={`${standard === 'none' || curve.problem ? 'Uncorrected' : `Corrected to ${std}`}. Power is the solid line, torque the dashed one.`}
+        description={`${standard === 'none' || curve.problem ? 'Uncorrected' : `Corrected to ${std}`}. Power is the solid line, torque the dashed one, on one shared scale.${crossing}`}
         actions={
-          <div className="flex flex-wrap items-end gap-2">
+          <div className="flex flex-wrap items-start gap-2">
             <SelectField label="Power unit" containerClassName="w-28" value={power} onChange={(e) => setPower(e.target.value as PowerChoice)} options={[{ value: 'hp', label: 'hp' }, { value: 'kw', label: 'kW' }]} />
             <SelectField label="Torque unit" containerClassName="w-28" value={torque} onChange={(e) => setTorque(e.target.value as TorqueChoice)} options={[{ value: 'lbft', label: 'lb·ft' }, { value: 'nm', label: 'N·m' }]} />
-            <SelectField label="Correction" containerClassName="w-48" value={standard} onChange={(e) => setStandard(e.target.value as CorrectionId)} options={STANDARD_OPTIONS} />
+            <SelectField label="Correction" containerClassName="w-64" value={standard} onChange={(e) => setStandard(e.target.value as CorrectionId)} options={STANDARD_OPTIONS} hint={CORRECTION_HINT} />
           </div>
         }
       >
@@ -57,8 +94,33 @@ function CurveCard({ run }: { run: RunDetailDto }) {
         </div>
       </Card>
       {hasAfr && (
-        <Card title="Air–fuel ratio" description={`${Object.keys(curve.afr).join(', ')}. Leaner mixtures raise cylinder-head temperature; follow the engine maker's specifications.`}>
-          <AfrChart curve={curve} />
+        <Card
+          title={mixture === 'afr' ? 'Air–fuel ratio' : 'Lambda'}
+          description={`${mixtureChannels(curve.afr, mixture)
+            .map((c) => c.label)
+            .join(', ')}.`}
+          actions={
+            <SelectField
+              label="Show mixture as"
+              containerClassName="w-64"
+              value={mixture}
+              onChange={(e) => setMixture(e.target.value as MixtureChoice)}
+              options={[
+                { value: 'afr', label: 'AFR (air–fuel ratio)' },
+                { value: 'lambda', label: 'Lambda' },
+              ]}
+              hint={
+                <span title={`Lambda = AFR ÷ ${STOICH}. ${STOICH} is the stoichiometric air–fuel ratio of gasoline, common practice for petrol; other fuels and blends differ.`}>
+                  Lambda = AFR ÷ {STOICH} (gasoline stoichiometric ratio, common practice for petrol).
+                </span>
+              }
+            />
+          }
+        >
+          <AfrChart curve={curve} mode={mixture} />
+          <Caution className="mt-3" title="Mixture and engine heat">
+            Leaner mixtures and more power raise cylinder-head temperatures. Defer to licensed technicians and the engine maker&apos;s specifications before changing fuelling.
+          </Caution>
         </Card>
       )}
     </>
@@ -100,13 +162,14 @@ function RunView({ run }: { run: RunDetailDto }) {
   const restore = useRestoreRun();
   const canEdit = WORKSHOP.includes(user.role);
   const isOwner = user.role === 'owner';
+  const isStaff = STAFF.includes(user.role);
   const deleted = Boolean(run.deletedAt);
   const name = run.label ?? run.originalName;
   return (
     <div className="mx-auto max-w-7xl space-y-5">
       <PageHeader
         back={
-          STAFF.includes(user.role) ? (
+          isStaff ? (
             <Link to={paths.runs} className="font-semibold text-accent">
               ← All runs
             </Link>
@@ -119,7 +182,7 @@ function RunView({ run }: { run: RunDetailDto }) {
               {run.bikeLabel}
             </Link>{' '}
             · {run.customerName}
-            {run.sessionId && (
+            {run.sessionId && isStaff && (
               <>
                 {' '}
                 ·{' '}
@@ -144,7 +207,7 @@ function RunView({ run }: { run: RunDetailDto }) {
         }
         secondaryActions={
           <>
-            {STAFF.includes(user.role) && (
+            {isStaff && (
               <a href={`/api/runs/${run.id}/raw`} download={run.originalName} className="inline-flex min-h-11 items-center gap-2 rounded-control border border-line-strong bg-paper-raised px-4 font-semibold text-ink hover:bg-paper-sunk">
                 <Icon name="file" size={18} /> Download original file
               </a>
@@ -179,7 +242,7 @@ function RunView({ run }: { run: RunDetailDto }) {
               Choose columns…
             </Button>
           )}
-          <MappingDialog runId={run.id} fileName={run.originalName} open={mapping} onClose={() => setMapping(false)} onMapped={() => toast.success('File read with the chosen columns')} />
+          <MappingDialog runId={run.id} fileName={run.originalName} error={run.error} open={mapping} onClose={() => setMapping(false)} onMapped={() => toast.success('File read with the chosen columns')} />
         </Caution>
       )}
       {run.status === 'failed' && (
@@ -200,8 +263,10 @@ function RunView({ run }: { run: RunDetailDto }) {
                 </li>
               ))}
             </ul>
-          ) : (
+          ) : run.status === 'ready' ? (
             <p className="text-ink-muted">No warnings: the file read cleanly.</p>
+          ) : (
+            <p className="text-ink-muted">{run.status === 'failed' ? 'No curve was read from this file, so there is nothing to check yet.' : 'Warnings appear once the columns are chosen and the file is read.'}</p>
           )}
           {run.note && (
             <div className="mt-4 border-t border-line pt-3">

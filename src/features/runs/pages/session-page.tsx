@@ -15,7 +15,7 @@ import { useSetReferenceRun } from '../api/set-reference-run';
 import { RunStatusBadge } from '../components/run-status';
 import { StageSelect } from '../components/stage-select';
 import { SafetyChecklist } from '../components/safety-checklist';
-import { CORRECTION_OPTIONS } from '../components/session-form';
+import { CORRECTION_OPTIONS } from '../lib/correction';
 
 const col = createColumnHelper<RunSummaryDto>();
 
