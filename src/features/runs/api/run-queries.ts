@@ -26,6 +26,8 @@ export interface RunPreview {
   headers: string[];
   rows: string[][];
   suggestions: Record<string, unknown>;
+  /** Roles the reader could not settle ('rpm', 'torque', 'power'); empty when not told. */
+  needs: string[];
 }
 
 interface RawPreview {
@@ -33,10 +35,11 @@ interface RawPreview {
   previewRows?: string[][];
   rows?: string[][];
   suggestions?: Record<string, unknown>;
+  needs?: string[];
 }
 
 export function normalisePreview(p: RawPreview | null | undefined): RunPreview {
-  return { headers: p?.headers ?? [], rows: p?.previewRows ?? p?.rows ?? [], suggestions: p?.suggestions ?? {} };
+  return { headers: p?.headers ?? [], rows: p?.previewRows ?? p?.rows ?? [], suggestions: p?.suggestions ?? {}, needs: Array.isArray(p?.needs) ? p.needs : [] };
 }
 
 export const runQueries = {

@@ -1,8 +1,9 @@
 import { useEffect, useState } from 'react';
+import type { z } from 'zod';
 import { useQuery } from '@tanstack/react-query';
 import type { RunSummaryDto } from '@shared/schemas/run';
 import { columnMappingInput } from '@shared/schemas/run';
-import { Button, CheckboxField, Dialog, ErrorState, FormError, LoadingState, SelectField, TextField } from '@/components/ui';
+import { Button, CheckboxField, cn, Dialog, ErrorState, FormError, LoadingState, SelectField, TextField } from '@/components/ui';
 import { runQueries } from '../api/run-queries';
 import { useApplyMapping, type ApplyMapping } from '../api/apply-mapping';
 
@@ -28,6 +29,20 @@ interface Choice {
   layoutName: string;
 }
 
+/** The mapping the choice describes, or the first thing to fix. */
+function check(choice: Choice): { mapping: z.output<typeof columnMappingInput> | null; problem: string | null } {
+  const parsed = columnMappingInput.safeParse({
+    rpm: choice.rpm,
+    torque: choice.torque ? { column: choice.torque, unit: choice.torqueUnit } : undefined,
+    power: choice.power ? { column: choice.power, unit: choice.powerUnit } : undefined,
+  });
+  if (!parsed.success) return { mapping: null, problem: parsed.error.issues[0]?.message ?? 'Choose the engine-speed column and a torque or power column.' };
+  const used = [choice.rpm, choice.torque, choice.power].filter(Boolean);
+  if (new Set(used).size !== used.length) return { mapping: null, problem: 'Each column can be used once: engine speed, torque and power need different columns.' };
+  if (choice.save && !choice.layoutName.trim()) return { mapping: null, problem: 'Give the layout a name, or untick “Save this layout”.' };
+  return { mapping: parsed.data, problem: null };
+}
+
 function suggested(s: Record<string, unknown>, key: string): { column?: string; unit?: string } {
   const v = s[key];
   if (typeof v === 'string') return { column: v };
@@ -38,16 +53,48 @@ function suggested(s: Record<string, unknown>, key: string): { column?: string; 
   return {};
 }
 
+type Issue = { code: string; message: string } | null | undefined;
+
+/**
+ * Why the dialog is open, in plain words, from the reader's error code (server/analysis/errors.ts)
+ * and the roles it could not settle (`needs` of its mapping help).
+ */
+export function mappingReason(error: Issue, needs: string[], rpmColumn: string | undefined): string {
+  const rpm = rpmColumn ? `“${rpmColumn}”` : 'a column';
+  switch (error?.code) {
+    case 'NO_RPM_COLUMN':
+      return 'Pullbook found no engine-speed (rpm) column in this file. Choose it below, with the torque or power column.';
+    case 'NO_POWER_OR_TORQUE':
+      return `Pullbook took engine speed from ${rpm} but recognised neither a torque nor a power column. Choose the torque or power column below, if the file has one.`;
+    case 'NEEDS_MAPPING':
+      if (needs.length && !needs.includes('rpm')) return `Pullbook took engine speed from ${rpm} but could not tell which columns are torque and power. Choose them below.`;
+      return 'Pullbook could not recognise the columns of this file with confidence. Check engine speed, torque and power below.';
+    default:
+      return 'Choose which columns hold engine speed, torque and power.';
+  }
+}
+
+/** True when every non-empty preview value of the column reads as a number (so it aligns right). */
+function numericColumn(rows: string[][], c: number): boolean {
+  const values = rows.map((r) => (r[c] ?? '').trim()).filter(Boolean);
+  return values.length > 0 && values.every((v) => /^[-+\u2212]?(\d+([.,]\d*)?|[.,]\d+)([eE][-+]?\d+)?$/.test(v));
+}
+
 /**
  * Choose the columns of a file Pullbook could not read on its own, from a preview of its first
  * rows. The layout can be saved so the same header is read automatically next time.
  */
-export function MappingDialog({ runId, fileName, open, onClose, onMapped }: { runId: string; fileName: string; open: boolean; onClose: () => void; onMapped?: (run: RunSummaryDto) => void }) {
+export function MappingDialog({ runId, fileName, open, onClose, onMapped, error }: { runId: string; fileName: string; open: boolean; onClose: () => void; onMapped?: (run: RunSummaryDto) => void; error?: Issue }) {
   const preview = useQuery({ ...runQueries.preview(runId), enabled: open });
+  // The stored run knows why it was not read when the caller does not.
+  const run = useQuery({ ...runQueries.detail(runId), enabled: open && !error });
+  const reason = mappingReason(error ?? run.data?.error, preview.data?.needs ?? [], suggested(preview.data?.suggestions ?? {}, 'rpm').column);
   const apply = useApplyMapping();
   const [choice, setChoice] = useState<Choice>({ rpm: '', torque: '', torqueUnit: 'lbft', power: '', powerUnit: 'hp', save: false, layoutName: '' });
   const [problem, setProblem] = useState<string | null>(null);
   const headers = preview.data?.headers ?? [];
+  const previewRows = (preview.data?.rows ?? []).slice(0, PREVIEW_ROWS);
+  const numeric = headers.map((_, c) => numericColumn(previewRows, c));
 
   useEffect(() => {
     if (!preview.data) return;
@@ -66,26 +113,20 @@ export function MappingDialog({ runId, fileName, open, onClose, onMapped }: { ru
     }));
   }, [preview.data]);
 
-  const set = <K extends keyof Choice>(k: K, v: Choice[K]) => setChoice((c) => ({ ...c, [k]: v }));
+  // Once a problem is shown, every change re-checks it, so it clears as soon as the choice is fixed.
+  const set = <K extends keyof Choice>(k: K, v: Choice[K]) => {
+    const next = { ...choice, [k]: v };
+    setChoice(next);
+    if (problem) setProblem(check(next).problem);
+    if (apply.error) apply.reset();
+  };
   const columnOptions = headers.map((h, i) => ({ value: h, label: h || `Column ${i + 1}` }));
 
   const submit = async () => {
-    setProblem(null);
-    const mapping = {
-      rpm: choice.rpm,
-      torque: choice.torque ? { column: choice.torque, unit: choice.torqueUnit } : undefined,
-      power: choice.power ? { column: choice.power, unit: choice.powerUnit } : undefined,
-    };
-    const parsed = columnMappingInput.safeParse(mapping);
-    if (!parsed.success) {
-      setProblem(parsed.error.issues[0]?.message ?? 'Check the columns');
-      return;
-    }
-    if (choice.save && !choice.layoutName.trim()) {
-      setProblem('Give the layout a name, or untick “Save this layout”.');
-      return;
-    }
-    const body: ApplyMapping = { mapping: parsed.data, saveLayoutName: choice.save ? choice.layoutName.trim() : undefined };
+    const checked = check(choice);
+    setProblem(checked.problem);
+    if (!checked.mapping) return;
+    const body: ApplyMapping = { mapping: checked.mapping, saveLayoutName: choice.save ? choice.layoutName.trim() : undefined };
     try {
       const run = await apply.mutateAsync({ runId, ...body });
       if (run) onMapped?.(run);
@@ -104,7 +145,7 @@ export function MappingDialog({ runId, fileName, open, onClose, onMapped }: { ru
       title="Choose the columns"
       description={
         <>
-          Pullbook could not tell which column of <span className="font-semibold text-ink">{fileName}</span> is engine speed. Pick the columns below; the file is read again with them.
+          <span className="font-semibold text-ink [overflow-wrap:anywhere]">{fileName}</span>: {reason} The file is read again with the columns you choose.
         </>
       }
       footer={
@@ -137,7 +178,7 @@ export function MappingDialog({ runId, fileName, open, onClose, onMapped }: { ru
                   <thead className="bg-paper-sunk">
                     <tr>
                       {headers.map((h, i) => (
-                        <th key={i} scope="col" className="whitespace-nowrap border-b border-line px-3 py-1.5 text-left font-semibold text-ink-muted">
+                        <th key={i} scope="col" className={cn('whitespace-nowrap border-b border-line px-3 py-1.5 font-semibold text-ink-muted', numeric[i] ? 'text-right' : 'text-left')}>
                           {h || `Column ${i + 1}`}
                           {[choice.rpm, choice.torque, choice.power].includes(h) && h !== '' && (
                             <span className="ml-1 font-normal text-accent">
@@ -149,10 +190,10 @@ export function MappingDialog({ runId, fileName, open, onClose, onMapped }: { ru
                     </tr>
                   </thead>
                   <tbody>
-                    {preview.data!.rows.slice(0, PREVIEW_ROWS).map((row, r) => (
+                    {previewRows.map((row, r) => (
                       <tr key={r}>
                         {headers.map((_, c) => (
-                          <td key={c} className="num whitespace-nowrap border-b border-line px-3 py-1 text-right">
+                          <td key={c} className={cn('whitespace-nowrap border-b border-line px-3 py-1', numeric[c] ? 'num text-right' : 'text-left')}>
                             {row[c] ?? ''}
                           </td>
                         ))}

@@ -57,7 +57,7 @@ function KeptFile({ item, runId, message, onMapped }: { item: UploadItem; runId:
         <Button size="sm" variant="primary" onClick={() => setOpen(true)}>
           Choose columns…
         </Button>
-        <MappingDialog runId={runId} fileName={item.file.name} open={open} onClose={() => setOpen(false)} onMapped={onMapped} />
+        <MappingDialog runId={runId} fileName={item.file.name} open={open} onClose={() => setOpen(false)} onMapped={onMapped} error={run.data?.error ?? (item.result && !item.result.ok ? item.result.error : undefined)} />
       </div>
     );
   }
@@ -79,9 +79,14 @@ function ResultBody({ item, bikeId, onResult }: { item: UploadItem; bikeId: stri
   const r = item.result;
   if (item.state !== 'done' || !r) {
     const pct = item.total ? (item.loaded / item.total) * 100 : 0;
+    const label = item.state === 'queued' ? `Waiting: ${item.file.name}` : item.state === 'analysing' ? `Reading ${item.file.name}` : `Uploading ${item.file.name}`;
     return (
       <ProgressBar
-        label={item.state === 'queued' ? `Waiting: ${item.file.name}` : item.state === 'analysing' ? `Reading ${item.file.name}` : `Uploading ${item.file.name}`}
+        label={
+          <span className="[overflow-wrap:anywhere]" title={item.file.name}>
+            {label}
+          </span>
+        }
         value={item.state === 'queued' ? 0 : pct}
         valueText={item.state === 'analysing' ? 'Sent, reading…' : item.state === 'queued' ? 'Waiting' : undefined}
       />
@@ -143,7 +148,8 @@ export function UploadResults({ items, bikeId, onResult }: { items: UploadItem[]
         {items.map((item) => (
           <li key={item.key} className="grid gap-2 px-4 py-3 md:grid-cols-[minmax(10rem,16rem)_1fr]" data-testid="upload-item">
             <div className="min-w-0">
-              <div className="truncate font-medium text-ink" title={item.file.name}>
+              {/* Long names wrap anywhere (no hidden part); the title repeats the full name. */}
+              <div className="font-medium text-ink [overflow-wrap:anywhere]" title={item.file.name}>
                 {item.file.name}
               </div>
               <div className="num text-sm text-ink-subtle">{formatFileSize(item.file.size)}</div>
