@@ -1,15 +1,18 @@
+import { useEffect, useRef } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useQuery } from '@tanstack/react-query';
-import { CORRECTION_IDS, sessionInput, type SessionDto } from '@shared/schemas/run';
-import { CORRECTION_STANDARDS } from '@server/analysis/correction';
+import { sessionInput, type SessionDto } from '@shared/schemas/run';
+import { cTo, kpaTo, pressureToKpa, temperatureToC } from '@server/analysis/units';
 import { Button, FormError, NumberField, SelectField, TextAreaField, TextField } from '@/components/ui';
+import { formatNumber } from '@shared/format';
 import { ApiError, applyFieldErrors } from '@/lib/api-client';
 import { sessionQueries } from '../api/session-queries';
 import { useCreateSession, type SessionInput } from '../api/create-session';
+import { CORRECTION_HINT, CORRECTION_OPTIONS } from '../lib/correction';
 
-export const CORRECTION_OPTIONS = CORRECTION_IDS.map((id) => ({ value: id, label: CORRECTION_STANDARDS.find((s) => s.id === id)?.label ?? id }));
+export type UnitSystem = 'imperial' | 'metric';
 
 function localNow(): string {
   const d = new Date();
@@ -17,30 +20,125 @@ function localNow(): string {
   return d.toISOString().slice(0, 16);
 }
 
-/** The API's schema, with the two fields a form holds as text (a local date-time, an optional dyno). */
-const sessionFormSchema = sessionInput.extend({ startedAt: z.string().optional(), dynoId: z.string().optional() });
-type FormValues = z.input<typeof sessionFormSchema>;
+/** What the form shows for each unit system. The API always takes °C and kPa. */
+const UNIT_TEXT = {
+  imperial: { temperature: '°F', pressure: 'inHg' },
+  metric: { temperature: '°C', pressure: 'kPa' },
+} as const;
 
-/** A new dyno session for a bike, with the air conditions that correction needs. */
-export function SessionForm({ bikeId, onCreated, onCancel }: { bikeId: string; onCreated: (s: SessionDto) => void; onCancel?: () => void }) {
+/** The entered value in the API's units (°C, kPa); 1 inHg = 3.38638 kPa (NIST SP 811). */
+export function toApiConditions(units: UnitSystem, temperature: number | null, pressure: number | null): { ambientTempC: number | null; baroKpa: number | null } {
+  const imperial = units === 'imperial';
+  return {
+    ambientTempC: temperature === null ? null : imperial ? temperatureToC(temperature, 'f') : temperature,
+    baroKpa: pressure === null ? null : imperial ? pressureToKpa(pressure, 'inhg') : pressure,
+  };
+}
+
+/**
+ * Station pressure on earth lies between about 60 and 110 kPa (17.7–32.5 inHg), so the two ranges
+ * never overlap: a number inside one while the other unit is selected was typed in the other unit.
+ */
+export function pressureLooksLike(units: UnitSystem, value: number | null | undefined): UnitSystem | null {
+  if (typeof value !== 'number' || !Number.isFinite(value)) return null;
+  const asKpa = pressureToKpa(value, 'inhg');
+  if (units === 'metric' && (value < 60 || value > 110) && asKpa >= 60 && asKpa <= 110) return 'imperial';
+  if (units === 'imperial' && (asKpa < 60 || asKpa > 110) && value >= 60 && value <= 110) return 'metric';
+  return null;
+}
+
+const blankNumber = z.preprocess(
+  (v) => (v === '' || v === null || v === undefined || (typeof v === 'number' && Number.isNaN(v)) ? null : typeof v === 'string' ? Number(v) : v),
+  z.number({ invalid_type_error: 'Enter a number' }).nullable(),
+);
+
+/**
+ * The API's session schema in the shape the form holds: a local date-time as text, an optional
+ * dyno, and temperature and pressure in the shop's units. The ranges are the API's own (checked
+ * with sessionInput after conversion) and the messages speak the units on screen.
+ */
+const sessionFormSchema = z
+  .object({
+    units: z.enum(['imperial', 'metric']),
+    startedAt: z.string().optional(),
+    dynoId: z.string().optional(),
+    ambientTemp: blankNumber,
+    baro: blankNumber,
+    humidityPct: sessionInput.shape.humidityPct,
+    correctionStandard: sessionInput.shape.correctionStandard,
+    notes: sessionInput.shape.notes,
+  })
+  .superRefine((v, ctx) => {
+    const api = toApiConditions(v.units, v.ambientTemp, v.baro);
+    const u = UNIT_TEXT[v.units];
+    const range = (minC: number, maxC: number, to: (x: number) => number) => `${formatNumber(to(minC), { decimals: 1 })} and ${formatNumber(to(maxC), { decimals: 1 })}`;
+    if (!sessionInput.shape.ambientTempC.safeParse(api.ambientTempC).success) {
+      const text = v.units === 'imperial' ? range(-40, 60, (c) => cTo(c, 'f')) : range(-40, 60, (c) => c);
+      ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['ambientTemp'], message: `Ambient temperature must be between ${text} ${u.temperature}` });
+    }
+    if (!sessionInput.shape.baroKpa.safeParse(api.baroKpa).success) {
+      const other = pressureLooksLike(v.units, v.baro);
+      const text = v.units === 'imperial' ? range(60, 110, (k) => kpaTo(k, 'inhg')) : range(60, 110, (k) => k);
+      ctx.addIssue({
+        code: z.ZodIssueCode.custom,
+        path: ['baro'],
+        message: other ? `That looks like ${UNIT_TEXT[other].pressure}, not ${u.pressure} — switch units?` : `Barometric pressure must be between ${text} ${u.pressure}`,
+      });
+    }
+  });
+type FormValues = z.input<typeof sessionFormSchema>;
+type FormOutput = z.output<typeof sessionFormSchema>;
+
+/** A new dyno session for a bike, with the air conditions that correction needs, in the shop's units. */
+export function SessionForm({ bikeId, units: shopUnits, onCreated, onCancel }: { bikeId: string; units: UnitSystem; onCreated: (s: SessionDto) => void; onCancel?: () => void }) {
   const dynos = useQuery(sessionQueries.dynos());
   const create = useCreateSession();
-  const form = useForm<FormValues>({
+  const form = useForm<FormValues, unknown, FormOutput>({
     resolver: zodResolver(sessionFormSchema),
-    defaultValues: { bikeId, startedAt: localNow(), dynoId: '', correctionStandard: 'sae-j1349', notes: '' },
+    mode: 'onTouched',
+    defaultValues: { units: shopUnits, startedAt: localNow(), dynoId: '', correctionStandard: 'sae-j1349', notes: '' },
   });
+  // The shop's units arrive after the first render; follow them until the user picks.
+  const picked = useRef(false);
+  useEffect(() => {
+    if (!picked.current) form.setValue('units', shopUnits);
+  }, [shopUnits, form]);
+
   const errors = form.formState.errors;
+  const units = form.watch('units');
+  const baro = form.watch('baro');
+  const u = UNIT_TEXT[units];
+  const suggestion = pressureLooksLike(units, typeof baro === 'number' ? baro : Number(baro));
+
+  const unitsChanged = () => {
+    picked.current = true;
+    // Re-check the numbers as typed, now read in the other units.
+    const { touchedFields, isSubmitted } = form.formState;
+    if (touchedFields.ambientTemp || touchedFields.baro || isSubmitted) void form.trigger(['ambientTemp', 'baro']);
+  };
+  const switchUnits = (next: UnitSystem) => {
+    form.setValue('units', next);
+    unitsChanged();
+  };
+
   const submit = form.handleSubmit(async (v) => {
+    const conditions = toApiConditions(v.units, v.ambientTemp, v.baro);
     try {
       const s = await create.mutateAsync({
-        ...v,
         bikeId,
         dynoId: v.dynoId || null,
         startedAt: v.startedAt ? new Date(v.startedAt).toISOString() : undefined,
+        ...conditions,
+        humidityPct: v.humidityPct,
+        correctionStandard: v.correctionStandard,
+        notes: v.notes,
       } as SessionInput);
       onCreated(s);
     } catch (e) {
-      applyFieldErrors(e, form.setError);
+      // The API names its fields in °C and kPa; point them at the fields on screen.
+      applyFieldErrors(e, (name: string, err: { message: string }) =>
+        form.setError((name === 'ambientTempC' ? 'ambientTemp' : name === 'baroKpa' ? 'baro' : name) as never, err),
+      );
     }
   });
   const dynoOptions = (dynos.data ?? []).map((d) => ({ value: d.id, label: d.name }));
@@ -55,9 +153,25 @@ export function SessionForm({ bikeId, onCreated, onCancel }: { bikeId: string; o
           {...form.register('dynoId')}
           error={errors.dynoId}
         />
-        <SelectField label="Correction standard" options={CORRECTION_OPTIONS} {...form.register('correctionStandard')} error={errors.correctionStandard} />
-        <NumberField label="Ambient temperature" unit="°C" {...form.register('ambientTempC', { valueAsNumber: true })} error={errors.ambientTempC} />
-        <NumberField label="Barometric pressure" unit="kPa" {...form.register('baroKpa', { valueAsNumber: true })} error={errors.baroKpa} hint="Station pressure, not sea-level." />
+        <SelectField label="Correction standard" options={CORRECTION_OPTIONS} {...form.register('correctionStandard')} error={errors.correctionStandard} hint={CORRECTION_HINT} />
+        <SelectField
+          label="Units for the conditions"
+          options={[
+            { value: 'imperial', label: '°F and inHg' },
+            { value: 'metric', label: '°C and kPa' },
+          ]}
+          {...form.register('units', { onChange: () => unitsChanged() })}
+          hint={`The shop's setting is ${shopUnits === 'imperial' ? '°F and inHg' : '°C and kPa'}; stored as °C and kPa.`}
+        />
+        <NumberField label="Ambient temperature" unit={u.temperature} {...form.register('ambientTemp', { valueAsNumber: true })} error={errors.ambientTemp} />
+        <div>
+          <NumberField label="Barometric pressure" unit={u.pressure} {...form.register('baro', { valueAsNumber: true })} error={errors.baro} hint="Station pressure, not sea-level." />
+          {suggestion && (
+            <Button size="sm" variant="secondary" className="mt-2" onClick={() => switchUnits(suggestion)}>
+              Switch to {UNIT_TEXT[suggestion].temperature} and {UNIT_TEXT[suggestion].pressure}
+            </Button>
+          )}
+        </div>
         <NumberField label="Relative humidity" unit="%" {...form.register('humidityPct', { valueAsNumber: true })} error={errors.humidityPct} />
       </div>
       <TextAreaField label="Session notes" rows={2} {...form.register('notes')} error={errors.notes} />

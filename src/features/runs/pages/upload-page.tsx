@@ -1,4 +1,4 @@
-import { useState, type ReactNode } from 'react';
+import { useEffect, useRef, useState, type ReactNode } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
 import type { SessionDto } from '@shared/schemas/run';
@@ -8,9 +8,11 @@ import { paths } from '@/config/paths';
 import { bikeLabel, lookupQueries } from '../api/run-queries';
 import { sessionQueries } from '../api/session-queries';
 import { stageQueries } from '../api/stage-queries';
+import { shopQueries } from '../api/shop-queries';
 import { useUploadRuns } from '../api/upload-runs';
 import { BikePicker } from '../components/bike-picker';
-import { SessionForm, CORRECTION_OPTIONS } from '../components/session-form';
+import { SessionForm } from '../components/session-form';
+import { CORRECTION_OPTIONS } from '../lib/correction';
 import { SafetyChecklist } from '../components/safety-checklist';
 import { UploadResults } from '../components/upload-results';
 
@@ -19,6 +21,12 @@ const MAX_BYTES = 50_000_000;
 
 export function sessionLabel(s: SessionDto): string {
   return `${formatDateTime(s.startedAt)}${s.dynoName ? ` · ${s.dynoName}` : ''} · ${formatCount(s.runCount, 'run')}`;
+}
+
+/** Sessions of the bike started today (local date). */
+export function todaysSessions(list: SessionDto[], now = new Date()): SessionDto[] {
+  const day = (d: Date) => `${d.getFullYear()}-${d.getMonth()}-${d.getDate()}`;
+  return list.filter((x) => day(new Date(x.startedAt)) === day(now));
 }
 
 function Conditions({ s }: { s: SessionDto }) {
@@ -70,6 +78,7 @@ function UploadScreen() {
   const sessions = useQuery({ ...sessionQueries.list(bikeId), enabled: Boolean(bikeId) });
   const session = useQuery({ ...sessionQueries.detail(sessionId), enabled: Boolean(sessionId) });
   const stages = useQuery({ ...stageQueries.list(bikeId), enabled: Boolean(bikeId) });
+  const shop = useQuery(shopQueries.shop());
 
   const setParam = (next: Record<string, string | null>) => {
     const p = new URLSearchParams(params);
@@ -79,6 +88,18 @@ function UploadScreen() {
     }
     setParams(p, { replace: true });
   };
+
+  // When exactly one session of this bike was started today, choose it for the tuner (once per
+  // bike, so clearing the choice sticks).
+  const preselectedFor = useRef<string | null>(null);
+  useEffect(() => {
+    if (!bikeId || sessionId || creating || !sessions.data || preselectedFor.current === bikeId) return;
+    preselectedFor.current = bikeId;
+    const today = todaysSessions(sessions.data);
+    if (today.length === 1) setParam({ sessionId: today[0].id });
+    // setParam is recreated every render; the ref keeps this to one run per bike.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [bikeId, sessionId, creating, sessions.data]);
 
   const s = session.data;
   const ready = Boolean(bikeId && s && s.safetyConfirmedAt);
@@ -92,7 +113,9 @@ function UploadScreen() {
   };
 
   return (
-    <div className="mx-auto max-w-5xl space-y-5">
+    // Toasts stack in the bottom-right corner; the bottom padding lets every control of the file
+    // list scroll clear of them.
+    <div className="mx-auto max-w-5xl space-y-5 pb-56">
       <PageHeader title="Upload runs" subtitle="Choose the bike and the session, confirm the bay checks, then drop the session's files." />
 
       <Card title={<StepTitle n={1}>Bike</StepTitle>} actions={bikeId && <Button size="sm" onClick={() => setParam({ bikeId: null, sessionId: null })}>Change bike</Button>}>
@@ -124,6 +147,7 @@ function UploadScreen() {
           {creating ? (
             <SessionForm
               bikeId={bikeId}
+              units={shop.data?.units ?? 'imperial'}
               onCancel={() => setCreating(false)}
               onCreated={(created) => {
                 setCreating(false);
