@@ -4,7 +4,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useQuery } from '@tanstack/react-query';
 import type { z } from 'zod';
 import { shopSettingsInput, type CorrectionStandard, type ShopDto, type ShopSettingsValues } from '@shared/schemas/shop';
-import { Button, Card, ErrorState, FormError, LoadingState, PageHeader, SelectField, TextAreaField, TextField, useToast } from '@/components/ui';
+import { Button, Card, ErrorState, FormError, LoadingState, PageHeader, SelectField, TextAreaField, TextField, useToast, errorMessage } from '@/components/ui';
 import { applyFieldErrors } from '@/lib/api-client';
 import { adminQueries } from '../api/admin-queries';
 import { useUpdateShop } from '../api/update-shop';
@@ -52,7 +52,9 @@ function ShopForm({ shop }: { shop: ShopDto }) {
       defaultCorrection: shop.defaultCorrection,
     },
   });
-  const { errors, isDirty } = form.formState;
+  const { errors, isDirty, isSubmitted } = form.formState;
+  // After a submit, every field problem is also summed up in the form's alert, so it is announced.
+  const fieldProblems = isSubmitted && Object.keys(errors).length ? `Check the fields marked below: ${Object.values(errors).map((e) => errorMessage(e)).filter(Boolean).join('; ')}.` : null;
 
   const onSubmit = form.handleSubmit(async (values) => {
     setFormError(null);
@@ -68,7 +70,7 @@ function ShopForm({ shop }: { shop: ShopDto }) {
 
   return (
     <form onSubmit={onSubmit} noValidate className="grid max-w-5xl gap-6 lg:grid-cols-2">
-      <FormError error={formError} className="lg:col-span-2" />
+      <FormError error={formError ?? fieldProblems} className="lg:col-span-2" />
       <Card title="On reports and e-mails" description="Printed in the header of every gain report.">
         <div className="space-y-4">
           <TextField label="Shop name" required error={errors.name} {...form.register('name')} />
@@ -102,7 +104,12 @@ function ShopForm({ shop }: { shop: ShopDto }) {
           />
           <SelectField
             label="Default correction standard"
-            hint="Corrects measured figures to standard air, so runs from different days compare fairly. Compare only runs corrected the same way."
+            hint={
+              <>
+                Corrects measured figures to standard air, so runs from different days compare fairly. Compare only runs corrected the same way. Motorcycle engine test practice is covered by
+                ISO 4106; shops choose the standard their customers expect.
+              </>
+            }
             options={Object.entries(CORRECTION_LABELS).map(([value, label]) => ({ value, label }))}
             error={errors.defaultCorrection}
             {...form.register('defaultCorrection')}

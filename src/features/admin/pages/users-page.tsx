@@ -7,7 +7,7 @@ import { Link } from 'react-router-dom';
 import { z } from 'zod';
 import { inviteUserInput } from '@shared/schemas/auth';
 import { ROLE_LABELS, STAFF, type Role } from '@shared/roles';
-import { Button, Card, ConfirmDialog, DataTable, ErrorState, FormError, PageHeader, SelectField, StatusBadge, TextField, useToast } from '@/components/ui';
+import { Button, Card, ConfirmDialog, DataTable, ErrorState, FormError, PageHeader, SelectField, StatusBadge, TextField, useToast, errorMessage } from '@/components/ui';
 import { ApiError, applyFieldErrors } from '@/lib/api-client';
 import { formatDateTime } from '@shared/format';
 import { useCurrentUser } from '@/lib/auth';
@@ -85,6 +85,8 @@ function UsersTable({ users, isLoading }: { users: UserDto[]; isLoading: boolean
             <SelectField
               label={`Role of ${u.name}`}
               hideLabel
+              // Wide enough for the longest role name ("Front desk") plus the chevron, at any table width.
+              containerClassName="w-44 min-w-44"
               className="min-h-10 py-1"
               value={u.role}
               disabled={update.isPending}
@@ -179,7 +181,9 @@ function InviteCard() {
   const invite = useInviteUser();
   const [formError, setFormError] = useState<string | null>(null);
   const form = useForm<InviteValues, unknown, z.output<typeof staffInviteForm>>({ resolver: zodResolver(staffInviteForm), mode: 'onTouched', defaultValues: { name: '', email: '', role: 'tuner' } });
-  const { errors } = form.formState;
+  const { errors, isSubmitted } = form.formState;
+  // After a submit, every field problem is also summed up in the form's alert, so it is announced.
+  const fieldProblems = isSubmitted && Object.keys(errors).length ? `Check the fields marked below: ${Object.values(errors).map((e) => errorMessage(e)).filter(Boolean).join('; ')}.` : null;
 
   const onSubmit = form.handleSubmit(async (values) => {
     setFormError(null);
@@ -197,7 +201,7 @@ function InviteCard() {
   return (
     <Card title="Invite a colleague" description="They get an e-mail with a link to choose a password.">
       <form onSubmit={onSubmit} noValidate className="space-y-4">
-        <FormError error={formError} title="The invitation was not sent" />
+        <FormError error={formError ?? fieldProblems} title="The invitation was not sent" />
         <TextField label="Name" required autoComplete="off" error={errors.name} {...form.register('name')} />
         <TextField label="E-mail" type="email" required autoComplete="off" error={errors.email} {...form.register('email')} />
         <SelectField label="Role" required options={staffOptions} error={errors.role} {...form.register('role')} />

@@ -1,9 +1,10 @@
+import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
 import { changePasswordInput } from '@shared/schemas/auth';
 import { ROLE_LABELS } from '@shared/roles';
-import { Button, Card, PageHeader, TextField, useToast } from '@/components/ui';
+import { Button, Card, FormError, PageHeader, TextField, errorMessage, useToast } from '@/components/ui';
 import { applyFieldErrors } from '@/lib/api-client';
 import { useCurrentUser } from '@/lib/auth';
 import { useChangePassword } from '../api/change-password';
@@ -18,15 +19,20 @@ export default function AccountPage() {
   const toast = useToast();
   const change = useChangePassword();
   const form = useForm<Values>({ resolver: zodResolver(changePasswordForm), defaultValues: { currentPassword: '', newPassword: '', confirm: '' } });
-  const { errors } = form.formState;
+  const [formError, setFormError] = useState<string | null>(null);
+  const { errors, isSubmitted } = form.formState;
+  // After a submit, every field problem is also summed up in the form's alert, so it is announced.
+  const fieldProblems = isSubmitted && Object.keys(errors).length ? `Check the fields marked below: ${Object.values(errors).map((e) => errorMessage(e)).filter(Boolean).join('; ')}.` : null;
 
   const onSubmit = form.handleSubmit(async ({ currentPassword, newPassword }) => {
+    setFormError(null);
     try {
       await change.mutateAsync({ currentPassword, newPassword });
       form.reset();
       toast.success('Password changed');
     } catch (err) {
-      if (!applyFieldErrors(err, form.setError)) toast.error('The password was not changed', { description: err instanceof Error ? err.message : undefined });
+      if (!applyFieldErrors(err, form.setError)) setFormError(err instanceof Error ? err.message : 'Try again in a moment.');
+      toast.error('The password was not changed');
     }
   });
 
@@ -46,6 +52,7 @@ export default function AccountPage() {
         </Card>
         <Card title="Change password">
           <form onSubmit={onSubmit} noValidate className="space-y-4">
+            <FormError error={formError ?? fieldProblems} title="The password was not changed" />
             <input type="text" name="username" autoComplete="username" value={user.email} readOnly hidden />
             <TextField label="Current password" type="password" autoComplete="current-password" error={errors.currentPassword} {...form.register('currentPassword')} />
             <TextField label="New password" type="password" autoComplete="new-password" hint="At least 10 characters." error={errors.newPassword} {...form.register('newPassword')} />

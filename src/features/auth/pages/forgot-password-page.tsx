@@ -4,7 +4,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { Link } from 'react-router-dom';
 import type { z } from 'zod';
 import { forgotPasswordInput } from '@shared/schemas/auth';
-import { Button, FormError, TextField } from '@/components/ui';
+import { Button, FormError, TextField, errorMessage } from '@/components/ui';
 import { applyFieldErrors } from '@/lib/api-client';
 import { paths } from '@/config/paths';
 import { AuthLayout } from '../components/auth-layout';
@@ -15,7 +15,9 @@ type Values = z.input<typeof forgotPasswordInput>;
 export default function ForgotPasswordPage() {
   const forgot = useForgotPassword();
   const form = useForm<Values>({ resolver: zodResolver(forgotPasswordInput), defaultValues: { email: '' } });
-  const { errors } = form.formState;
+  const { errors, isSubmitted } = form.formState;
+  // After a submit, every field problem is also summed up in the form's alert, so it is announced.
+  const fieldProblems = isSubmitted && Object.keys(errors).length ? `Check the fields marked below: ${Object.values(errors).map((e) => errorMessage(e)).filter(Boolean).join('; ')}.` : null;
 
   const [formError, setFormError] = useState<string | null>(null);
 
@@ -47,7 +49,7 @@ export default function ForgotPasswordPage() {
   return (
     <AuthLayout title="Reset your password" subtitle="Enter the e-mail address you sign in with; we will send a link to choose a new password." footer={back}>
       <form onSubmit={onSubmit} noValidate className="space-y-4">
-        <FormError error={formError} title="The link was not sent" />
+        <FormError error={formError ?? fieldProblems} title="The link was not sent" />
         <TextField label="E-mail" type="email" autoComplete="email" autoFocus error={errors.email} {...form.register('email')} />
         <Button type="submit" variant="primary" fullWidth loading={forgot.isPending} loadingText="Sending…">
           Send reset link

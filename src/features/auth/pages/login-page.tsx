@@ -3,7 +3,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { Link, Navigate, useNavigate, useSearchParams } from 'react-router-dom';
 import { loginInput } from '@shared/schemas/auth';
 import type { z } from 'zod';
-import { Button, FormError, LoadingState, TextField } from '@/components/ui';
+import { Button, FormError, LoadingState, TextField, errorMessage } from '@/components/ui';
 import { ApiError, applyFieldErrors } from '@/lib/api-client';
 import { useAuth } from '@/lib/auth';
 import { paths } from '@/config/paths';
@@ -19,7 +19,9 @@ export default function LoginPage() {
   const next = safeNext(params.get('next'));
   const [formError, setFormError] = useState<string | null>(null);
   const form = useForm<LoginValues>({ resolver: zodResolver(loginInput), defaultValues: { email: '', password: '' } });
-  const { errors, isSubmitting } = form.formState;
+  const { errors, isSubmitting, isSubmitted } = form.formState;
+  // After a submit, every field problem is also summed up in the form's alert, so it is announced.
+  const fieldProblems = isSubmitted && Object.keys(errors).length ? `Check the fields marked below: ${Object.values(errors).map((e) => errorMessage(e)).filter(Boolean).join('; ')}.` : null;
 
   if (isLoading) return <LoadingState message="Checking your sign-in…" />;
   if (user) return <Navigate to={next} replace />;
@@ -47,7 +49,7 @@ export default function LoginPage() {
       }
     >
       <form onSubmit={onSubmit} noValidate className="space-y-4">
-        <FormError error={formError} title="Not signed in" />
+        <FormError error={formError ?? fieldProblems} title="Not signed in" />
         <TextField label="E-mail" type="email" autoComplete="username" autoFocus error={errors.email} {...form.register('email')} />
         <TextField label="Password" type="password" autoComplete="current-password" error={errors.password} {...form.register('password')} />
         <Button type="submit" variant="primary" fullWidth loading={isSubmitting} loadingText="Signing in…">

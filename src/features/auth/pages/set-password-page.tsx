@@ -5,7 +5,7 @@ import { useQuery } from '@tanstack/react-query';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { z } from 'zod';
 import { passwordSchema } from '@shared/schemas/auth';
-import { Button, ErrorState, FormError, LoadingState, TextField, useToast } from '@/components/ui';
+import { Button, ErrorState, FormError, LoadingState, TextField, useToast, errorMessage } from '@/components/ui';
 import { ApiError, applyFieldErrors } from '@/lib/api-client';
 import { paths } from '@/config/paths';
 import { AuthLayout } from '../components/auth-layout';
@@ -68,7 +68,9 @@ function SetPasswordForm({ token, info, isInvite, title }: { token: string; info
   const toast = useToast();
   const [formError, setFormError] = useState<string | null>(null);
   const form = useForm<Values>({ resolver: zodResolver(setPasswordForm), defaultValues: { name: info.name, password: '', confirm: '' } });
-  const { errors } = form.formState;
+  const { errors, isSubmitted } = form.formState;
+  // After a submit, every field problem is also summed up in the form's alert, so it is announced.
+  const fieldProblems = isSubmitted && Object.keys(errors).length ? `Check the fields marked below: ${Object.values(errors).map((e) => errorMessage(e)).filter(Boolean).join('; ')}.` : null;
 
   const onSubmit = form.handleSubmit(async (values) => {
     setFormError(null);
@@ -97,7 +99,7 @@ function SetPasswordForm({ token, info, isInvite, title }: { token: string; info
       }
     >
       <form onSubmit={onSubmit} noValidate className="space-y-4">
-        <FormError error={formError} title="The password was not set" />
+        <FormError error={formError ?? fieldProblems} title="The password was not set" />
         <input type="text" name="username" autoComplete="username" value={info.email} readOnly hidden />
         {isInvite && <TextField label="Your name" autoComplete="name" hint="As the shop will see it. Change it if it is not right." error={errors.name} {...form.register('name')} />}
         <TextField label="New password" type="password" autoComplete="new-password" hint="At least 10 characters." error={errors.password} {...form.register('password')} />

@@ -5,7 +5,7 @@ import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { bikeFormSchema, type BikeDto, type BikeFormValues } from '@shared/schemas/bike';
 import { cubicInchesToCc } from '@shared/displacement';
 import type { ShopDto } from '@shared/schemas/shop';
-import { Button, Dialog, FormError, NumberField, SearchInput, SelectField, TextAreaField, TextField, cn, useDebouncedValue, useToast } from '@/components/ui';
+import { Button, Dialog, FormError, NumberField, SearchInput, SelectField, TextAreaField, TextField, cn, useDebouncedValue, useToast, errorMessage } from '@/components/ui';
 import { applyFieldErrors } from '@/lib/api-client';
 import { bikeQueries } from '../api/bike-queries';
 import { useCreateBike, type BikeFormData } from '../api/create-bike';
@@ -53,7 +53,9 @@ function BikeFormDialogBody({ onClose, bike, customerId, onSaved }: BikeFormDial
       notes: bike?.notes ?? '',
     },
   });
-  const { errors } = form.formState;
+  const { errors, isSubmitted } = form.formState;
+  // After a submit, every field problem is also summed up in the form's alert, so it is announced.
+  const fieldProblems = isSubmitted && Object.keys(errors).length ? `Check the fields marked below: ${Object.values(errors).map((e) => errorMessage(e)).filter(Boolean).join('; ')}.` : null;
   const families = useQuery(bikeQueries.engineFamilies());
   const listId = useId();
 
@@ -90,7 +92,7 @@ function BikeFormDialogBody({ onClose, bike, customerId, onSaved }: BikeFormDial
       }
     >
       <form id="bike-form" onSubmit={onSubmit} noValidate className="space-y-4">
-        <FormError error={formError} />
+        <FormError error={formError ?? fieldProblems} />
         <CustomerPicker control={form.control} register={form.register('customerId')} error={errors.customerId?.message} initialName={bike?.customerName} />
         <div className="grid gap-4 md:grid-cols-[1fr_1fr_8rem]">
           <TextField label="Make" required autoComplete="off" error={errors.make} {...form.register('make')} />

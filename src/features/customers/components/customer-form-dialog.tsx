@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { customerInput, type CustomerDto, type CustomerInput } from '@shared/schemas/customer';
-import { Button, Dialog, FormError, TextAreaField, TextField, useToast } from '@/components/ui';
+import { Button, Dialog, FormError, TextAreaField, TextField, useToast, errorMessage } from '@/components/ui';
 import { applyFieldErrors } from '@/lib/api-client';
 import { useCreateCustomer, type CustomerData } from '../api/create-customer';
 import { useUpdateCustomer } from '../api/update-customer';
@@ -32,7 +32,9 @@ function CustomerFormDialogBody({ onClose, customer, onSaved }: CustomerFormDial
     mode: 'onTouched',
     defaultValues: { name: customer?.name ?? '', email: customer?.email ?? '', phone: customer?.phone ?? '', notes: customer?.notes ?? '' },
   });
-  const { errors } = form.formState;
+  const { errors, isSubmitted } = form.formState;
+  // After a submit, every field problem is also summed up in the form's alert, so it is announced.
+  const fieldProblems = isSubmitted && Object.keys(errors).length ? `Check the fields marked below: ${Object.values(errors).map((e) => errorMessage(e)).filter(Boolean).join('; ')}.` : null;
 
   const onSubmit = form.handleSubmit(async (data) => {
     setFormError(null);
@@ -66,7 +68,7 @@ function CustomerFormDialogBody({ onClose, customer, onSaved }: CustomerFormDial
       }
     >
       <form id="customer-form" onSubmit={onSubmit} noValidate className="space-y-4">
-        <FormError error={formError} />
+        <FormError error={formError ?? fieldProblems} />
         <TextField label="Name" required autoComplete="off" autoFocus error={errors.name} {...form.register('name')} />
         <div className="grid gap-4 md:grid-cols-2">
           <TextField label="E-mail" type="email" autoComplete="off" hint="Where gain reports are sent." error={errors.email} {...form.register('email')} />

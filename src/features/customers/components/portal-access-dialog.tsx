@@ -4,7 +4,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { inviteUserInput } from '@shared/schemas/auth';
 import type { CustomerDto } from '@shared/schemas/customer';
-import { Button, Dialog, FormError, TextField, useToast } from '@/components/ui';
+import { Button, Dialog, FormError, TextField, useToast, errorMessage } from '@/components/ui';
 import { ApiError, applyFieldErrors } from '@/lib/api-client';
 import { useGivePortalAccess } from '../api/give-portal-access';
 
@@ -26,7 +26,9 @@ function PortalAccessDialogBody({ onClose, customer }: { onClose: () => void; cu
     mode: 'onTouched',
     defaultValues: { name: customer.name, email: customer.email ?? '' },
   });
-  const { errors } = form.formState;
+  const { errors, isSubmitted } = form.formState;
+  // After a submit, every field problem is also summed up in the form's alert, so it is announced.
+  const fieldProblems = isSubmitted && Object.keys(errors).length ? `Check the fields marked below: ${Object.values(errors).map((e) => errorMessage(e)).filter(Boolean).join('; ')}.` : null;
 
   const onSubmit = form.handleSubmit(async (values) => {
     setFormError(null);
@@ -60,7 +62,7 @@ function PortalAccessDialogBody({ onClose, customer }: { onClose: () => void; cu
       }
     >
       <form id="portal-form" onSubmit={onSubmit} noValidate className="space-y-4">
-        <FormError error={formError} title="The invitation was not sent" />
+        <FormError error={formError ?? fieldProblems} title="The invitation was not sent" />
         <TextField label="Name on the account" required error={errors.name} {...form.register('name')} />
         <TextField label="E-mail for signing in" type="email" required autoComplete="off" error={errors.email} {...form.register('email')} />
       </form>
