@@ -1,15 +1,14 @@
+import { SAFETY_CHECKS } from '@shared/schemas/run';
 import { Caution } from '@/components/ui';
 
-/** The checks before any pull. Short on purpose: it is read standing next to the roller. */
+/** The checks before any pull — the same list the session's safety checklist confirms (SAFETY_CHECKS). */
 export function DynoCaution() {
   return (
     <Caution title="Before every pull" level={2}>
       <ul>
-        <li>Restraints and wheel chocks checked</li>
-        <li>Cooling fan running, exhaust extraction on</li>
-        <li>Hearing protection on</li>
-        <li>Nobody in line with the roller or the rear wheel</li>
-        <li>Fire extinguisher at hand</li>
+        {SAFETY_CHECKS.map((c) => (
+          <li key={c.id}>{c.label}</li>
+        ))}
       </ul>
       <p className="text-sm">Follow the dyno maker’s manual and your local workplace rules; they come first.</p>
     </Caution>
