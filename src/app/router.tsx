@@ -36,7 +36,9 @@ const routes: RouteObject[] = [
   },
 ];
 
-const router = createBrowserRouter(routes);
+/** Shown while a lazily loaded page is fetched on the first load (React Router's HydrateFallback). */
+const hydrateFallback = <LoadingState message="Loading Pullbook…" />;
+const router = createBrowserRouter(routes.map((r) => ({ hydrateFallbackElement: hydrateFallback, ...r })));
 
 export function AppRouter() {
   return (
