@@ -1,9 +1,9 @@
-import { useMemo } from 'react';
+import { useEffect, useMemo, useState } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
 import { createColumnHelper, type PaginationState, type SortingState } from '@tanstack/react-table';
 import { RUN_STATUSES, type RunStatusId, type RunSummaryDto } from '@shared/schemas/run';
-import { Button, DataTable, ErrorState, Icon, PageHeader, SelectField, TextField } from '@/components/ui';
+import { Button, Caution, DataTable, ErrorState, Icon, PageHeader, SelectField, TextField, useDebouncedValue } from '@/components/ui';
 import { formatDate, formatHp, formatRpm, formatTorque } from '@shared/format';
 import { useCurrentUser } from '@/lib/auth';
 import { paths } from '@/config/paths';
@@ -27,6 +27,14 @@ function filtersFrom(params: URLSearchParams): RunFilters {
   return f;
 }
 
+/** Hidden below the given width, so the table fits a 10-inch tablet and a 1366 px laptop. */
+const fromLg = { headerClassName: 'hidden lg:table-cell', cellClassName: 'hidden lg:table-cell' };
+const from2xl = { headerClassName: 'hidden 2xl:table-cell', cellClassName: 'hidden 2xl:table-cell' };
+
+/**
+ * Peaks come right after the run's name so they stay on screen at every width; the customer and
+ * the tags (also filters above) give way first on narrower screens.
+ */
 const columns = [
   col.accessor('createdAt', { id: 'createdAt', header: 'Uploaded', cell: (c) => <span className="num">{formatDate(c.getValue())}</span> }),
   col.accessor((r) => r.label ?? r.originalName, {
@@ -34,15 +42,11 @@ const columns = [
     header: 'Run',
     enableSorting: false,
     cell: (c) => (
-      <Link to={paths.run(c.row.original.id)} className="font-semibold text-accent underline-offset-2 hover:underline">
+      <Link to={paths.run(c.row.original.id)} title={c.getValue()} className="block max-w-56 truncate font-semibold text-accent underline-offset-2 hover:underline">
         {c.getValue()}
       </Link>
     ),
   }),
-  col.accessor('bikeLabel', { header: 'Bike', enableSorting: false }),
-  col.accessor('customerName', { header: 'Customer', enableSorting: false }),
-  col.accessor('stageName', { header: 'Stage', enableSorting: false, cell: (c) => c.getValue() ?? <span className="text-ink-subtle">none</span> }),
-  col.accessor('status', { header: 'Status', enableSorting: false, cell: (c) => <RunStatusBadge status={c.getValue()} deleted={Boolean(c.row.original.deletedAt)} /> }),
   col.accessor('peakPowerHp', {
     id: 'peakPowerHp',
     header: 'Peak power',
@@ -65,7 +69,22 @@ const columns = [
       </span>
     ),
   }),
-  col.accessor('tags', { header: 'Tags', enableSorting: false, meta: { wrap: true }, cell: (c) => c.getValue().join(', ') }),
+  col.accessor('bikeLabel', {
+    header: 'Bike',
+    enableSorting: false,
+    meta: { wrap: true },
+    cell: (c) => (
+      <span>
+        {c.getValue()}
+        {/* The customer column gives way below 1536 px; keep the name under the bike. */}
+        <span className="block text-xs text-ink-subtle 2xl:hidden">{c.row.original.customerName}</span>
+      </span>
+    ),
+  }),
+  col.accessor('customerName', { header: 'Customer', enableSorting: false, meta: from2xl }),
+  col.accessor('stageName', { header: 'Stage', enableSorting: false, cell: (c) => c.getValue() ?? <span className="text-ink-subtle">none</span> }),
+  col.accessor('status', { header: 'Status', enableSorting: false, cell: (c) => <RunStatusBadge status={c.getValue()} deleted={Boolean(c.row.original.deletedAt)} /> }),
+  col.accessor('tags', { header: 'Tags', enableSorting: false, meta: { wrap: true, ...fromLg }, cell: (c) => c.getValue().join(', ') }),
 ];
 
 /** Every run of the shop, filtered and sorted on the server; the URL keeps the filters. */
@@ -73,7 +92,9 @@ export function RunListPage() {
   const user = useCurrentUser();
   const [params, setParams] = useSearchParams();
   const filters = useMemo(() => filtersFrom(params), [params]);
-  const runs = useQuery(runQueries.list(filters));
+  // "From" after "To" can match nothing; say so instead of asking the server.
+  const badRange = Boolean(filters.from && filters.to && filters.from > filters.to);
+  const runs = useQuery({ ...runQueries.list(filters), enabled: !badRange });
   const bikes = useQuery(lookupQueries.allBikes());
   const customers = useQuery(lookupQueries.customers());
   const stages = useQuery({ ...stageQueries.list(filters.bikeId ?? ''), enabled: Boolean(filters.bikeId) });
@@ -87,6 +108,20 @@ export function RunListPage() {
     if (resetPage && !('page' in change)) p.delete('page');
     setParams(p, { replace: true });
   };
+
+  // The tag applies as you type, once typing pauses; the URL keeps it.
+  const [tagText, setTagText] = useState(filters.tag ?? '');
+  const debouncedTag = useDebouncedValue(tagText.trim(), 400);
+  useEffect(() => {
+    if (debouncedTag !== (filters.tag ?? '')) update({ tag: debouncedTag });
+    // Only a settled change of the box updates the URL.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [debouncedTag]);
+  useEffect(() => {
+    // The URL changed from elsewhere (Clear filters, back button): show it in the box.
+    if ((filters.tag ?? '') !== debouncedTag) setTagText(filters.tag ?? '');
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [filters.tag]);
 
   const sort = filters.sort ?? DEFAULT_SORT;
   const sorting: SortingState = [{ id: sort.replace(/^-/, ''), desc: sort.startsWith('-') }];
@@ -122,8 +157,9 @@ export function RunListPage() {
           options={(customers.data ?? []).map((c) => ({ value: c.id, label: c.name }))}
         />
         <SelectField
-          label="Stage"
-          placeholder={filters.bikeId ? 'All stages' : 'Choose a bike first'}
+          label="Build stage"
+          placeholder="All stages"
+          hint={filters.bikeId ? undefined : 'Choose a bike to filter by its stages.'}
           disabled={!filters.bikeId}
           value={filters.stageId ?? ''}
           onChange={(e) => update({ stageId: e.target.value })}
@@ -136,16 +172,25 @@ export function RunListPage() {
           onChange={(e) => update({ status: e.target.value as RunStatusId })}
           options={RUN_STATUSES.map((s) => ({ value: s, label: RUN_STATUS_LABELS[s] }))}
         />
-        <TextField label="Tag" defaultValue={filters.tag ?? ''} key={`tag-${filters.tag ?? ''}`} onBlur={(e) => update({ tag: e.target.value.trim() })} onKeyDown={(e) => e.key === 'Enter' && update({ tag: e.currentTarget.value.trim() })} />
-        <TextField label="From" type="date" value={filters.from ?? ''} onChange={(e) => update({ from: e.target.value })} />
-        <TextField label="To" type="date" value={filters.to ?? ''} onChange={(e) => update({ to: e.target.value })} />
+        <TextField label="Run tag" type="search" value={tagText} onChange={(e) => setTagText(e.target.value)} hint="One whole tag, e.g. hot day. Applies as you type." />
+        <TextField label="From" type="date" value={filters.from ?? ''} max={filters.to} onChange={(e) => update({ from: e.target.value })} />
+        <TextField label="To" type="date" value={filters.to ?? ''} min={filters.from} onChange={(e) => update({ to: e.target.value })} error={badRange ? '“To” is before “From”.' : undefined} />
         <div className="flex items-end">
           <Button variant="ghost" disabled={!hasFilters} onClick={() => setParams(new URLSearchParams(), { replace: true })}>
             Clear filters
           </Button>
         </div>
       </form>
-      {runs.isError ? (
+      {badRange ? (
+        <Caution kind="notice" title="The dates are the wrong way round">
+          <p>
+            “From” ({formatDate(filters.from)}) is after “To” ({formatDate(filters.to)}), so no run could match.
+          </p>
+          <Button className="mt-2" size="sm" onClick={() => update({ from: filters.to, to: filters.from })}>
+            Swap the dates
+          </Button>
+        </Caution>
+      ) : runs.isError ? (
         <ErrorState error={runs.error} onRetry={() => runs.refetch()} isRetrying={runs.isFetching} />
       ) : (
         <DataTable
