@@ -105,6 +105,31 @@ describe('comparison builder', () => {
     await page.setViewportSize({ width: 768, height: 1024 });
     await page.waitForTimeout(300);
     await h.screenshot(page, 'comparison-saved-768');
+    await page.setViewportSize({ width: 1280, height: 800 });
+
+    // From the saved comparison to the gain report.
+    await page.getByLabel("Technician's note (optional)").fill('Check the exhaust clamps after 300 miles.');
+    await page.getByRole('button', { name: 'Make gain report' }).click();
+    await page.waitForURL(/\/reports\/[0-9a-f-]{36}$/, { timeout: 30_000 });
+    await page.getByRole('heading', { name: /^Gain report R-\d{4}-\d{4}$/ }).waitFor();
+    await page.getByRole('button', { name: 'Send to customer' }).waitFor();
+    const reportId = page.url().split('/').pop()!;
+    const report = await api.get(`/api/reports/${reportId}`);
+    expect(report.body.comparisonId).toBe(id);
+    expect(report.body.technicianNote).toBe('Check the exhaust clamps after 300 miles.');
+    await h.screenshot(page, 'comparison-gain-report');
+
+    // A bad recipient is flagged next to the field before anything is sent.
+    await page.getByRole('button', { name: 'Send to customer' }).click();
+    const send = page.getByRole('dialog');
+    await send.getByLabel('To').fill('not-an-address');
+    await send.getByRole('button', { name: 'Send report' }).click();
+    const to = send.getByLabel('To');
+    await expect.poll(() => to.getAttribute('aria-invalid')).toBe('true');
+    const described = (await to.getAttribute('aria-describedby')) ?? '';
+    const texts = await Promise.all(described.split(/\s+/).filter(Boolean).map((d) => page.locator(`[id="${d}"]`).innerText().catch(() => '')));
+    expect(texts.join(' ')).toContain('Enter a valid e-mail address');
+    await h.screenshot(page, 'comparison-send-invalid');
     await page.context().close();
   }, 90_000);
 

@@ -5,7 +5,8 @@ import type { AddressInfo } from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { chromium, type Browser, type Page } from 'playwright-core';
 import { ARTIFACTS } from '../support/browser';
-import { seedReportScenario } from '../support/report-fixtures';
+import { REFERENCE_AIR, seedReportScenario } from '../support/report-fixtures';
+import { ComparisonFixtures, humpWithPeaks } from '../support/comparison-fixtures';
 import { createTestApp, type TestApp, type TestShop } from '../support/test-app';
 
 /**
@@ -51,6 +52,7 @@ async function startHarness() {
 let h: Awaited<ReturnType<typeof startHarness>>;
 let s: TestShop;
 let shareUrl: string;
+let warnedShareUrl: string;
 let pdfSha: string;
 
 beforeAll(async () => {
@@ -64,7 +66,23 @@ beforeAll(async () => {
   const share = await desk.post(`/api/reports/${report.body.id}/share`).send({ expiresInDays: 7 });
   expect(share.status).toBe(201);
   shareUrl = share.body.url;
-}, 60_000);
+
+  // A second report whose runs were made 15 °C apart (the fairness rule is 10 °C): it carries a warning.
+  const w = await h.t.createShop('Hot Bay Garage');
+  const seeded = await seedReportScenario(h.t, w);
+  const fx = new ComparisonFixtures(h.t.deps.orm.em.fork(), w.shop);
+  const hot = fx.session(w.bike, { dyno: null, ambientTempC: 40, baroKpa: 99, humidityPct: 0 });
+  const hotRun = fx.run(w.bike, { session: hot, conditions: { ...REFERENCE_AIR, temperatureC: 40 }, correctionStandard: 'sae-j1349', correctionFactor: 1, label: 'Hot afternoon pull', curve: humpWithPeaks(108, 3700, 103.5) });
+  await fx.flush();
+  const wDesk = await h.t.signIn(w.users.desk);
+  const cmp = await wDesk.post('/api/comparisons').send({ name: 'Hot afternoon against baseline', runIds: [seeded.runs.r0.id, hotRun.id], baselineRunId: seeded.runs.r0.id, options: {} });
+  expect(cmp.status).toBe(201);
+  const wReport = await wDesk.post('/api/reports').send({ comparisonId: cmp.body.id });
+  expect(wReport.status).toBe(201);
+  const wShare = await wDesk.post(`/api/reports/${wReport.body.id}/share`).send({ expiresInDays: 7 });
+  expect(wShare.status).toBe(201);
+  warnedShareUrl = wShare.body.url;
+}, 90_000);
 afterAll(() => h?.close());
 
 describe('public share page', () => {
@@ -91,6 +109,22 @@ describe('public share page', () => {
       await h.screenshot(page, 'share-page');
       await page.setViewportSize({ width: 768, height: 1024 });
       await h.screenshot(page, 'share-page-768');
+    } finally {
+      await context.close();
+    }
+  });
+
+  it('shows the report’s warnings in words, not only the hint that there are some', async () => {
+    const { context, page } = await h.newPage();
+    try {
+      await page.goto(warnedShareUrl);
+      await page.getByRole('heading', { level: 1, name: /Gain report/ }).waitFor();
+      const list = page.getByRole('list', { name: 'Warnings about these figures' });
+      await list.waitFor();
+      const items = await list.getByRole('listitem').allInnerTexts();
+      expect(items.length).toBeGreaterThan(0);
+      expect(items.join(' ')).toMatch(/°C/);
+      await h.screenshot(page, 'share-page-warnings');
     } finally {
       await context.close();
     }

@@ -60,8 +60,9 @@ export function BikePage() {
 
       {/* Everything the archive holds about the bike, each section from its own feature. */}
       <div className="mt-6 space-y-6">
-        <BikeBuildTimeline bikeId={b.id} />
+        {/* Gains and cost per hp live in one place (Gains by stage); Stages and parts is the editing view. */}
         <BikeStageTimeline bikeId={b.id} />
+        <BikeBuildTimeline bikeId={b.id} />
         <BikeRunsSection bikeId={b.id} />
         <BikeReportsSection bikeId={b.id} />
         {isStaff && (

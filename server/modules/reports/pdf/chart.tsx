@@ -7,6 +7,7 @@ import { G, Line, Polyline, Rect, Svg, Text } from '@react-pdf/renderer';
 import { LINE_DASHARRAY, LINE_STYLES, runColor } from '../../../../src/lib/chart-theme';
 import { palette } from '../../../../tailwind.config';
 import { formatNumber } from '@shared/format';
+import { sharedPowerTorqueRange } from '@shared/chart-scale';
 import type { UnitSystem } from '../../shops/shop.entity';
 import { powerIn, torqueIn, unitLabels } from '../figures';
 import type { ReportCurve, ReportRun } from '../report-data';
@@ -55,8 +56,12 @@ export function OverlayChart({ width, height, runs, curves, units }: OverlayChar
   const pw = all.flatMap((c) => c.powerHp.map((v) => powerIn(v, units)));
   const tq = all.flatMap((c) => c.torqueLbft.map((v) => torqueIn(v, units)));
   const x = niceTicks(rpmLo, rpmHi, 7);
-  const yp = niceTicks(Math.min(...pw) * 0.95, Math.max(...pw) * 1.03, 5);
-  const yt = niceTicks(Math.min(...tq) * 0.95, Math.max(...tq) * 1.03, 5);
+  // One scale for power and torque (same min and max on both axes): in hp and lb·ft the curves then
+  // cross at 5,252 rpm, in kW and N·m at 9,549 rpm, as the trade expects (src/shared/chart-scale.ts).
+  const shared = sharedPowerTorqueRange(Math.max(...pw), Math.max(...tq), Math.min(...pw), Math.min(...tq));
+  const yp = { ...niceTicks(shared.min, shared.max, 5), min: shared.min, max: shared.max };
+  yp.ticks = yp.ticks.filter((v) => v >= shared.min - 1e-9 && v <= shared.max + 1e-9);
+  const yt = yp;
   const sx = (rpm: number) => m.left + ((rpm - x.min) / (x.max - x.min)) * w;
   const syP = (v: number) => m.top + h - ((v - yp.min) / (yp.max - yp.min)) * h;
   const syT = (v: number) => m.top + h - ((v - yt.min) / (yt.max - yt.min)) * h;

@@ -21,7 +21,12 @@ export interface ReportLogo {
 const ink = palette.ink;
 const tnum = ['tnum', 'lnum'] as const;
 
-const s = StyleSheet.create({
+/** Barlow everywhere: every style names it, so no text falls back to (and embeds) Helvetica. */
+function withFont<T extends Record<string, object>>(styles: T): T {
+  return Object.fromEntries(Object.entries(styles).map(([k, v]) => [k, { fontFamily: PDF_FONT, ...v }])) as T;
+}
+
+const s = StyleSheet.create(withFont({
   page: { fontFamily: PDF_FONT, fontSize: 9, color: ink.DEFAULT, paddingTop: 36, paddingBottom: 48, paddingHorizontal: 40, backgroundColor: '#FFFFFF' },
   header: { flexDirection: 'row', justifyContent: 'space-between', alignItems: 'flex-start' },
   shopBlock: { flexDirection: 'row', alignItems: 'center', maxWidth: '60%' },
@@ -54,7 +59,7 @@ const s = StyleSheet.create({
   footerText: { fontSize: 7.5, color: ink.subtle },
   gainText: { color: palette.gain.DEFAULT },
   lossText: { color: palette.loss.DEFAULT },
-});
+}));
 
 function Section({ title, children, wrap = false }: { title: string; children: ReactNode; wrap?: boolean }) {
   return (
@@ -78,7 +83,7 @@ function Table({ columns, rows }: { columns: Column[]; rows: (string | ReactNode
     <View style={s.table}>
       <View style={s.tr} fixed={false}>
         {columns.map((c) => (
-          <Text key={c.title} style={[s.th, { width: c.width }, c.num ? { textAlign: 'right' } : {}]}>
+          <Text key={c.title} style={[s.th, { width: c.width }, c.num ? { textAlign: 'right', paddingLeft: 4 } : { paddingRight: 6 }]}>
             {c.title}
           </Text>
         ))}
@@ -95,6 +100,12 @@ function Table({ columns, rows }: { columns: Column[]; rows: (string | ReactNode
     </View>
   );
 }
+
+/**
+ * A run label that does not break badly: the run number stays with "run" ("Stage 3 — ported
+ * heads · run 1" never ends a line with "run", "Baseline pull 1" never leaves "1" alone), via no-break spaces.
+ */
+export const runLabel = (label: string) => label.replace(/ · (\S+) (\d+)$/, '\u00a0·\u00a0$1\u00a0$2').replace(/ (\S+) (\d+)$/, ' $1\u00a0$2');
 
 const signTone = (v: number) => (v > 0.05 ? s.gainText : v < -0.05 ? s.lossText : {});
 
@@ -179,7 +190,7 @@ export function GainReportDocument({ data, logo }: { data: ReportData; logo?: Re
           </View>
           <View style={s.col}>
             <Text style={s.label}>Compared</Text>
-            <Text style={{ fontSize: 11, fontWeight: 500 }}>{finalRun ? `${finalRun.label} against ${baseline?.label ?? 'baseline'}` : data.comparison.name}</Text>
+            <Text style={{ fontSize: 11, fontWeight: 500 }}>{finalRun ? `${runLabel(finalRun.label)} against ${runLabel(baseline?.label ?? 'baseline')}` : data.comparison.name}</Text>
             <Text style={s.muted}>{`Corrected to ${standards.join(', ')}`}</Text>
           </View>
         </View>
@@ -214,20 +225,20 @@ export function GainReportDocument({ data, logo }: { data: ReportData; logo?: Re
         <Section title="Gain figures">
           <Table
             columns={[
-              { title: 'Run', width: '22%' },
-              { title: 'Peak power', width: '14%', num: true },
+              { title: 'Run', width: '27%' },
+              { title: 'Peak power', width: '12.5%', num: true },
               { title: 'Power change', width: '13%', num: true },
-              { title: 'Peak torque', width: '14%', num: true },
-              { title: 'Torque change', width: '13%', num: true },
-              { title: 'Area', width: '11%', num: true },
-              { title: 'Average', width: '13%', num: true },
+              { title: 'Peak torque', width: '12.5%', num: true },
+              { title: 'Torque change', width: '13.5%', num: true },
+              { title: 'Area', width: '9%', num: true },
+              { title: 'Average', width: '12.5%', num: true },
             ]}
             rows={data.runs.map((r) => {
               const g = data.gains.find((x) => x.runId === r.id);
               return [
                 <View key="n" style={{ flexDirection: 'row', alignItems: 'center', gap: 4 }}>
                   <LegendSwatch colorIndex={r.colorIndex} />
-                  <Text>{r.isBaseline ? `${r.label} (baseline)` : r.label}</Text>
+                  <Text style={{ flex: 1 }}>{r.isBaseline ? `${runLabel(r.label)} (baseline)` : runLabel(r.label)}</Text>
                 </View>,
                 `${fmtPower(r.peakPower.hp, u)}`,
                 g ? <Text style={[s.num, signTone(g.peakPowerGain.hp)]}>{`${fmtPowerGain(g.peakPowerGain.hp, u)}`}</Text> : '—',
@@ -313,16 +324,16 @@ export function GainReportDocument({ data, logo }: { data: ReportData; logo?: Re
         <Section title="Conditions and correction">
           <Table
             columns={[
-              { title: 'Run', width: '22%' },
-              { title: 'Recorded', width: '14%' },
-              { title: 'Dyno', width: '18%' },
-              { title: 'Air temp.', width: '10%', num: true },
-              { title: 'Pressure', width: '11%', num: true },
-              { title: 'Humidity', width: '10%', num: true },
-              { title: 'Standard · factor', width: '15%', num: true },
+              { title: 'Run', width: '27%' },
+              { title: 'Recorded', width: '12%' },
+              { title: 'Dyno', width: '16%' },
+              { title: 'Air temp.', width: '9%', num: true },
+              { title: 'Pressure', width: '10%', num: true },
+              { title: 'Humidity', width: '9%', num: true },
+              { title: 'Standard · factor', width: '17%', num: true },
             ]}
             rows={data.runs.map((r) => [
-              r.label,
+              runLabel(r.label),
               r.recordedAt ? formatDate(r.recordedAt, { timeZone: 'UTC' }) : '—',
               [r.dynoName, r.dynoKind].filter(Boolean).join(', ') || '—',
               r.conditions.temperatureC !== null ? `${formatNumber(r.conditions.temperatureC, { decimals: 1 })} °C` : '—',

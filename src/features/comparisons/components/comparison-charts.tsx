@@ -5,6 +5,7 @@ import type { EChartsOption, LineSeriesOption } from 'echarts';
 import type { ComparisonPreview } from '@shared/schemas/comparison';
 import { CHART_COLORS, LINE_DASHARRAY, baseChartOption, deltaSeries, runColor, runSeries, whenChartFontReady } from '@/lib/chart-theme';
 import { formatNumber } from '@shared/format';
+import { powerTorqueCrossRpm, sharedPowerTorqueRange } from '@shared/chart-scale';
 import type { DisplayUnits } from '../lib/display';
 
 const escapeHtml = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
@@ -80,8 +81,17 @@ export function OverlayChart({ preview, units, onReady, height = 440 }: { previe
         return `<div data-testid="overlay-tooltip"><div style="font-weight:600;margin-bottom:4px">${formatNumber(rpm[k])} rpm</div><table style="border-collapse:collapse"><thead><tr><th></th><th style="text-align:right;padding-right:8px;font-weight:500">${units.power}</th><th style="text-align:right;font-weight:500">${units.torque}</th></tr></thead><tbody>${rows}</tbody></table></div>`;
       },
     };
+    // hp with lb·ft (or kW with N·m): both y axes on one scale so the curves cross where the trade
+    // expects them to — 5,252 rpm (hp = lb·ft × rpm / 5252.113), 9,549 rpm in kW and N·m.
+    const crosses = powerTorqueCrossRpm(units.power === 'kW' ? 'kw' : 'hp', units.torque === 'N·m' ? 'nm' : 'lbft') !== null;
+    const values = (q: 'powerHp' | 'torqueLbft') => runs.flatMap((c) => c[q].filter((v): v is number => v !== null).map(q === 'powerHp' ? units.p : units.t));
+    const pw = values('powerHp');
+    const tq = values('torqueLbft');
+    const shared = crosses && pw.length && tq.length ? sharedPowerTorqueRange(Math.max(...pw), Math.max(...tq), Math.min(...pw), Math.min(...tq)) : null;
+    const yAxis = shared && Array.isArray(base.yAxis) ? base.yAxis.map((a) => ({ ...a, min: shared.min, max: shared.max })) : base.yAxis;
     return {
       ...base,
+      yAxis,
       grid: { ...(base.grid as object), bottom: 84 },
       xAxis: { ...(base.xAxis as object), nameGap: 28 },
       legend: { ...(base.legend as object), type: 'scroll' as const },

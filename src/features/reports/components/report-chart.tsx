@@ -4,6 +4,7 @@ import type { EChartsOption, LineSeriesOption } from 'echarts';
 import { LINE_DASHARRAY, baseChartOption, runColor, runSeries, whenChartFontReady } from '@/lib/chart-theme';
 import type { ReportCurveView, ReportRunView } from '../api/types';
 import type { DisplayUnits } from '../lib/units';
+import { sharedPowerTorqueRange } from '@shared/chart-scale';
 
 /** The report's overlay chart on screen: the same curves, colours and line styles as the PDF. */
 export function ReportChart({ runs, curves, units, summary, height = 380 }: { runs: ReportRunView[]; curves: ReportCurveView[]; units: DisplayUnits; summary: string; height?: number }) {
@@ -23,7 +24,12 @@ export function ReportChart({ runs, curves, units, summary, height = 380 }: { ru
         runSeries(i, 'torque', { id: `${c.runId}-t`, name, data: c.rpm.map((r, k) => [r, units.t(c.torqueLbft[k])]) }),
       ];
     });
-    return { ...base, grid: { ...(base.grid as object), bottom: 56 }, series };
+    // One scale for power and torque so the curves cross at 5,252 rpm (hp, lb·ft) or 9,549 rpm (kW, N·m).
+    const pw = curves.flatMap((c) => c.powerHp.map(units.p));
+    const tq = curves.flatMap((c) => c.torqueLbft.map(units.t));
+    const shared = pw.length && tq.length ? sharedPowerTorqueRange(Math.max(...pw), Math.max(...tq), Math.min(...pw), Math.min(...tq)) : null;
+    const yAxis = shared && Array.isArray(base.yAxis) ? base.yAxis.map((a) => ({ ...a, min: shared.min, max: shared.max })) : base.yAxis;
+    return { ...base, yAxis, grid: { ...(base.grid as object), bottom: 56 }, series };
   }, [runs, curves, units, summary]);
   return (
     <figure className="m-0">

@@ -1,34 +1,47 @@
-import { useState, type FormEvent } from 'react';
-import { Button, Dialog, FormError, TextAreaField, TextField, useToast } from '@/components/ui';
-import { ApiError } from '@/lib/api-client';
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import type { z } from 'zod';
+import { sendInput } from '@shared/schemas/report';
+import { Button, Dialog, FormError, TextAreaField, TextField, errorMessage, useToast } from '@/components/ui';
+import { applyFieldErrors } from '@/lib/api-client';
 import { useSendReport } from '../api/report-mutations';
 import type { ReportDetail } from '../api/types';
+
+type SendValues = z.input<typeof sendInput>;
 
 function prefilledMessage(r: ReportDetail) {
   const first = r.customer.name.split(/\s+/)[0] || r.customer.name;
   return `Hello ${first},\n\nHere is the gain report for your ${r.bikeLabel}. The PDF is attached, and the link in this message shows the figures and chart online.\n\nThank you,\n${r.data.shop.name}`;
 }
 
-/** "Send to customer": recipient prefilled with the customer's e-mail, editable message. */
+/**
+ * "Send to customer": recipient prefilled with the customer's e-mail, editable message. Validated
+ * with the server's own schema (@shared/schemas/report) before sending; the server's field errors
+ * land on the same fields.
+ */
 export function SendReportDialog({ report, open, onClose }: { report: ReportDetail; open: boolean; onClose: () => void }) {
-  const [to, setTo] = useState(report.customer.email ?? '');
-  const [message, setMessage] = useState(() => prefilledMessage(report));
   const send = useSendReport(report.id);
   const toast = useToast();
-  const fieldError = (path: string) => (send.error instanceof ApiError ? send.error.fields.find((f) => f.path === path)?.message : undefined);
+  const [formError, setFormError] = useState<string | null>(null);
+  const form = useForm<SendValues, unknown, z.output<typeof sendInput>>({
+    resolver: zodResolver(sendInput),
+    mode: 'onTouched',
+    defaultValues: { to: report.customer.email ?? '', message: prefilledMessage(report) },
+  });
+  const { errors, isSubmitted } = form.formState;
+  const fieldProblems = isSubmitted && Object.keys(errors).length ? `Check the fields marked below: ${Object.values(errors).map((e) => errorMessage(e)).filter(Boolean).join('; ')}.` : null;
 
-  const submit = (e: FormEvent) => {
-    e.preventDefault();
-    send.mutate(
-      { to, message },
-      {
-        onSuccess: () => {
-          toast.success(`Report sent to ${to}`);
-          onClose();
-        },
-      },
-    );
-  };
+  const onSubmit = form.handleSubmit(async (values) => {
+    setFormError(null);
+    try {
+      await send.mutateAsync(values);
+      toast.success(`Report sent to ${values.to}`);
+      onClose();
+    } catch (err) {
+      if (!applyFieldErrors(err, form.setError)) setFormError(err instanceof Error ? err.message : 'Try again in a moment.');
+    }
+  });
 
   return (
     <Dialog
@@ -49,10 +62,10 @@ export function SendReportDialog({ report, open, onClose }: { report: ReportDeta
         </>
       }
     >
-      <form id="send-report-form" onSubmit={submit} className="space-y-4" noValidate>
-        {send.error && !(send.error instanceof ApiError && send.error.fields.length) ? <FormError error={send.error} /> : null}
-        <TextField label="To" type="email" autoComplete="email" required value={to} onChange={(e) => setTo(e.target.value)} error={fieldError('to')} hint={report.customer.email ? undefined : 'This customer has no e-mail address on file.'} />
-        <TextAreaField label="Message" rows={9} required value={message} onChange={(e) => setMessage(e.target.value)} error={fieldError('message')} />
+      <form id="send-report-form" onSubmit={onSubmit} className="space-y-4" noValidate>
+        <FormError error={formError ?? fieldProblems} title="The report was not sent" />
+        <TextField label="To" type="email" autoComplete="email" required error={errors.to} hint={report.customer.email ? undefined : 'This customer has no e-mail address on file.'} {...form.register('to')} />
+        <TextAreaField label="Message" rows={9} required error={errors.message} {...form.register('message')} />
       </form>
     </Dialog>
   );

@@ -49,6 +49,15 @@ export default function SharePage() {
       </header>
       {head ? <HeadlineFigures gain={head} run={headRun} units={units} /> : null}
       <p className="max-w-prose text-lg leading-relaxed">{s.summary}</p>
+      {s.warnings.length ? (
+        <Caution title="Read with care" kind="notice">
+          <ul className="m-0 list-disc pl-5" aria-label="Warnings about these figures">
+            {s.warnings.map((w) => (
+              <li key={w}>{w}</li>
+            ))}
+          </ul>
+        </Caution>
+      ) : null}
       <section aria-labelledby="chart-title" className="rounded-card border border-line bg-paper-raised p-4">
         <h2 id="chart-title" className="mt-0 text-lg font-semibold">
           Power and torque
