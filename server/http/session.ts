@@ -19,18 +19,20 @@ export const SESSION_COOKIE = 'pullbook.sid';
  */
 export function installSessions(app: express.Express, deps: AppDeps) {
   const PgStore = connectPgSimple(session);
-  const pool = new pg.Pool({ connectionString: deps.config.DATABASE_URL, max: 4 });
+  const pool = new pg.Pool({ connectionString: deps.config.DATABASE_URL, max: 10 });
   const secure = deps.config.PUBLIC_URL.startsWith('https://');
   if (secure) app.set('trust proxy', 1);
 
   app.use(
     session({
       name: SESSION_COOKIE,
-      store: new PgStore({ pool, tableName: 'http_session', createTableIfMissing: false, pruneSessionInterval: 15 * 60 }),
+      // No touch on every request: a session lasts 12 h from sign-in (a working day), and reads
+      // stay reads — one write per request would dominate the cost of light API calls.
+      store: new PgStore({ pool, tableName: 'http_session', createTableIfMissing: false, pruneSessionInterval: 15 * 60, disableTouch: true }),
       secret: deps.config.SESSION_SECRET,
       resave: false,
       saveUninitialized: false,
-      rolling: true,
+      rolling: false,
       cookie: { httpOnly: true, sameSite: 'lax', secure, maxAge: 12 * 3600 * 1000 },
     }),
   );
