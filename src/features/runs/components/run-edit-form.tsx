@@ -1,40 +1,48 @@
 import { useEffect } from 'react';
 import { useForm } from 'react-hook-form';
+import { z } from 'zod';
+import { zodResolver } from '@hookform/resolvers/zod';
 import { useQuery } from '@tanstack/react-query';
-import type { RunDetailDto } from '@shared/schemas/run';
+import { runUpdateInput, type RunDetailDto } from '@shared/schemas/run';
 import { Button, SelectField, TextAreaField, TextField, useToast } from '@/components/ui';
 import { applyFieldErrors } from '@/lib/api-client';
 import { stageQueries } from '../api/stage-queries';
 import { useUpdateRun } from '../api/update-run';
 
-interface Values {
-  stageId: string;
-  label: string;
-  tags: string;
-  note: string;
-}
-
 export function parseTags(text: string): string[] {
   return [...new Set(text.split(',').map((t) => t.trim()).filter(Boolean))];
 }
+
+/**
+ * The API's runUpdateInput in the shape the form holds: the stage as "" for none and the tags as
+ * one comma-separated line. The tag rules are the API's; the message names them in plain words.
+ */
+const runEditSchema = z.object({
+  stageId: z.preprocess((v) => (v === '' ? null : v), runUpdateInput.shape.stageId),
+  label: runUpdateInput.shape.label,
+  tags: z
+    .string()
+    .transform(parseTags)
+    .superRefine((tags, ctx) => {
+      if (!runUpdateInput.shape.tags.safeParse(tags).success) ctx.addIssue({ code: z.ZodIssueCode.custom, message: 'Each tag is at most 40 characters, and a run has at most 30 tags' });
+    }),
+  note: runUpdateInput.shape.note,
+});
+type RunEditInput = z.input<typeof runEditSchema>;
+type RunEditOutput = z.output<typeof runEditSchema>;
 
 /** Stage, label, tags and note of a run. */
 export function RunEditForm({ run }: { run: RunDetailDto }) {
   const toast = useToast();
   const stages = useQuery(stageQueries.list(run.bikeId));
   const update = useUpdateRun();
-  const form = useForm<Values>({ defaultValues: { stageId: run.stageId ?? '', label: run.label ?? '', tags: run.tags.join(', '), note: run.note ?? '' } });
+  const form = useForm<RunEditInput, unknown, RunEditOutput>({ resolver: zodResolver(runEditSchema), mode: 'onTouched', defaultValues: { stageId: run.stageId ?? '', label: run.label ?? '', tags: run.tags.join(', '), note: run.note ?? '' } });
   useEffect(() => {
     form.reset({ stageId: run.stageId ?? '', label: run.label ?? '', tags: run.tags.join(', '), note: run.note ?? '' });
   }, [run, form]);
   const submit = form.handleSubmit(async (v) => {
-    const tags = parseTags(v.tags);
-    if (tags.some((t) => t.length > 40)) {
-      form.setError('tags', { message: 'Each tag is at most 40 characters' });
-      return;
-    }
     try {
-      await update.mutateAsync({ id: run.id, stageId: v.stageId || null, label: v.label, tags, note: v.note });
+      await update.mutateAsync({ id: run.id, ...v });
       toast.success('Run saved');
     } catch (e) {
       if (!applyFieldErrors(e, form.setError)) toast.error('The run was not saved', { description: e instanceof Error ? e.message : undefined });

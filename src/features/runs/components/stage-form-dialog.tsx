@@ -1,8 +1,10 @@
 import { useEffect } from 'react';
 import { useFieldArray, useForm } from 'react-hook-form';
+import { z } from 'zod';
+import { zodResolver } from '@hookform/resolvers/zod';
 import { HEAD_WORK_LABELS, HEAD_WORK_LEVELS, PART_CATEGORIES, PART_CATEGORY_LABELS, type HeadWorkLevel, type PartCategory } from '@shared/parts';
 import type { StageDto } from '@shared/schemas/run';
-import { stageInput } from '@shared/schemas/run';
+import { partInput, stageInput } from '@shared/schemas/run';
 import { Button, Dialog, FormError, Icon, IconButton, NumberField, SelectField, TextAreaField, TextField, useToast } from '@/components/ui';
 import { ApiError, applyFieldErrors } from '@/lib/api-client';
 import { useCreateStage } from '../api/create-stage';
@@ -22,6 +24,23 @@ interface Values {
   parts: PartValues[];
 }
 
+/**
+ * The API's stage schema (stageInput / partInput) in the shape the form holds: the date and the
+ * head-work level as text ("" for none), money as typed. Output is the API's body without bikeId.
+ */
+const stageFormSchema = stageInput.omit({ bikeId: true }).extend({
+  date: z.preprocess((v) => (v === '' ? null : v), stageInput.shape.date),
+  parts: z
+    .array(
+      partInput.extend({
+        headWorkLevel: z.preprocess((v) => (v === '' ? null : v), partInput.shape.headWorkLevel),
+      }),
+    )
+    .max(100),
+});
+type StageFormInput = z.input<typeof stageFormSchema>;
+type StageFormOutput = z.output<typeof stageFormSchema>;
+
 const emptyPart: PartValues = { category: 'exhaust', description: '', partCost: '', labourCost: '', headWorkLevel: '' };
 const money = (cents: number) => (cents ? String(cents / 100) : '');
 
@@ -40,7 +59,8 @@ export function StageFormDialog({ bikeId, stage, open, onClose }: { bikeId: stri
   const toast = useToast();
   const create = useCreateStage();
   const update = useUpdateStage();
-  const form = useForm<Values>({ defaultValues: toValues(stage) });
+  // Field errors show as soon as a field is left, and again on submit.
+  const form = useForm<StageFormInput, unknown, StageFormOutput>({ resolver: zodResolver(stageFormSchema), mode: 'onTouched', defaultValues: toValues(stage) });
   const parts = useFieldArray({ control: form.control, name: 'parts' });
   const busy = create.isPending || update.isPending;
   const error = create.error ?? update.error;
@@ -56,22 +76,11 @@ export function StageFormDialog({ bikeId, stage, open, onClose }: { bikeId: stri
   }, [open, stage]);
 
   const submit = form.handleSubmit(async (v) => {
-    const body = {
-      bikeId,
-      name: v.name,
-      date: v.date || null,
-      description: v.description,
-      parts: v.parts.map((p) => ({ ...p, headWorkLevel: p.category === 'cylinder-heads' && p.headWorkLevel ? p.headWorkLevel : null })),
-    };
-    const parsed = stageInput.safeParse(body);
-    if (!parsed.success) {
-      for (const issue of parsed.error.issues) form.setError(issue.path.join('.') as never, { message: issue.message });
-      return;
-    }
+    // Head work is recorded only for cylinder-head parts.
+    const changes = { ...v, parts: v.parts.map((p) => ({ ...p, headWorkLevel: p.category === 'cylinder-heads' ? (p.headWorkLevel ?? null) : null })) };
     try {
-      const { bikeId: _bike, ...changes } = body;
       if (stage) await update.mutateAsync({ id: stage.id, ...changes });
-      else await create.mutateAsync(body);
+      else await create.mutateAsync({ bikeId, ...changes });
       toast.success(stage ? `Saved ${v.name}` : `Added ${v.name}`);
       onClose();
     } catch (e) {
