@@ -55,5 +55,26 @@ describe('build finder page', () => {
     await page.goto(`${h.baseUrl}/finder?engine=nothing-like-this`);
     await page.getByText('No builds match').waitFor();
     expect(await page.getByText('No builds match').isVisible()).toBe(true);
+    // The filters come back into the form from the address.
+    expect(await page.getByLabel('Engine family').inputValue()).toBe('nothing-like-this');
+
+    // A displacement range the wrong way round is refused at the field and in an alert; nothing is searched.
+    await page.getByLabel('Engine family').fill('');
+    await page.getByLabel('Displacement from').fill('1600');
+    await page.getByLabel('to', { exact: true }).fill('1200');
+    await page.getByRole('button', { name: 'Search builds' }).click();
+    const form = page.getByRole('form', { name: 'Search past builds' });
+    await expect.poll(() => form.getByRole('alert').isVisible()).toBe(true);
+    expect(await form.getByRole('alert').textContent()).toContain('The upper displacement is below the lower one');
+    expect(await page.getByLabel('to', { exact: true }).getAttribute('aria-invalid')).toBe('true');
+    expect(new URL(page.url()).searchParams.get('engine')).toBe('nothing-like-this');
+    await h.screenshot(page, 'finder-filter-error');
+
+    // Put right, the search runs with the range in cm³.
+    await page.getByLabel('to', { exact: true }).fill('2000');
+    await page.getByRole('button', { name: 'Search builds' }).click();
+    await page.waitForURL((u) => u.searchParams.get('ccMax') === '2000');
+    expect(new URL(page.url()).searchParams.get('ccMin')).toBe('1600');
+    await page.getByRole('region', { name: 'Matching builds' }).getByRole('link', { name: /Testmake Own/ }).waitFor();
   });
 });

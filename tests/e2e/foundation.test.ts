@@ -9,6 +9,8 @@ import type { Page } from 'playwright-core';
 import { startBrowserHarness, type BrowserHarness } from '../support/browser';
 import { latestMailTo, linkIn } from '../support/mail';
 import type { TestShop } from '../support/test-app';
+import { SAFETY_CHECKS } from '@shared/schemas/run';
+import { latestModelYear } from '@shared/schemas/bike';
 
 // Invented example data.
 const CUSTOMER = { name: 'Wren Halloway', email: 'wren.halloway@example.test', phone: '555-0142' };
@@ -41,8 +43,9 @@ describe('foundation in the browser', () => {
   it('the front desk adds a customer and a bike through the forms', async () => {
     const page = await h.signInPage(shop.users.desk.email);
     await expect.poll(() => page.getByRole('heading', { name: 'Today', level: 1 }).isVisible()).toBe(true);
-    // The dyno-operation cautions are on the staff start page.
-    expect(await page.getByRole('note').filter({ hasText: 'Before every pull' }).textContent()).toContain('wheel chocks');
+    // The dyno-operation cautions are on the staff start page: the session checklist's own list.
+    const cautions = (await page.getByRole('note').filter({ hasText: 'Before every pull' }).textContent()) ?? '';
+    for (const check of SAFETY_CHECKS) expect(cautions).toContain(check.label);
     await expect.poll(() => page.getByRole('region', { name: 'Newest customers' }).getByRole('link', { name: `${shop.customer.name}` }).isVisible()).toBe(true);
     await h.screenshot(page, 'foundation-01-desk-today');
 
@@ -52,6 +55,9 @@ describe('foundation in the browser', () => {
     // An empty name is refused before anything is sent.
     await customerDialog.getByRole('button', { name: 'Add customer' }).click();
     await expect.poll(() => customerDialog.getByText('Name is required', { exact: true }).isVisible()).toBe(true);
+    // The field says so (described by its error) and an alert announces it.
+    expect(await customerDialog.getByLabel('Name').getAttribute('aria-invalid')).toBe('true');
+    expect(await customerDialog.getByRole('alert').textContent()).toContain('Name is required');
     await customerDialog.getByLabel('Name').fill(CUSTOMER.name);
     await customerDialog.getByLabel('E-mail').fill(CUSTOMER.email);
     await customerDialog.getByLabel('Phone').fill(CUSTOMER.phone);
@@ -69,6 +75,10 @@ describe('foundation in the browser', () => {
     await expect.poll(() => bikeDialog.getByLabel('Owner').locator('option:checked').textContent()).toBe(CUSTOMER.name);
     await bikeDialog.getByLabel('Make').fill(BIKE.make);
     await bikeDialog.getByLabel('Model').fill(BIKE.model);
+    // A model year after next year is refused, with the latest allowed year named.
+    await bikeDialog.getByLabel('Year').fill(String(latestModelYear() + 1));
+    await bikeDialog.getByLabel('Year').press('Tab');
+    await expect.poll(() => bikeDialog.getByText(`Model year cannot be later than ${latestModelYear()}`).isVisible()).toBe(true);
     await bikeDialog.getByLabel('Year').fill(BIKE.year);
     await bikeDialog.getByLabel('VIN').fill(BAD_VIN);
     await bikeDialog.getByLabel('VIN').press('Tab');
@@ -101,6 +111,16 @@ describe('foundation in the browser', () => {
     await expect.poll(() => page.getByRole('table', { name: 'Bikes' }).locator('tbody tr').count()).toBe(1);
     expect(await page.getByRole('table', { name: 'Bikes' }).textContent()).toContain(BIKE.model);
     await h.screenshot(page, 'foundation-05-bikes-tablet');
+
+    // A new bike with no owner chosen says what is missing, at the field and in an alert.
+    await page.getByRole('button', { name: 'New bike' }).click();
+    const emptyBike = page.getByRole('dialog', { name: 'New bike' });
+    await emptyBike.getByRole('button', { name: 'Add bike' }).click();
+    await expect.poll(() => emptyBike.getByText("Choose the bike's owner", { exact: true }).isVisible()).toBe(true);
+    expect(await emptyBike.getByLabel('Owner').getAttribute('aria-invalid')).toBe('true');
+    expect(await emptyBike.getByRole('alert').textContent()).toContain("Choose the bike's owner");
+    expect(await emptyBike.getByText('Not a valid id').count()).toBe(0);
+    await h.screenshot(page, 'foundation-05b-bike-form-errors');
     await page.context().close();
   });
 
@@ -123,6 +143,29 @@ describe('foundation in the browser', () => {
     await expect.poll(async () => (await users.textContent()) ?? '').toContain(CUSTOMER.email);
     expect(await users.getByRole('row').filter({ hasText: CUSTOMER.email }).textContent()).toContain('Invitation sent');
     await h.screenshot(page, 'foundation-06b-owner-users');
+    // The invitation form sent empty: errors at the fields and in an announced alert.
+    const invite = page.getByRole('region', { name: 'Invite a colleague' });
+    await invite.getByRole('button', { name: 'Send invitation' }).click();
+    await expect.poll(() => invite.getByRole('alert').isVisible()).toBe(true);
+    const inviteAlert = (await invite.getByRole('alert').textContent()) ?? '';
+    expect(inviteAlert).toContain('Name is required');
+    expect(inviteAlert).toContain('Enter a valid e-mail address');
+    expect(await invite.getByLabel('E-mail').getAttribute('aria-invalid')).toBe('true');
+    // Role selects are wide enough for the longest role name.
+    const roleSelect = users.getByRole('combobox').first();
+    expect(await roleSelect.evaluate((el) => el.scrollWidth <= el.clientWidth && el.getBoundingClientRect().width >= 150)).toBe(true);
+    await h.screenshot(page, 'foundation-06d-owner-invite-errors');
+
+    // The audit log speaks plainly and links what it can.
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Audit log' }).click();
+    const audit = page.getByRole('region', { name: 'Audit log' });
+    await expect.poll(() => audit.getByRole('link', { name: CUSTOMER.name }).first().isVisible()).toBe(true);
+    expect(await audit.textContent()).toContain(`Added customer ${CUSTOMER.name}`);
+    expect(await audit.textContent()).toContain(`Added bike ${BIKE.make} ${BIKE.model}`);
+    await page.getByLabel('Kind of change').selectOption({ label: 'Bikes' });
+    await expect.poll(async () => (await audit.textContent()) ?? '').not.toContain('Added customer');
+    expect(await audit.textContent()).toContain(`Added bike ${BIKE.make} ${BIKE.model}`);
+    await h.screenshot(page, 'foundation-06e-owner-audit');
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Outbox' }).click();
     const outbox = page.getByRole('table', { name: 'Captured mail' });
     await outbox.getByRole('row').filter({ hasText: CUSTOMER.email }).first().getByRole('button').click();
@@ -142,6 +185,8 @@ describe('foundation in the browser', () => {
     const mail = await latestMailTo(CUSTOMER.email);
     const token = linkIn(mail.text, '/invite/');
     const { context, page } = await h.newPage();
+    const consoleLines: string[] = [];
+    page.on('console', (m) => consoleLines.push(`${m.type()}: ${m.text()}`));
     await page.goto(`${h.baseUrl}/invite/${token}`);
     await expect.poll(() => page.getByRole('heading', { name: 'Set up your account' }).isVisible()).toBe(true);
     // The page says whose invitation it is before anyone types a password.
@@ -149,7 +194,8 @@ describe('foundation in the browser', () => {
     await page.getByLabel('New password').fill(NEW_PASSWORD);
     await page.getByLabel('Type the password again').fill(`${NEW_PASSWORD}-typo`);
     await page.getByRole('button', { name: 'Set password and sign in' }).click();
-    await expect.poll(() => page.getByText('The two passwords are not the same').isVisible()).toBe(true);
+    await expect.poll(() => page.getByText('The two passwords are not the same', { exact: true }).isVisible()).toBe(true);
+    expect(await page.getByRole('alert').textContent()).toContain('The two passwords are not the same');
     await page.getByLabel('Type the password again').fill(NEW_PASSWORD);
     await h.screenshot(page, 'foundation-07-invite-page');
     await page.getByRole('button', { name: 'Set password and sign in' }).click();
@@ -179,6 +225,16 @@ describe('foundation in the browser', () => {
     // Another customer's bike answers "not found" on screen too.
     await page.goto(`${h.baseUrl}/bikes/${shop.otherBike.id}`);
     await expect.poll(() => page.getByText('No such bike').isVisible()).toBe(true);
+
+    // Staff-only pages typed by address: told plainly, not a screen of 403s.
+    for (const path of ['/finder', '/customers', '/bikes']) {
+      await page.goto(`${h.baseUrl}${path}`);
+      await expect.poll(() => page.getByText('Not available for your role').isVisible()).toBe(true);
+      expect(await page.getByRole('button', { name: /Search builds|New customer|New bike/ }).count()).toBe(0);
+    }
+    await h.screenshot(page, 'foundation-10-customer-staff-page');
+    // Full page loads render a loading state while the page's code arrives: no router warning.
+    expect(consoleLines.filter((l) => l.includes('HydrateFallback'))).toEqual([]);
     await context.close();
   });
 });
