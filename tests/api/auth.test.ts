@@ -143,6 +143,10 @@ describe('invitations', () => {
     const audit = await owner.get('/api/audit');
     const entry = audit.body.find((e: { action: string; entityId: string }) => e.action === 'user.update' && e.entityId === s.users.desk.id);
     expect(entry.details).toEqual({ before: expect.objectContaining({ role: 'desk' }), after: expect.objectContaining({ role: 'owner' }) });
+    const onlyUsers = await owner.get('/api/audit').query({ kinds: 'user' });
+    expect(onlyUsers.body.length).toBeGreaterThan(0);
+    expect(onlyUsers.body.every((e: { action: string }) => e.action.startsWith('user.'))).toBe(true);
+    expect((await owner.get('/api/audit').query({ kinds: 'customer' })).body.some((e: { action: string }) => e.action.startsWith('user.'))).toBe(false);
   });
 
   it('stops an owner from demoting themselves', async () => {

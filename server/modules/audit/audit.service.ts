@@ -19,10 +19,15 @@ export async function recordAudit(em: EntityManager, actor: Actor, action: strin
 }
 
 
-export async function listAudit(em: EntityManager, actor: Actor, opts: { before?: string; limit: number }): Promise<AuditEntryDto[]> {
+/** The newest entries; `kinds` narrows to actions whose first part is one of them ("run" → run.upload, run.delete…). */
+export async function listAudit(em: EntityManager, actor: Actor, opts: { before?: string; limit: number; kinds?: string[] }): Promise<AuditEntryDto[]> {
   const rows = await em.find(
     AuditEntry,
-    { shop: actor.shopId, ...(opts.before ? { createdAt: { $lt: new Date(opts.before) } } : {}) },
+    {
+      shop: actor.shopId,
+      ...(opts.before ? { createdAt: { $lt: new Date(opts.before) } } : {}),
+      ...(opts.kinds?.length ? { $or: opts.kinds.map((k) => ({ action: { $like: `${k}.%` } })) } : {}),
+    },
     { orderBy: { createdAt: 'desc' }, limit: opts.limit, populate: ['user'] },
   );
   return rows.map((r) => ({

@@ -30,10 +30,11 @@ export const AUDIT_PAGE = 100;
 export const adminQueries = {
   users: () => queryOptions({ queryKey: ['users'] as const, queryFn: () => api.get<UserDto[]>('/api/users') }),
   shop: () => queryOptions({ queryKey: ['shop'] as const, queryFn: () => api.get<ShopDto>('/api/shop') }),
-  audit: () =>
+  /** The audit log, optionally narrowed on the server to some kinds of action ("run", "user"…). */
+  audit: (kinds: readonly string[] = []) =>
     infiniteQueryOptions({
-      queryKey: ['audit'] as const,
-      queryFn: ({ pageParam }) => api.get<AuditEntry[]>('/api/audit', { before: pageParam, limit: AUDIT_PAGE }),
+      queryKey: ['audit', kinds.join(',')] as const,
+      queryFn: ({ pageParam }) => api.get<AuditEntry[]>('/api/audit', { before: pageParam, limit: AUDIT_PAGE, kinds: kinds.length ? kinds.join(',') : undefined }),
       initialPageParam: undefined as string | undefined,
       // The log is newest first; the next page is everything before the oldest entry shown.
       getNextPageParam: (last) => (last.length < AUDIT_PAGE ? undefined : last[last.length - 1].at),

@@ -190,12 +190,10 @@ const columns = [
 
 /** Owner only: the guard is the settings layout route (../routes.tsx). */
 export default function AuditPage() {
-  const audit = useInfiniteQuery(adminQueries.audit());
   const [params, setParams] = useSearchParams();
   const type = ACTION_TYPES.find((t) => t.value === params.get('type')) ?? ACTION_TYPES[0];
-  const loaded = audit.data?.pages.flat() ?? [];
-  const prefixes: readonly string[] = type.prefixes;
-  const rows = prefixes.length ? loaded.filter((e) => prefixes.includes(e.action.split('.')[0])) : loaded;
+  const audit = useInfiniteQuery(adminQueries.audit(type.prefixes));
+  const rows = audit.data?.pages.flat() ?? [];
   return (
     <>
       <PageHeader title="Audit log" subtitle="Who changed what in this shop, newest first. Entries cannot be edited or removed." />
@@ -222,7 +220,7 @@ export default function AuditPage() {
             />
             {audit.isSuccess && (
               <p className="pb-2 text-sm text-ink-muted" aria-live="polite">
-                {prefixes.length ? `${formatCount(rows.length, 'entry', 'entries')} of this kind among the ${formatCount(loaded.length, 'entry', 'entries')} loaded` : `${formatCount(loaded.length, 'entry', 'entries')} loaded`}
+                {`${formatCount(rows.length, 'entry', 'entries')}${type.prefixes.length ? ' of this kind' : ''} loaded`}
                 {audit.hasNextPage ? '; older ones are a click away.' : '.'}
               </p>
             )}
@@ -234,7 +232,7 @@ export default function AuditPage() {
             getRowId={(r) => r.id}
             isLoading={audit.isPending}
             maxHeight={null}
-            emptyMessage={prefixes.length && loaded.length ? `No changes of this kind among the entries loaded${audit.hasNextPage ? '; show older entries to look further back' : ''}.` : 'Nothing recorded yet. Changes to customers, bikes, users and settings appear here.'}
+            emptyMessage={type.prefixes.length ? 'No changes of this kind recorded.' : 'Nothing recorded yet. Changes to customers, bikes, users and settings appear here.'}
           />
           {audit.hasNextPage && (
             <div className="mt-4 flex justify-center">
