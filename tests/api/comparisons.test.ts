@@ -485,6 +485,32 @@ describe('stage timeline, a stage without a reference run (hand-computed)', () =
   });
 });
 
+describe('run colours', () => {
+  it('a run keeps its colour slot whether it is compared with one run or with three', async () => {
+    const em = t.deps.orm.em.fork();
+    const f = new ComparisonFixtures(em, a.shop);
+    const tuner = await t.signIn(a.users.tuner);
+    const bike = em.create(Bike, { shop: a.shop.id, customer: a.customer.id, make: 'Testmake', model: 'Colours', cylinders: 2 } as never) as Bike;
+    const session = f.session(bike, { dyno: f.dyno() });
+    const stages = [0, 1, 2, 3].map((i) => f.stage(bike, i === 0 ? 'Baseline' : `Stage ${i}`, i));
+    const runs = stages.map((st, i) => f.run(bike, { curve: curveFromPower((r) => 20 + i + 0.01 * r), stage: st, session }));
+    await em.flush();
+    const slots = async (ids: string[]) => {
+      const res = await tuner.post('/api/comparisons/preview').send({ runIds: ids, baselineRunId: ids[0] });
+      expect(res.status).toBe(200);
+      return new Map<string, number>(res.body.runs.map((r: { runId: string; colorIndex: number }) => [r.runId, r.colorIndex]));
+    };
+    const two = await slots([runs[2].id, runs[3].id]);
+    const three = await slots([runs[0].id, runs[2].id, runs[3].id]);
+    // Our rule (server/modules/comparisons/run-colors.ts): the slot is the run's place in its bike's
+    // archive by stage position — Baseline 0, Stage 1 1, Stage 2 2, Stage 3 3 — whatever else is compared.
+    expect(two.get(runs[3].id)).toBe(3);
+    expect(three.get(runs[3].id)).toBe(3);
+    expect(two.get(runs[2].id)).toBe(three.get(runs[2].id));
+    expect(new Set(three.values()).size).toBe(3);
+  });
+});
+
 describe('builder candidates', () => {
   it('suggests the previous stage’s reference run against the latest stage’s', async () => {
     const em = t.deps.orm.em.fork();

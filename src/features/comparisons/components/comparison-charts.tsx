@@ -5,7 +5,7 @@ import type { EChartsOption, LineSeriesOption } from 'echarts';
 import type { ComparisonPreview } from '@shared/schemas/comparison';
 import { CHART_COLORS, LINE_DASHARRAY, baseChartOption, deltaSeries, runColor, runSeries, whenChartFontReady } from '@/lib/chart-theme';
 import { formatNumber } from '@shared/format';
-import { powerTorqueCrossRpm, sharedPowerTorqueRange } from '@shared/chart-scale';
+import { niceStep, powerTorqueCrossRpm, sharedPowerTorqueRange } from '@shared/chart-scale';
 import type { DisplayUnits } from '../lib/display';
 
 const escapeHtml = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
@@ -88,7 +88,7 @@ export function OverlayChart({ preview, units, onReady, height = 440 }: { previe
     const pw = values('powerHp');
     const tq = values('torqueLbft');
     const shared = crosses && pw.length && tq.length ? sharedPowerTorqueRange(Math.max(...pw), Math.max(...tq), Math.min(...pw), Math.min(...tq)) : null;
-    const yAxis = shared && Array.isArray(base.yAxis) ? base.yAxis.map((a) => ({ ...a, min: shared.min, max: shared.max })) : base.yAxis;
+    const yAxis = shared && Array.isArray(base.yAxis) ? base.yAxis.map((a) => ({ ...a, min: shared.min, max: shared.max, interval: niceStep(shared.max - shared.min) })) : base.yAxis;
     return {
       ...base,
       yAxis,

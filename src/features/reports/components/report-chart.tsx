@@ -1,10 +1,10 @@
 import { useEffect, useMemo, useRef } from 'react';
 import ReactECharts from 'echarts-for-react';
 import type { EChartsOption, LineSeriesOption } from 'echarts';
-import { LINE_DASHARRAY, baseChartOption, runColor, runSeries, whenChartFontReady } from '@/lib/chart-theme';
+import { LINE_DASHARRAY, baseChartOption, runSeries, whenChartFontReady } from '@/lib/chart-theme';
 import type { ReportCurveView, ReportRunView } from '../api/types';
 import type { DisplayUnits } from '../lib/units';
-import { sharedPowerTorqueRange } from '@shared/chart-scale';
+import { niceStep, sharedPowerTorqueRange } from '@shared/chart-scale';
 
 /** The report's overlay chart on screen: the same curves, colours and line styles as the PDF. */
 export function ReportChart({ runs, curves, units, summary, height = 380 }: { runs: ReportRunView[]; curves: ReportCurveView[]; units: DisplayUnits; summary: string; height?: number }) {
@@ -28,7 +28,7 @@ export function ReportChart({ runs, curves, units, summary, height = 380 }: { ru
     const pw = curves.flatMap((c) => c.powerHp.map(units.p));
     const tq = curves.flatMap((c) => c.torqueLbft.map(units.t));
     const shared = pw.length && tq.length ? sharedPowerTorqueRange(Math.max(...pw), Math.max(...tq), Math.min(...pw), Math.min(...tq)) : null;
-    const yAxis = shared && Array.isArray(base.yAxis) ? base.yAxis.map((a) => ({ ...a, min: shared.min, max: shared.max })) : base.yAxis;
+    const yAxis = shared && Array.isArray(base.yAxis) ? base.yAxis.map((a) => ({ ...a, min: shared.min, max: shared.max, interval: niceStep(shared.max - shared.min) })) : base.yAxis;
     return { ...base, yAxis, grid: { ...(base.grid as object), bottom: 56 }, series };
   }, [runs, curves, units, summary]);
   return (
@@ -37,13 +37,13 @@ export function ReportChart({ runs, curves, units, summary, height = 380 }: { ru
       <figcaption className="mt-1 flex flex-wrap items-center justify-center gap-4 text-sm text-ink-muted">
         <span className="inline-flex items-center gap-2">
           <svg width="28" height="6" aria-hidden="true">
-            <line x1="0" x2="28" y1="3" y2="3" stroke={runColor(0)} strokeWidth="2.5" />
+            <line x1="0" x2="28" y1="3" y2="3" stroke="currentColor" strokeWidth="2.5" />
           </svg>
           power ({units.power}), solid
         </span>
         <span className="inline-flex items-center gap-2">
           <svg width="28" height="6" aria-hidden="true">
-            <line x1="0" x2="28" y1="3" y2="3" stroke={runColor(0)} strokeWidth="2" strokeDasharray={LINE_DASHARRAY.torque} />
+            <line x1="0" x2="28" y1="3" y2="3" stroke="currentColor" strokeWidth="2" strokeDasharray={LINE_DASHARRAY.torque} />
           </svg>
           torque ({units.torque}), dashed
         </span>

@@ -11,9 +11,22 @@ import { HeadlineFigures } from '../components/gain-figures';
 import { SendReportDialog } from '../components/send-dialog';
 import { SharePanel } from '../components/share-panel';
 import { DeliveryLog } from '../components/delivery-log';
-import { displayUnits } from '../lib/units';
+import { displayUnits, powerGain, type DisplayUnits } from '../lib/units';
+import { costCoverage, type ReportCost } from '@shared/schemas/report';
+import { formatMoney } from '@shared/format';
 
 const linkButton = (variant: 'primary' | 'secondary') => cn(buttonBaseClass, buttonSizeClass.md, buttonVariantClass[variant]);
+
+/** The report's cost per hp with what it counts, as the PDF prints it. */
+function CostLine({ cost, units }: { cost: ReportCost; units: DisplayUnits }) {
+  const gain = units.p(cost.gainHp);
+  return (
+    <p className="num max-w-prose text-sm text-ink-muted" data-testid="report-cost">
+      Cost of the work counted <strong className="text-ink">{formatMoney(cost.totalCostCents, { minorUnits: true })}</strong> ÷ peak power gain {powerGain(units, cost.gainHp)} ={' '}
+      <strong className="text-ink">{gain > 0 ? `${formatMoney(cost.totalCostCents / 100 / gain, { wholeUnits: true })} per ${units.power}` : 'not meaningful (no peak gain)'}</strong>. Counts {costCoverage(cost)}.
+    </p>
+  );
+}
 
 export default function ReportPage() {
   const { reportId = '' } = useParams();
@@ -58,6 +71,7 @@ export default function ReportPage() {
 
       {head ? <HeadlineFigures gain={head} run={headRun} units={units} /> : null}
       <p className="max-w-prose text-base leading-relaxed">{r.data.summary}</p>
+      {r.data.cost ? <CostLine cost={r.data.cost} units={units} /> : null}
       {r.data.warnings.length ? (
         <Caution title="Read with care" kind="notice">
           <ul className="m-0 list-disc pl-5">
