@@ -111,7 +111,7 @@ export function AfrChart({ curve, mode = 'afr' }: { curve: DisplayCurve; mode?: 
       ...base,
       xAxis: { ...xAxis, axisPointer: { label: { formatter: ({ value }: { value: unknown }) => formatRpm(Number(value)) } } },
       // AFR moves in tenths and lambda in hundredths; whole-number ticks would all read "13" or "1".
-      yAxis: { ...y, axisLabel: { ...(y.axisLabel as object), formatter: (v: number) => formatNumber(v, { decimals }) } },
+      yAxis: { ...y, minInterval: decimals === 1 ? 0.1 : 0.01, axisLabel: { ...(y.axisLabel as object), formatter: (v: number) => formatNumber(v, { decimals }) } },
       tooltip: { ...(base.tooltip as object), formatter: rpmTooltip(mode === 'afr' ? 2 : 3) },
       series: channels.map((c, i) => ({
         type: 'line' as const,

@@ -89,7 +89,7 @@ export function mixtureChannels(afr: Record<string, number[]>, mode: MixtureChoi
   return Object.entries(afr).map(([key, values]) => {
     const fromLambda = key.endsWith(' (AFR)');
     const header = prettyHeader(fromLambda ? key.slice(0, -' (AFR)'.length) : key);
-    if (mode === 'afr') return { key, label: fromLambda ? `${header} → AFR (×${STOICH})` : `${header} (AFR)`, values };
+    if (mode === 'afr') return { key, label: fromLambda ? `${header} → AFR (×${STOICH})` : header, values };
     return { key, label: fromLambda ? `${header} (lambda)` : `${header} → lambda (÷${STOICH})`, values: values.map((v) => v / GASOLINE_STOICH_AFR) };
   });
 }

@@ -32,19 +32,25 @@ const fromLg = { headerClassName: 'hidden lg:table-cell', cellClassName: 'hidden
 const from2xl = { headerClassName: 'hidden 2xl:table-cell', cellClassName: 'hidden 2xl:table-cell' };
 
 /**
- * Peaks come right after the run's name so they stay on screen at every width; the customer and
- * the tags (also filters above) give way first on narrower screens.
+ * Peaks come right after the run's name so they stay on screen at every width. On narrower screens
+ * the customer goes first (shown under the bike), then date, stage and tags (shown under the run).
  */
 const columns = [
-  col.accessor('createdAt', { id: 'createdAt', header: 'Uploaded', cell: (c) => <span className="num">{formatDate(c.getValue())}</span> }),
+  col.accessor('createdAt', { id: 'createdAt', header: 'Uploaded', meta: fromLg, cell: (c) => <span className="num">{formatDate(c.getValue())}</span> }),
   col.accessor((r) => r.label ?? r.originalName, {
     id: 'name',
     header: 'Run',
     enableSorting: false,
     cell: (c) => (
-      <Link to={paths.run(c.row.original.id)} title={c.getValue()} className="block max-w-56 truncate font-semibold text-accent underline-offset-2 hover:underline">
-        {c.getValue()}
-      </Link>
+      <>
+        <Link to={paths.run(c.row.original.id)} title={c.getValue()} className="block max-w-56 truncate font-semibold text-accent underline-offset-2 hover:underline">
+          {c.getValue()}
+        </Link>
+        {/* Below 1024 px the date and stage columns give way; show them here. */}
+        <span className="num block text-xs text-ink-subtle lg:hidden">
+          {formatDate(c.row.original.createdAt)} · {c.row.original.stageName ?? 'no stage'}
+        </span>
+      </>
     ),
   }),
   col.accessor('peakPowerHp', {
@@ -72,9 +78,8 @@ const columns = [
   col.accessor('bikeLabel', {
     header: 'Bike',
     enableSorting: false,
-    meta: { wrap: true },
     cell: (c) => (
-      <span>
+      <span className="block min-w-28 whitespace-normal">
         {c.getValue()}
         {/* The customer column gives way below 1536 px; keep the name under the bike. */}
         <span className="block text-xs text-ink-subtle 2xl:hidden">{c.row.original.customerName}</span>
@@ -82,7 +87,7 @@ const columns = [
     ),
   }),
   col.accessor('customerName', { header: 'Customer', enableSorting: false, meta: from2xl }),
-  col.accessor('stageName', { header: 'Stage', enableSorting: false, cell: (c) => c.getValue() ?? <span className="text-ink-subtle">none</span> }),
+  col.accessor('stageName', { header: 'Stage', enableSorting: false, meta: fromLg, cell: (c) => c.getValue() ?? <span className="text-ink-subtle">none</span> }),
   col.accessor('status', { header: 'Status', enableSorting: false, cell: (c) => <RunStatusBadge status={c.getValue()} deleted={Boolean(c.row.original.deletedAt)} /> }),
   col.accessor('tags', { header: 'Tags', enableSorting: false, meta: { wrap: true, ...fromLg }, cell: (c) => c.getValue().join(', ') }),
 ];
@@ -141,7 +146,7 @@ export function RunListPage() {
           )
         }
       />
-      <form role="search" aria-label="Filter runs" className="mb-4 grid gap-3 md:grid-cols-4" onSubmit={(e) => e.preventDefault()}>
+      <form role="search" aria-label="Filter runs" className="mb-4 grid items-end gap-3 sm:grid-cols-2 lg:grid-cols-4" onSubmit={(e) => e.preventDefault()}>
         <SelectField
           label="Bike"
           placeholder="All bikes"

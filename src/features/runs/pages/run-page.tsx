@@ -1,4 +1,4 @@
-import { useMemo, useState } from 'react';
+import { useId, useMemo, useState } from 'react';
 import { Link, useNavigate, useParams, useSearchParams } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
 import { CORRECTION_IDS, type CorrectionId, type RunDetailDto } from '@shared/schemas/run';
@@ -60,6 +60,8 @@ function useViewChoices(defaultStandard: CorrectionId) {
 
 function CurveCard({ run }: { run: RunDetailDto }) {
   const { power, torque, standard, mixture, setPower, setTorque, setStandard, setMixture } = useViewChoices(run.correctionStandard ?? 'none');
+  const correctionHintId = useId();
+  const mixtureHintId = useId();
   const curve = useMemo(() => displayCurve(run, standard, power, torque), [run, standard, power, torque]);
   const pu = POWER_LABEL[power];
   const tu = TORQUE_LABEL[torque];
@@ -73,10 +75,15 @@ function CurveCard({ run }: { run: RunDetailDto }) {
         title="Power and torque"
         description={`${standard === 'none' || curve.problem ? 'Uncorrected' : `Corrected to ${std}`}. Power is the solid line, torque the dashed one, on one shared scale.${crossing}`}
         actions={
-          <div className="flex flex-wrap items-start gap-2">
-            <SelectField label="Power unit" containerClassName="w-28" value={power} onChange={(e) => setPower(e.target.value as PowerChoice)} options={[{ value: 'hp', label: 'hp' }, { value: 'kw', label: 'kW' }]} />
-            <SelectField label="Torque unit" containerClassName="w-28" value={torque} onChange={(e) => setTorque(e.target.value as TorqueChoice)} options={[{ value: 'lbft', label: 'lb·ft' }, { value: 'nm', label: 'N·m' }]} />
-            <SelectField label="Correction" containerClassName="w-64" value={standard} onChange={(e) => setStandard(e.target.value as CorrectionId)} options={STANDARD_OPTIONS} hint={CORRECTION_HINT} />
+          <div className="max-w-md space-y-1.5">
+            <div className="flex flex-wrap items-end gap-2">
+              <SelectField label="Power unit" containerClassName="w-28" value={power} onChange={(e) => setPower(e.target.value as PowerChoice)} options={[{ value: 'hp', label: 'hp' }, { value: 'kw', label: 'kW' }]} />
+              <SelectField label="Torque unit" containerClassName="w-28" value={torque} onChange={(e) => setTorque(e.target.value as TorqueChoice)} options={[{ value: 'lbft', label: 'lb·ft' }, { value: 'nm', label: 'N·m' }]} />
+              <SelectField label="Correction" containerClassName="w-48" value={standard} onChange={(e) => setStandard(e.target.value as CorrectionId)} options={STANDARD_OPTIONS} aria-describedby={correctionHintId} />
+            </div>
+            <p id={correctionHintId} className="text-sm text-ink-muted">
+              {CORRECTION_HINT}
+            </p>
           </div>
         }
       >
@@ -96,24 +103,28 @@ function CurveCard({ run }: { run: RunDetailDto }) {
       {hasAfr && (
         <Card
           title={mixture === 'afr' ? 'Air–fuel ratio' : 'Lambda'}
-          description={`${mixtureChannels(curve.afr, mixture)
-            .map((c) => c.label)
-            .join(', ')}.`}
+          description={
+            <>
+              {mixtureChannels(curve.afr, mixture)
+                .map((c) => c.label)
+                .join(', ')}
+              .{' '}
+              <span id={mixtureHintId} className="underline decoration-dotted underline-offset-2" title={`${STOICH} is the stoichiometric air–fuel ratio of gasoline, common practice for petrol; other fuels and blends (E85, methanol) differ.`}>
+                Lambda = AFR ÷ {STOICH}, the gasoline stoichiometric ratio (common practice for petrol).
+              </span>
+            </>
+          }
           actions={
             <SelectField
               label="Show mixture as"
-              containerClassName="w-64"
+              containerClassName="w-56"
               value={mixture}
               onChange={(e) => setMixture(e.target.value as MixtureChoice)}
+              aria-describedby={mixtureHintId}
               options={[
                 { value: 'afr', label: 'AFR (air–fuel ratio)' },
                 { value: 'lambda', label: 'Lambda' },
               ]}
-              hint={
-                <span title={`Lambda = AFR ÷ ${STOICH}. ${STOICH} is the stoichiometric air–fuel ratio of gasoline, common practice for petrol; other fuels and blends differ.`}>
-                  Lambda = AFR ÷ {STOICH} (gasoline stoichiometric ratio, common practice for petrol).
-                </span>
-              }
             />
           }
         >
