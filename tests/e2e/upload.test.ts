@@ -15,8 +15,16 @@ import { startBrowserHarness, type BrowserHarness } from '../support/browser';
 import { syntheticRunFile, type SyntheticRun } from '@server/db/synthetic-runs';
 import type { TestShop } from '../support/test-app';
 
-// Invented session conditions. Dry air (0 % humidity) keeps the expected factor a closed form.
-const AIR = { temperatureC: 30, baroKpa: 98, humidityPct: 0 };
+/**
+ * Invented session conditions, typed in the test shop's units (imperial, the default): °F and inHg.
+ * Dry air (0 % humidity) keeps the expected factor a closed form.
+ */
+const TYPED = { temperatureF: 86, baroInHg: 29, humidityPct: 0 };
+/**
+ * The same air in the API's units. NIST SP 811 (2008), B.9: t/°C = (t/°F − 32) / 1.8;
+ * 1 inHg (32 °F) = 3.38638 kPa.
+ */
+const AIR = { temperatureC: (TYPED.temperatureF - 32) / 1.8, baroKpa: TYPED.baroInHg * 3.38638, humidityPct: TYPED.humidityPct };
 /**
  * SAE J1349 (current form): CF = 1.176 · (99 / Pd) · √(T / 298 K) − 0.176, Pd the dry-air pressure
  * in kPa (here the barometric pressure, as the air is dry), T the air temperature in kelvin. The
@@ -94,12 +102,22 @@ describe('uploading a dyno session', () => {
     await page.getByRole('button', { name: 'New session' }).click();
     const form = page.getByRole('form', { name: 'New session' });
     await form.getByLabel('Dyno').selectOption({ label: 'Bay 1 roller' });
-    await form.getByLabel('Ambient temperature').fill(String(AIR.temperatureC));
-    await form.getByLabel('Barometric pressure').fill(String(AIR.baroKpa));
-    await form.getByLabel('Relative humidity').fill(String(AIR.humidityPct));
+    // The shop works in °F and inHg; a kPa figure typed there is caught as the wrong unit.
+    expect(await form.getByLabel('Units for the conditions').inputValue()).toBe('imperial');
+    await form.getByLabel('Ambient temperature').fill(String(TYPED.temperatureF));
+    await form.getByLabel('Barometric pressure').fill('98');
+    await form.getByLabel('Relative humidity').focus();
+    await visible(page, 'That looks like kPa, not inHg — switch units?');
+    await form.getByLabel('Barometric pressure').fill(String(TYPED.baroInHg));
+    await form.getByLabel('Relative humidity').fill(String(TYPED.humidityPct));
+    await expect.poll(() => page.getByText('That looks like kPa').count()).toBe(0);
     expect(await form.getByLabel('Correction standard').inputValue()).toBe('sae-j1349');
     await form.getByRole('button', { name: 'Create session' }).click();
     await visible(page, 'Safety checks for this session');
+    // Stored in the API's units, converted from what was typed.
+    const created = (await (await h.t.signIn(shop.users.tuner)).get('/api/sessions').query({ bikeId: shop.bike.id })).body[0];
+    expect(created.ambientTempC).toBeCloseTo(AIR.temperatureC, 6);
+    expect(created.baroKpa).toBeCloseTo(AIR.baroKpa, 6);
 
     // The run files stay locked until every check is ticked and confirmed.
     const input = page.locator('input[type=file]');
@@ -227,9 +245,21 @@ describe('uploading a dyno session', () => {
     const rawTorque = numberIn(await stats(), /Peak torque([\d,.]+)lb·ft/);
     expect(Math.abs(rawTorque / truth.peakTorque.lbft - 1)).toBeLessThan(0.02);
 
+    // The tooltip names engine speed in whole rpm ("4,450 rpm"), not "4,450.00".
+    const canvas = await chartCard.locator('canvas').first().boundingBox();
+    await page.mouse.move(canvas!.x + canvas!.width / 2, canvas!.y + canvas!.height / 2);
+    // The tooltip's heading is a block of its own whose whole text is the engine speed.
+    const tooltipRpm = chartCard.locator('div').filter({ hasText: /^\d{1,2},\d{3} rpm$/ });
+    await expect.poll(() => tooltipRpm.count()).toBeGreaterThan(0);
+
     await chartCard.getByLabel('Power unit').selectOption('kw');
     await chartCard.getByLabel('Torque unit').selectOption('nm');
     await expect.poll(async () => /Peak power[\d,.]+kW/.test(await stats())).toBe(true);
+    // The choices live in the URL, so a reload keeps them.
+    await expect.poll(() => new URL(page.url()).searchParams.get('power')).toBe('kw');
+    await page.reload();
+    await expect.poll(async () => /Peak power[\d,.]+kW/.test(await stats())).toBe(true);
+    expect(await chartCard.getByLabel('Correction').inputValue()).toBe('none');
     const kw = numberIn(await stats(), /Peak power([\d,.]+)kW/);
     expect(Math.abs(kw - rawHp * KW_PER_HP)).toBeLessThan(0.1);
     // NIST SP 811 (2008), B.9: 1 lbf·ft = 1.355818 N·m.
@@ -262,11 +292,32 @@ describe('uploading a dyno session', () => {
     await page.goto(`${h.baseUrl}/runs?bikeId=${shop.bike.id}&sort=-peakPowerHp`);
     const runs = page.getByRole('table', { name: 'Runs' });
     await expect.poll(() => runs.locator('tbody tr').count()).toBe(3);
-    const names = await runs.locator('tbody tr td:nth-child(2)').allTextContents();
+    const names = await runs.locator('tbody tr td:nth-child(2) a').allTextContents();
     expect(names).toEqual(['pull-03-drum.csv', 'pull-02.csv', 'pull-01.csv']);
     await page.getByLabel('Status').selectOption('needs-mapping');
     await expect.poll(() => new URL(page.url()).searchParams.get('status')).toBe('needs-mapping');
     await expect.poll(() => runs.getByText('No run matches these filters.').isVisible()).toBe(true);
     await h.screenshot(page, 'upload-08-run-list');
+
+    // A tablet in portrait still shows both peaks.
+    await page.getByLabel('Status').selectOption('');
+    await page.setViewportSize({ width: 768, height: 1024 });
+    await expect.poll(() => runs.locator('tbody tr').count()).toBe(3);
+    const viewport = 768;
+    for (const name of ['Peak power', 'Peak torque']) {
+      const box = await runs.getByRole('columnheader', { name }).boundingBox();
+      expect(box && box.x + box.width, `${name} on screen`).toBeLessThanOrEqual(viewport);
+    }
+    await h.screenshot(page, 'upload-09-run-list-tablet');
   }, 90_000);
+
+  it('a customer who opens staff pages by URL gets a plain page, not failing screens', async () => {
+    const page = await h.signInPage(shop.users.customer.email);
+    const tuner = await h.t.signIn(shop.users.tuner);
+    const sessionId = (await tuner.get('/api/sessions').query({ bikeId: shop.bike.id })).body[0].id;
+    for (const url of ['/runs', '/upload', `/sessions/${sessionId}`, '/settings/dynos']) {
+      await page.goto(`${h.baseUrl}${url}`);
+      await visible(page, 'Not available for your role');
+    }
+  }, 60_000);
 });
