@@ -108,6 +108,7 @@ describe('uploading a dyno session', () => {
     await form.getByLabel('Barometric pressure').fill('98');
     await form.getByLabel('Relative humidity').focus();
     await visible(page, 'That looks like kPa, not inHg — switch units?');
+    await h.screenshot(page, 'upload-00-session-form');
     await form.getByLabel('Barometric pressure').fill(String(TYPED.baroInHg));
     await form.getByLabel('Relative humidity').fill(String(TYPED.humidityPct));
     await expect.poll(() => page.getByText('That looks like kPa').count()).toBe(0);

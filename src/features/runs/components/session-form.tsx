@@ -1,4 +1,4 @@
-import { useEffect, useRef } from 'react';
+import { useEffect, useId, useRef } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { zodResolver } from '@hookform/resolvers/zod';
@@ -104,6 +104,7 @@ export function SessionForm({ bikeId, units: shopUnits, onCreated, onCancel }: {
     if (!picked.current) form.setValue('units', shopUnits);
   }, [shopUnits, form]);
 
+  const conditionsNoteId = useId();
   const errors = form.formState.errors;
   const units = form.watch('units');
   const baro = form.watch('baro');
@@ -144,7 +145,7 @@ export function SessionForm({ bikeId, units: shopUnits, onCreated, onCancel }: {
   const dynoOptions = (dynos.data ?? []).map((d) => ({ value: d.id, label: d.name }));
   return (
     <form onSubmit={submit} noValidate className="space-y-4" aria-label="New session">
-      <div className="grid gap-4 md:grid-cols-3">
+      <div className="grid items-start gap-4 md:grid-cols-3">
         <TextField label="Date and time" type="datetime-local" {...form.register('startedAt')} error={errors.startedAt} />
         <SelectField
           label="Dyno"
@@ -153,7 +154,6 @@ export function SessionForm({ bikeId, units: shopUnits, onCreated, onCancel }: {
           {...form.register('dynoId')}
           error={errors.dynoId}
         />
-        <SelectField label="Correction standard" options={CORRECTION_OPTIONS} {...form.register('correctionStandard')} error={errors.correctionStandard} hint={CORRECTION_HINT} />
         <SelectField
           label="Units for the conditions"
           options={[
@@ -161,11 +161,11 @@ export function SessionForm({ bikeId, units: shopUnits, onCreated, onCancel }: {
             { value: 'metric', label: '°C and kPa' },
           ]}
           {...form.register('units', { onChange: () => unitsChanged() })}
-          hint={`The shop's setting is ${shopUnits === 'imperial' ? '°F and inHg' : '°C and kPa'}; stored as °C and kPa.`}
+          aria-describedby={conditionsNoteId}
         />
         <NumberField label="Ambient temperature" unit={u.temperature} {...form.register('ambientTemp', { valueAsNumber: true })} error={errors.ambientTemp} />
         <div>
-          <NumberField label="Barometric pressure" unit={u.pressure} {...form.register('baro', { valueAsNumber: true })} error={errors.baro} hint="Station pressure, not sea-level." />
+          <NumberField label="Barometric pressure" unit={u.pressure} {...form.register('baro', { valueAsNumber: true })} error={errors.baro} aria-describedby={conditionsNoteId} />
           {suggestion && (
             <Button size="sm" variant="secondary" className="mt-2" onClick={() => switchUnits(suggestion)}>
               Switch to {UNIT_TEXT[suggestion].temperature} and {UNIT_TEXT[suggestion].pressure}
@@ -173,6 +173,10 @@ export function SessionForm({ bikeId, units: shopUnits, onCreated, onCancel }: {
           )}
         </div>
         <NumberField label="Relative humidity" unit="%" {...form.register('humidityPct', { valueAsNumber: true })} error={errors.humidityPct} />
+        <p id={conditionsNoteId} className="text-sm text-ink-muted md:col-span-3">
+          Barometric pressure is station pressure, not sea-level. The shop works in {shopUnits === 'imperial' ? '°F and inHg' : '°C and kPa'}; Pullbook stores °C and kPa.
+        </p>
+        <SelectField label="Correction standard" containerClassName="md:col-span-1" options={CORRECTION_OPTIONS} {...form.register('correctionStandard')} error={errors.correctionStandard} hint={CORRECTION_HINT} />
       </div>
       <TextAreaField label="Session notes" rows={2} {...form.register('notes')} error={errors.notes} />
       <FormError error={create.error instanceof ApiError && create.error.fields.length ? null : create.error} title="The session was not created" />
