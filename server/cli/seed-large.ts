@@ -28,7 +28,7 @@ export const LARGE_SEED_SHOPS = 4;
 const ENGINES: [string, string, string, number, number, number][] = [
   ['Vantor 88', 'Corvane', 'Ridgeline', 1450, 2, 62],
   ['Vantor 96', 'Corvane', 'Tourer', 1584, 2, 68],
-  ['Vantor 103', 'Corvane', 'Roadmaster', 1690, 2, 74],
+  ['Vantor 103', 'Corvane', 'Grandline', 1690, 2, 74],
   ['Vantor 107', 'Corvane', 'Plains', 1753, 2, 79],
   ['Vantor 114', 'Corvane', 'Longhaul', 1868, 2, 86],
   ['Kestrel V2 1250', 'Kestrel', 'Apex', 1250, 2, 105],

@@ -10,7 +10,7 @@ import { Part, Stage } from '@server/modules/stages/stage.entity';
 import { Run } from '@server/modules/runs/run.entity';
 import { Shop } from '@server/modules/shops/shop.entity';
 import { searchSql } from '@server/modules/builds/build-search.service';
-import { buildSearchQuery } from '@server/modules/builds/build.schemas';
+import { buildSearchQuery } from '@shared/schemas/builds';
 import type { Actor } from '@server/http/actor';
 
 /**

@@ -3,7 +3,7 @@ import { HEAD_WORK_LEVELS } from '@shared/parts';
 import { CC_PER_CUBIC_INCH } from '@shared/displacement';
 import type { Actor } from '../../http/actor';
 import { AppError } from '../../lib/errors';
-import type { BuildSearchQuery } from './build.schemas';
+import type { BuildSearchQuery } from '@shared/schemas/builds';
 import type { BuildSearchPage } from '@shared/schemas/builds';
 import { BUILD_INDEX_COLUMNS, Sql, escapeLike, toBuildItem, type BuildIndexRow } from './build-sql';
 

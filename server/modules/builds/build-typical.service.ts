@@ -2,7 +2,7 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { HEAD_WORK_LABELS, PART_CATEGORY_LABELS } from '@shared/parts';
 import type { Actor } from '../../http/actor';
 import { notFound } from '../../lib/errors';
-import type { TypicalQuery } from './build.schemas';
+import type { TypicalQuery } from '@shared/schemas/builds';
 import type { TypicalBuildDto, TypicalOutcomeDto } from '@shared/schemas/builds';
 import { Sql } from './build-sql';
 import { QUANTILE_METHOD, fiveNumbers, quantileR7 } from './stats';

@@ -2,7 +2,7 @@ import { ApiRouter } from '../../http/api-router';
 import type { AppDeps } from '../../app-deps';
 import { STAFF } from '@shared/roles';
 import { idParams } from '@shared/schemas/common';
-import { buildSearchQuery, similarQuery, typicalQuery } from './build.schemas';
+import { buildSearchQuery, similarQuery, typicalQuery } from '@shared/schemas/builds';
 import { searchBuilds } from './build-search.service';
 import { similarBuilds } from './build-similar.service';
 import { typicalOutcome } from './build-typical.service';

@@ -61,6 +61,19 @@ export const buildSearchQuery = z.object({
 });
 export type BuildSearchQuery = z.output<typeof buildSearchQuery>;
 
+/** GET /api/bikes/:id/similar */
+export const similarQuery = z.object({
+  limit: z.coerce.number().int().min(1).max(50).default(20),
+});
+
+/** GET /api/builds/typical: a planned modification on a bike. */
+export const typicalQuery = z.object({
+  bikeId: uuid,
+  category: z.enum(PART_CATEGORIES),
+  level: z.preprocess((v) => (v === '' ? undefined : v), z.enum(HEAD_WORK_LEVELS).optional()),
+});
+export type TypicalQuery = z.output<typeof typicalQuery>;
+
 /** An optional number typed in a form box: blank is "not set"; the text is kept for the URL. */
 const formNumber = (label: string, opts: { min: number; max?: number; int?: boolean }) =>
   z
