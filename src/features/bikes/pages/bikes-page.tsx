@@ -1,11 +1,10 @@
-import { useMemo, useState } from 'react';
-import { useQuery } from '@tanstack/react-query';
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
-import { createColumnHelper, type PaginationState, type SortingState } from '@tanstack/react-table';
+import { createColumnHelper } from '@tanstack/react-table';
 import type { BikeDto } from '@shared/schemas/bike';
-import { Button, DataTable, ErrorState, Icon, PageHeader, SearchInput, useDebouncedValue } from '@/components/ui';
+import { Button, DataTable, ErrorState, Icon, PageHeader, SearchInput } from '@/components/ui';
 import { formatNumber } from '@shared/format';
 import { hasRole, useCurrentUser } from '@/lib/auth';
+import { useServerTable } from '@/lib/use-server-table';
 import { paths } from '@/config/paths';
 import { bikeQueries } from '../api/bike-queries';
 import { BikeFormDialog } from '../components/bike-form-dialog';
@@ -56,22 +55,14 @@ const columns = [
   col.accessor('cylinders', { header: 'Cyl.', enableSorting: false, meta: { numeric: true }, cell: (c) => formatNumber(c.getValue()) }),
 ];
 
-const toSort = (s: SortingState) => (s[0] ? `${s[0].desc ? '-' : ''}${s[0].id}` : undefined);
-
 export default function BikesPage() {
   const user = useCurrentUser();
   const canEdit = hasRole(user, ['owner', 'desk']);
   const navigate = useNavigate();
   const [params, setParams] = useSearchParams();
-  const [search, setSearch] = useState(params.get('q') ?? '');
-  const q = useDebouncedValue(search.trim(), 300);
-  const [sorting, setSorting] = useState<SortingState>([{ id: 'make', desc: false }]);
-  const [pagination, setPagination] = useState<PaginationState>({ pageIndex: 0, pageSize: 25 });
+  const { search, onSearchChange, q, list, tableState } = useServerTable({ defaultSort: [{ id: 'make', desc: false }], query: bikeQueries.list });
   const creating = canEdit && params.get('new') === '1';
   const presetCustomer = params.get('customerId') ?? undefined;
-
-  const filters = useMemo(() => ({ q: q || undefined, sort: toSort(sorting), page: pagination.pageIndex + 1, pageSize: pagination.pageSize }), [q, sorting, pagination]);
-  const list = useQuery(bikeQueries.list(filters));
 
   const setCreating = (open: boolean) =>
     setParams(
@@ -103,10 +94,7 @@ export default function BikesPage() {
         label="Search bikes"
         placeholder="Make, model, VIN, engine family or owner"
         value={search}
-        onValueChange={(v) => {
-          setSearch(v);
-          setPagination((p) => ({ ...p, pageIndex: 0 }));
-        }}
+        onValueChange={onSearchChange}
         containerClassName="mb-4 max-w-md"
       />
       {list.isError && !list.data ? (
@@ -119,13 +107,7 @@ export default function BikesPage() {
           getRowId={(b) => b.id}
           isLoading={list.isFetching}
           totalRows={list.data?.total}
-          sorting={sorting}
-          onSortingChange={(updater) => {
-            setSorting(updater);
-            setPagination((p) => ({ ...p, pageIndex: 0 }));
-          }}
-          pagination={pagination}
-          onPaginationChange={setPagination}
+          {...tableState}
           maxHeight={null}
           emptyMessage={q ? <>No bike matches “{q}”.</> : canEdit ? <>No bikes yet. Add one with “New bike”, or from the customer’s page.</> : <>No bikes yet.</>}
         />

@@ -1,11 +1,10 @@
-import { useMemo, useState } from 'react';
-import { useQuery } from '@tanstack/react-query';
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
-import { createColumnHelper, type PaginationState, type SortingState } from '@tanstack/react-table';
+import { createColumnHelper } from '@tanstack/react-table';
 import type { CustomerDto } from '@shared/schemas/customer';
-import { Button, DataTable, ErrorState, Icon, PageHeader, SearchInput, StatusBadge, useDebouncedValue } from '@/components/ui';
+import { Button, DataTable, ErrorState, Icon, PageHeader, SearchInput, StatusBadge } from '@/components/ui';
 import { formatDate, formatNumber } from '@shared/format';
 import { hasRole, useCurrentUser } from '@/lib/auth';
+import { useServerTable } from '@/lib/use-server-table';
 import { paths } from '@/config/paths';
 import { customerQueries } from '../api/customer-queries';
 import { CustomerFormDialog } from '../components/customer-form-dialog';
@@ -31,21 +30,13 @@ const columns = [
   col.accessor('createdAt', { header: 'Added', meta: { numeric: true }, cell: (c) => formatDate(c.getValue()) }),
 ];
 
-const toSort = (s: SortingState) => (s[0] ? `${s[0].desc ? '-' : ''}${s[0].id}` : undefined);
-
 export default function CustomersPage() {
   const user = useCurrentUser();
   const canEdit = hasRole(user, ['owner', 'desk']);
   const navigate = useNavigate();
   const [params, setParams] = useSearchParams();
-  const [search, setSearch] = useState(params.get('q') ?? '');
-  const q = useDebouncedValue(search.trim(), 300);
-  const [sorting, setSorting] = useState<SortingState>([{ id: 'name', desc: false }]);
-  const [pagination, setPagination] = useState<PaginationState>({ pageIndex: 0, pageSize: 25 });
+  const { search, onSearchChange, q, list, tableState } = useServerTable({ defaultSort: [{ id: 'name', desc: false }], query: customerQueries.list });
   const creating = canEdit && params.get('new') === '1';
-
-  const filters = useMemo(() => ({ q: q || undefined, sort: toSort(sorting), page: pagination.pageIndex + 1, pageSize: pagination.pageSize }), [q, sorting, pagination]);
-  const list = useQuery(customerQueries.list(filters));
 
   const setCreating = (open: boolean) =>
     setParams(
@@ -74,10 +65,7 @@ export default function CustomersPage() {
         label="Search customers"
         placeholder="Search by name, e-mail or phone"
         value={search}
-        onValueChange={(v) => {
-          setSearch(v);
-          setPagination((p) => ({ ...p, pageIndex: 0 }));
-        }}
+        onValueChange={onSearchChange}
         containerClassName="mb-4 max-w-md"
       />
       {list.isError && !list.data ? (
@@ -90,13 +78,7 @@ export default function CustomersPage() {
           getRowId={(c) => c.id}
           isLoading={list.isFetching}
           totalRows={list.data?.total}
-          sorting={sorting}
-          onSortingChange={(updater) => {
-            setSorting(updater);
-            setPagination((p) => ({ ...p, pageIndex: 0 }));
-          }}
-          pagination={pagination}
-          onPaginationChange={setPagination}
+          {...tableState}
           maxHeight={null}
           emptyMessage={
             q ? (
