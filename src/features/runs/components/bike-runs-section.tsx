@@ -1,7 +1,5 @@
 import { Link } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
-import { createColumnHelper } from '@tanstack/react-table';
-import type { RunSummaryDto } from '@shared/schemas/run';
 import { STAFF, WORKSHOP } from '@shared/roles';
 import { Card, DataTable, ErrorState, Icon } from '@/components/ui';
 import { formatDate, formatDateTime, formatHp, formatRpm, formatTorque } from '@shared/format';
@@ -10,19 +8,12 @@ import { paths } from '@/config/paths';
 import { runQueries } from '../api/run-queries';
 import { sessionQueries } from '../api/session-queries';
 import { RunStatusBadge } from './run-status';
+import { runColumn, runNameColumn } from './run-columns';
 
-const col = createColumnHelper<RunSummaryDto>();
+const col = runColumn;
 const columns = [
   col.accessor('createdAt', { header: 'Date', cell: (c) => <span className="num">{formatDate(c.getValue())}</span> }),
-  col.accessor((r) => r.label ?? r.originalName, {
-    id: 'name',
-    header: 'Run',
-    cell: (c) => (
-      <Link to={paths.run(c.row.original.id)} className="font-semibold text-accent underline-offset-2 hover:underline">
-        {c.getValue()}
-      </Link>
-    ),
-  }),
+  runNameColumn(),
   col.accessor('stageName', { header: 'Stage', cell: (c) => (c.getValue() ? `${c.getValue()}${c.row.original.isReference ? ' (reference)' : ''}` : <span className="text-ink-subtle">none</span>) }),
   col.accessor('status', { header: 'Status', cell: (c) => <RunStatusBadge status={c.getValue()} /> }),
   col.accessor('peakPowerHp', { header: 'Peak power', meta: { numeric: true }, cell: (c) => `${formatHp(c.getValue())}${c.row.original.peakPowerRpm ? ` @ ${formatRpm(c.row.original.peakPowerRpm)}` : ''}` }),

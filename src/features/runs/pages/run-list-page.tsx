@@ -1,17 +1,18 @@
 import { useEffect, useMemo, useState } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
-import { createColumnHelper, type PaginationState, type SortingState } from '@tanstack/react-table';
-import { RUN_STATUSES, type RunStatusId, type RunSummaryDto } from '@shared/schemas/run';
+import { type PaginationState, type SortingState } from '@tanstack/react-table';
+import { RUN_STATUSES, type RunStatusId } from '@shared/schemas/run';
 import { Button, Caution, DataTable, ErrorState, Icon, PageHeader, SelectField, TextField, useDebouncedValue } from '@/components/ui';
-import { formatDate, formatHp, formatRpm, formatTorque } from '@shared/format';
+import { formatDate } from '@shared/format';
 import { useCurrentUser } from '@/lib/auth';
 import { paths } from '@/config/paths';
 import { bikeLabel, lookupQueries, runQueries, type RunFilters } from '../api/run-queries';
 import { stageQueries } from '../api/stage-queries';
 import { RUN_STATUS_LABELS, RunStatusBadge } from '../components/run-status';
+import { peakPowerColumn, peakTorqueColumn, runColumn, runName } from '../components/run-columns';
 
-const col = createColumnHelper<RunSummaryDto>();
+const col = runColumn;
 const FILTER_KEYS = ['bikeId', 'customerId', 'stageId', 'tag', 'status', 'from', 'to'] as const;
 const DEFAULT_SORT = '-createdAt';
 
@@ -37,7 +38,7 @@ const from2xl = { headerClassName: 'hidden 2xl:table-cell', cellClassName: 'hidd
  */
 const columns = [
   col.accessor('createdAt', { id: 'createdAt', header: 'Uploaded', meta: fromLg, cell: (c) => <span className="num">{formatDate(c.getValue())}</span> }),
-  col.accessor((r) => r.label ?? r.originalName, {
+  col.accessor(runName, {
     id: 'name',
     header: 'Run',
     enableSorting: false,
@@ -53,28 +54,8 @@ const columns = [
       </>
     ),
   }),
-  col.accessor('peakPowerHp', {
-    id: 'peakPowerHp',
-    header: 'Peak power',
-    meta: { numeric: true },
-    cell: (c) => (
-      <span>
-        {formatHp(c.getValue())}
-        <span className="block text-xs text-ink-subtle">{c.row.original.peakPowerRpm ? `at ${formatRpm(c.row.original.peakPowerRpm)}` : ''}</span>
-      </span>
-    ),
-  }),
-  col.accessor('peakTorqueLbft', {
-    id: 'peakTorqueLbft',
-    header: 'Peak torque',
-    meta: { numeric: true },
-    cell: (c) => (
-      <span>
-        {formatTorque(c.getValue())}
-        <span className="block text-xs text-ink-subtle">{c.row.original.peakTorqueRpm ? `at ${formatRpm(c.row.original.peakTorqueRpm)}` : ''}</span>
-      </span>
-    ),
-  }),
+  peakPowerColumn(),
+  peakTorqueColumn(),
   col.accessor('bikeLabel', {
     header: 'Bike',
     enableSorting: false,

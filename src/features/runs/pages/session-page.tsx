@@ -1,11 +1,10 @@
 import { useMemo } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
-import { createColumnHelper } from '@tanstack/react-table';
 import type { RunSummaryDto, SessionDto, StageDto } from '@shared/schemas/run';
 import { WORKSHOP } from '@shared/roles';
 import { Button, Card, DataTable, ErrorState, Icon, LoadingState, PageHeader, StatusBadge, useToast } from '@/components/ui';
-import { formatDateTime, formatHp, formatNumber, formatRpm, formatTorque } from '@shared/format';
+import { formatDateTime, formatNumber } from '@shared/format';
 import { useCurrentUser } from '@/lib/auth';
 import { paths } from '@/config/paths';
 import { bikeLabel, lookupQueries, runQueries } from '../api/run-queries';
@@ -13,11 +12,12 @@ import { sessionQueries } from '../api/session-queries';
 import { stageQueries } from '../api/stage-queries';
 import { useSetReferenceRun } from '../api/set-reference-run';
 import { RunStatusBadge } from '../components/run-status';
+import { peakPowerColumn, peakTorqueColumn, runColumn, runNameColumn } from '../components/run-columns';
 import { StageSelect } from '../components/stage-select';
 import { SafetyChecklist } from '../components/safety-checklist';
 import { CORRECTION_OPTIONS } from '../lib/correction';
 
-const col = createColumnHelper<RunSummaryDto>();
+const col = runColumn;
 
 function ReferenceCell({ run, stages, canEdit }: { run: RunSummaryDto; stages: StageDto[]; canEdit: boolean }) {
   const setRef = useSetReferenceRun();
@@ -90,36 +90,10 @@ export function SessionPage() {
   const columns = useMemo(
     () => [
       col.accessor('sequence', { header: '#', meta: { numeric: true } }),
-      col.accessor((r) => r.label ?? r.originalName, {
-        id: 'name',
-        header: 'Run',
-        cell: (c) => (
-          <Link to={paths.run(c.row.original.id)} className="font-semibold text-accent underline-offset-2 hover:underline">
-            {c.getValue()}
-          </Link>
-        ),
-      }),
+      runNameColumn(),
       col.accessor('status', { header: 'Status', cell: (c) => <RunStatusBadge status={c.getValue()} /> }),
-      col.accessor('peakPowerHp', {
-        header: 'Peak power',
-        meta: { numeric: true },
-        cell: (c) => (
-          <span>
-            {formatHp(c.getValue())}
-            <span className="block text-xs text-ink-subtle">{c.row.original.peakPowerRpm ? `at ${formatRpm(c.row.original.peakPowerRpm)}` : ''}</span>
-          </span>
-        ),
-      }),
-      col.accessor('peakTorqueLbft', {
-        header: 'Peak torque',
-        meta: { numeric: true },
-        cell: (c) => (
-          <span>
-            {formatTorque(c.getValue())}
-            <span className="block text-xs text-ink-subtle">{c.row.original.peakTorqueRpm ? `at ${formatRpm(c.row.original.peakTorqueRpm)}` : ''}</span>
-          </span>
-        ),
-      }),
+      peakPowerColumn(),
+      peakTorqueColumn(),
       col.display({
         id: 'stage',
         header: 'Stage',

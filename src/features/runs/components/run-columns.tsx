@@ -1,0 +1,49 @@
+import { Link } from 'react-router-dom';
+import { createColumnHelper } from '@tanstack/react-table';
+import type { RunSummaryDto } from '@shared/schemas/run';
+import { formatHp, formatRpm, formatTorque } from '@shared/format';
+import { paths } from '@/config/paths';
+
+/** Column pieces shared by the run tables (run list, session, bike page), so a run reads the same everywhere. */
+export const runColumn = createColumnHelper<RunSummaryDto>();
+
+/** The name a person gave the run, else the uploaded file's name. */
+export const runName = (r: RunSummaryDto) => r.label ?? r.originalName;
+
+/** Run name linking to the run page. */
+export const runNameColumn = () =>
+  runColumn.accessor(runName, {
+    id: 'name',
+    header: 'Run',
+    cell: (c) => (
+      <Link to={paths.run(c.row.original.id)} className="font-semibold text-accent underline-offset-2 hover:underline">
+        {c.getValue()}
+      </Link>
+    ),
+  });
+
+/** A peak figure with the rpm it was reached at on a second line. */
+function PeakCell({ value, rpm }: { value: string; rpm: number | null }) {
+  return (
+    <span>
+      {value}
+      <span className="block text-xs text-ink-subtle">{rpm ? `at ${formatRpm(rpm)}` : ''}</span>
+    </span>
+  );
+}
+
+export const peakPowerColumn = () =>
+  runColumn.accessor('peakPowerHp', {
+    id: 'peakPowerHp',
+    header: 'Peak power',
+    meta: { numeric: true },
+    cell: (c) => <PeakCell value={formatHp(c.getValue())} rpm={c.row.original.peakPowerRpm} />,
+  });
+
+export const peakTorqueColumn = () =>
+  runColumn.accessor('peakTorqueLbft', {
+    id: 'peakTorqueLbft',
+    header: 'Peak torque',
+    meta: { numeric: true },
+    cell: (c) => <PeakCell value={formatTorque(c.getValue())} rpm={c.row.original.peakTorqueRpm} />,
+  });
