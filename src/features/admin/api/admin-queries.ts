@@ -1,4 +1,4 @@
-import { infiniteQueryOptions, queryOptions } from '@tanstack/react-query';
+import { infiniteQueryOptions, keepPreviousData, queryOptions } from '@tanstack/react-query';
 import type { ShopDto } from '@shared/schemas/shop';
 import { api } from '@/lib/api-client';
 
@@ -36,6 +36,8 @@ export const adminQueries = {
       queryKey: ['audit', kinds.join(',')] as const,
       queryFn: ({ pageParam }) => api.get<AuditEntry[]>('/api/audit', { before: pageParam, limit: AUDIT_PAGE, kinds: kinds.length ? kinds.join(',') : undefined }),
       initialPageParam: undefined as string | undefined,
+      // Keep the previous kind's rows on screen while the narrowed log loads.
+      placeholderData: keepPreviousData,
       // The log is newest first; the next page is everything before the oldest entry shown.
       getNextPageParam: (last) => (last.length < AUDIT_PAGE ? undefined : last[last.length - 1].at),
     }),
