@@ -13,6 +13,7 @@ import { parse } from 'csv-parse/sync';
 import { build } from 'esbuild';
 import { analyzeBuffer } from '../server/analysis/analyze.js';
 import { largeRunFileChunks, syntheticRunFile } from '../server/db/synthetic-runs.js';
+import { printTable } from './lib/table.js';
 
 const DIR = join(tmpdir(), 'pullbook-bench');
 const CHILD_SOURCE = fileURLToPath(new URL('./analyze-child.ts', import.meta.url));
@@ -88,7 +89,6 @@ export async function run(): Promise<void> {
       targets,
     ]);
   }
-  const widths = rows[0].map((_, c) => Math.max(...rows.map((r) => r[c].length)));
-  for (const r of rows) process.stdout.write(`${r.map((cell, c) => cell.padEnd(widths[c])).join('  ')}\n`);
+  printTable(rows);
   process.stdout.write('ratio = analysis time ÷ csv-parse alone parsing the same bytes into arrays (target ≤ 2×); peak RSS of analyzeFile measured in a child process (target ≤ 150 MB on the 50 MB file).\n');
 }

@@ -5,16 +5,10 @@
  * seeded with invented runs on each start; the data is small). Median and p95 from every
  * response's time. Target: p95 < 50 ms for 2 runs; 12 runs is reported.
  */
-import http from 'node:http';
 import path from 'node:path';
-import type { AddressInfo } from 'node:net';
 import { randomBytes } from 'node:crypto';
-import autocannon from 'autocannon';
 import { STORAGE } from '../scripts/lib/paths.js';
 import { freePort, startLocalPostgres } from '../scripts/lib/local-services.js';
-import { loadConfig } from '../server/config/env.js';
-import { buildDeps } from '../server/main.js';
-import { createApp } from '../server/app.js';
 import { migrateToLatest } from '../server/db/orm.js';
 import { hashPassword } from '../server/modules/auth/auth.service.js';
 import { Shop } from '../server/modules/shops/shop.entity.js';
@@ -22,69 +16,25 @@ import { User } from '../server/modules/users/user.entity.js';
 import { Customer } from '../server/modules/customers/customer.entity.js';
 import { Bike } from '../server/modules/bikes/bike.entity.js';
 import { ComparisonFixtures, humpWithPeaks } from '../tests/support/comparison-fixtures.js';
+import { signIn, startBenchApp, type BenchApp } from './lib/app-server.js';
+import { loadTest } from './lib/load.js';
+import { printTable } from './lib/table.js';
 
 const CONNECTIONS = 20;
 const DURATION_S = 6;
 const PASSWORD = 'bench-comparison-password';
 
-function percentile(sorted: number[], p: number): number {
-  if (!sorted.length) return NaN;
-  const h = (sorted.length - 1) * p;
-  const lo = Math.floor(h);
-  const hi = Math.min(lo + 1, sorted.length - 1);
-  return sorted[lo] + (h - lo) * (sorted[hi] - sorted[lo]);
-}
-
-async function load(baseUrl: string, cookie: string, body: string) {
-  const times: number[] = [];
-  let errors = 0;
-  await new Promise<void>((resolve, reject) => {
-    const instance = autocannon(
-      { url: `${baseUrl}/api/comparisons/preview`, connections: CONNECTIONS, duration: DURATION_S, method: 'POST', headers: { cookie, 'content-type': 'application/json', origin: baseUrl }, body },
-      (err) => (err ? reject(err) : resolve()),
-    );
-    instance.on('response', (_c: unknown, status: number, _b: number, ms: number) => {
-      if (status !== 200) errors += 1;
-      times.push(ms);
-    });
-  });
-  times.sort((a, b) => a - b);
-  return { requests: times.length, errors, medianMs: percentile(times, 0.5), p95Ms: percentile(times, 0.95) };
+function load(baseUrl: string, cookie: string, body: string) {
+  return loadTest({ url: `${baseUrl}/api/comparisons/preview`, connections: CONNECTIONS, duration: DURATION_S, method: 'POST', headers: { cookie, 'content-type': 'application/json', origin: baseUrl }, body });
 }
 
 /** Prints the comparison bench table. */
 export async function run(): Promise<void> {
   const pgService = await startLocalPostgres({ baseDir: path.join(STORAGE, 'bench', 'comparison-postgres'), port: await freePort(), database: 'pullbook_compare', label: 'bench-compare-postgres' });
-  const server = http.createServer();
-  let close: (() => Promise<void>) | null = null;
+  let app: BenchApp | null = null;
   try {
-    await new Promise<void>((r) => server.listen(0, '127.0.0.1', () => r()));
-    const baseUrl = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
-    const config = loadConfig({
-      ...process.env,
-      NODE_ENV: 'test',
-      DATABASE_URL: pgService.url,
-      SMTP_URL: 'smtp://127.0.0.1:9',
-      S3_ENDPOINT: 'http://127.0.0.1:9',
-      SESSION_SECRET: randomBytes(24).toString('hex'),
-      PUBLIC_URL: baseUrl,
-    });
-    const deps = await buildDeps(config, { poolMax: CONNECTIONS });
-    await migrateToLatest(deps.orm);
-    const created = createApp(deps);
-    let inFlight = 0;
-    server.on('request', (req, res) => {
-      inFlight += 1;
-      res.on('close', () => (inFlight -= 1));
-      created.app(req, res);
-    });
-    close = async () => {
-      for (let i = 0; i < 200 && inFlight > 0; i++) await new Promise((r) => setTimeout(r, 50));
-      await new Promise<void>((r) => server.close(() => r()));
-      server.closeAllConnections();
-      await created.close();
-      await deps.orm.close();
-    };
+    app = await startBenchApp({ databaseUrl: pgService.url, poolMax: CONNECTIONS, prepare: (deps) => migrateToLatest(deps.orm) });
+    const { baseUrl, deps } = app;
 
     // A fresh invented shop each start (the cluster is reused; old shops are simply ignored).
     const em = deps.orm.em.fork();
@@ -102,9 +52,7 @@ export async function run(): Promise<void> {
     );
     await em.flush();
 
-    const login = await fetch(`${baseUrl}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json', origin: baseUrl }, body: JSON.stringify({ email, password: PASSWORD }) });
-    if (login.status !== 200) throw new Error(`sign-in failed: ${login.status}`);
-    const cookie = (login.headers.getSetCookie?.() ?? [login.headers.get('set-cookie') ?? '']).map((c) => c.split(';')[0]).join('; ');
+    const cookie = await signIn(baseUrl, email, PASSWORD);
 
     const ids = runs.map((r) => r.id);
     const cases = [
@@ -121,12 +69,10 @@ export async function run(): Promise<void> {
       const ok = r.errors === 0 && (c.targetMs === null || r.p95Ms < c.targetMs);
       rows.push([c.name, String(r.requests), String(r.errors), r.medianMs.toFixed(1), r.p95Ms.toFixed(1), c.targetMs === null ? 'reported' : `< ${c.targetMs} ms`, ok ? 'ok' : 'OVER TARGET']);
     }
-    const widths = rows[0].map((_, i) => Math.max(...rows.map((row) => row[i].length)));
-    for (const row of rows) process.stdout.write(row.map((c, i) => c.padEnd(widths[i])).join('  ') + '\n');
+    printTable(rows);
     process.stdout.write(`${CONNECTIONS} concurrent connections, ${DURATION_S} s per case; each run 81 points (2,000–6,000 rpm, 50 rpm grid), 4 runs per stage for the spread\n`);
   } finally {
-    if (close) await close();
-    else server.close();
+    if (app) await app.close();
     await pgService.stop();
   }
 }

@@ -10,6 +10,7 @@ import { compareCurves, repeatability, type NormalizedCurve } from '../server/an
 import { renderReportPdf } from '../server/modules/reports/pdf/render';
 import type { ReportData } from '../server/modules/reports/report-data';
 import { HP_TORQUE_CONSTANT } from '../server/analysis/units';
+import { percentile } from './lib/stats';
 
 const RENDERS = 10;
 const TARGET_MEDIAN_MS = 1000;
@@ -104,13 +105,6 @@ export function sampleReportData(overrides: Partial<ReportData> = {}): ReportDat
     technicianNote: 'Cam break-in done on the dyno. Re-torque the exhaust clamps after the first 300 miles and come back for a free check pull.',
     ...overrides,
   };
-}
-
-function percentile(sorted: number[], p: number): number {
-  const i = (sorted.length - 1) * p;
-  const lo = Math.floor(i);
-  const hi = Math.ceil(i);
-  return sorted[lo] + (sorted[hi] - sorted[lo]) * (i - lo);
 }
 
 export async function run(): Promise<void> {

@@ -19,6 +19,7 @@ import { User } from '../server/modules/users/user.entity';
 import { Customer } from '../server/modules/customers/customer.entity';
 import { Bike } from '../server/modules/bikes/bike.entity';
 import { syntheticRunFile } from '../server/db/synthetic-runs';
+import { printTable } from './lib/table';
 
 const FILES = 20;
 const ROWS = 5_000;
@@ -97,8 +98,7 @@ export async function run(): Promise<void> {
           med < TARGET_MS ? `ok (< ${TARGET_MS} ms)` : `OVER ${TARGET_MS} ms`,
         ],
       ];
-      const widths = rows[0].map((_, c) => Math.max(...rows.map((r) => r[c].length)));
-      for (const r of rows) process.stdout.write(`${r.map((cell, c) => cell.padEnd(widths[c])).join('  ')}\n`);
+      printTable(rows);
     } finally {
       await app.close();
       await deps.orm.close();
