@@ -36,6 +36,7 @@ export interface ComparisonFigures {
    * gain, and hp = 0 means no change at that rpm). The shape `{rpm, hp}` is kept for API consumers.
    */
   largestLoss: { rpm: number; hp: number };
+  /** Point-wise run − baseline on the common grid (for the difference chart). */
   delta: { rpm: number[]; powerHp: number[]; torqueLbft: number[] };
 }
 

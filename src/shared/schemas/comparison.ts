@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { optionalText, uuid } from './common';
+import type { ComparisonFigures } from '@server/analysis/compare';
 import { CORRECTION_IDS, type CorrectionId } from './run';
 
 /**
@@ -128,35 +129,22 @@ export interface ComparisonRunSummary {
   peakTorque: { lbft: number; rpm: number };
 }
 
-export interface ComparisonBand {
-  from: number;
-  to: number;
-  averagePowerGainHp: number;
-  averageTorqueGainLbft: number;
+/** The figures come from the analysis engine's own type, so the API and `compareCurves` cannot drift apart. */
+type ComparisonBandFigures = ComparisonFigures['bands'][number];
+
+export interface ComparisonBand extends ComparisonBandFigures {
   /** Run-to-run spread of this band where known (hp); null when no stage involved has 2+ runs. */
   spreadHp: number | null;
   withinRepeatability: boolean | null;
 }
 
 /** Figures of one run against the baseline (the `compare` command's fields, plus honesty marks). */
-export interface ComparisonResult {
+export interface ComparisonResult extends Omit<ComparisonFigures, 'bands'> {
   runId: string;
-  commonRpm: [number, number];
-  peakPowerGain: { hp: number; pct: number };
-  peakTorqueGain: { lbft: number; pct: number };
-  peakPowerRpmShift: number;
-  peakTorqueRpmShift: number;
-  areaGainPct: number;
-  averagePowerGainHp: number;
-  averageTorqueGainLbft: number;
   bands: ComparisonBand[];
-  largestGain: { rpm: number; hp: number };
-  largestLoss: { rpm: number; hp: number };
   /** The spread a gain has to beat; null flags mean "unknown" (no stage with 2+ runs). */
   spread: { peakPowerHp: number | null; peakTorqueLbft: number | null; averagePowerHp: number | null };
   withinRepeatability: { peakPower: boolean | null; peakTorque: boolean | null; averagePower: boolean | null };
-  /** Point-wise run − baseline on the common grid (for the difference chart). */
-  delta: { rpm: number[]; powerHp: number[]; torqueLbft: number[] };
   /** Plain sentences about this run. */
   sentences: string[];
 }
