@@ -5,7 +5,7 @@
 import { analyzeFile } from '../lib/run-files/index.js';
 import type { AnalysisResult } from '../analysis/analyze.js';
 import { AnalysisError } from '../analysis/errors.js';
-import { failureSummary, installCrashGuard, parseCliArgs, round, successSummary } from './cli-support.js';
+import { failureSummary, installCrashGuard, readCliArgs, round, successSummary } from './cli-support.js';
 
 const USAGE = `Usage: analyze [--json] [--curve] [--grid 50] [--smooth N] [--correction none|sae-j1349|sae-j1349-1990|iso-1585|din-70020|sae-j607]
                [--temp C] [--baro kPa] [--humidity %] [--map JSON] FILE...`;
@@ -25,17 +25,8 @@ function tableLine(file: string, r: AnalysisResult, fileWidth: number): string {
 
 async function main(): Promise<number> {
   installCrashGuard();
-  let args;
-  try {
-    args = parseCliArgs(process.argv.slice(2));
-  } catch (e) {
-    process.stderr.write(`${e instanceof Error ? e.message : String(e)}\n${USAGE}\n`);
-    return 2;
-  }
-  if (args.help || args.files.length === 0) {
-    (args.help ? process.stdout : process.stderr).write(`${USAGE}\n`);
-    return args.help ? 0 : 2;
-  }
+  const args = readCliArgs(process.argv.slice(2), USAGE, (n) => n > 0);
+  if (typeof args === 'number') return args;
   const summaries: Record<string, unknown>[] = [];
   let failed = false;
   const fileWidth = Math.max(32, ...args.files.map((f) => f.length));

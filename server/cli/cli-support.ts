@@ -1,5 +1,5 @@
 /**
- * Shared pieces of the `analyze` and `compare` command lines: option parsing and the stable JSON
+ * Shared pieces of the `analyze` and `compare` command lines: option parsing, usage answers and the stable JSON
  * summaries (the shapes are a public interface used by outside checks — change them only by
  * adding keys).
  */
@@ -22,6 +22,25 @@ function numberArg(flag: string, value: string | undefined): number {
   const n = Number(value);
   if (value === undefined || value.trim() === '' || !Number.isFinite(n)) throw new AnalysisError('INVALID_OPTION', `${flag} needs a number.`);
   return n;
+}
+
+/**
+ * Parses the command line of a command, or answers the exit code when there is nothing to run:
+ * 2 with the usage on stderr for bad options or the wrong number of files, 0 with it on stdout for --help.
+ */
+export function readCliArgs(argv: string[], usage: string, filesOk: (count: number) => boolean): CliArgs | number {
+  let args;
+  try {
+    args = parseCliArgs(argv);
+  } catch (e) {
+    process.stderr.write(`${e instanceof Error ? e.message : String(e)}\n${usage}\n`);
+    return 2;
+  }
+  if (args.help || !filesOk(args.files.length)) {
+    (args.help ? process.stdout : process.stderr).write(`${usage}\n`);
+    return args.help ? 0 : 2;
+  }
+  return args;
 }
 
 /** Parses argv (without node and script). Throws INVALID_OPTION. */

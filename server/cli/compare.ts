@@ -9,23 +9,14 @@ import type { AnalysisResult } from '../analysis/analyze.js';
 import { compareCurves } from '../analysis/compare.js';
 import { applyCorrection } from '../analysis/curve.js';
 import { AnalysisError } from '../analysis/errors.js';
-import { failureSummary, installCrashGuard, parseCliArgs, round, successSummary } from './cli-support.js';
+import { failureSummary, installCrashGuard, readCliArgs, round, successSummary } from './cli-support.js';
 
 const USAGE = `Usage: compare [--json] [--bands 1000] [--grid 50] [--smooth N] [--correction STD] [--temp C] [--baro kPa] [--humidity %] BEFORE AFTER`;
 
 async function main(): Promise<number> {
   installCrashGuard();
-  let args;
-  try {
-    args = parseCliArgs(process.argv.slice(2));
-  } catch (e) {
-    process.stderr.write(`${e instanceof Error ? e.message : String(e)}\n${USAGE}\n`);
-    return 2;
-  }
-  if (args.help || args.files.length !== 2) {
-    (args.help ? process.stdout : process.stderr).write(`${USAGE}\n`);
-    return args.help ? 0 : 2;
-  }
+  const args = readCliArgs(process.argv.slice(2), USAGE, (n) => n === 2);
+  if (typeof args === 'number') return args;
   const [beforeFile, afterFile] = args.files;
   const results: (AnalysisResult | null)[] = [];
   const summaries: Record<string, unknown>[] = [];
