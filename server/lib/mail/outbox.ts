@@ -3,18 +3,7 @@ import path from 'node:path';
 import { simpleParser } from 'mailparser';
 import { AppError } from '../errors';
 import { SHOP_HEADER } from './mailer';
-
-export interface CapturedMessage {
-  id: string;
-  /** The shop the message was sent for (from its SHOP_HEADER), null for mail from elsewhere. */
-  shopId: string | null;
-  receivedAt: string;
-  from: string;
-  to: string;
-  subject: string;
-  text: string;
-  attachments: { filename: string; contentType: string; size: number }[];
-}
+import type { CapturedMessage } from '@shared/schemas/outbox';
 
 /**
  * Reads the messages the local SMTP fake kept (one .eml file each), newest first. Only

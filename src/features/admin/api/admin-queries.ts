@@ -5,15 +5,8 @@ import { api } from '@/lib/api-client';
 export type { UserDto, AuditEntryDto as AuditEntry } from '@shared/schemas/auth';
 import type { UserDto, AuditEntryDto as AuditEntry } from '@shared/schemas/auth';
 
-export interface OutboxItem {
-  id: string;
-  receivedAt: string;
-  from: string;
-  to: string;
-  subject: string;
-  text: string;
-  attachments: { filename: string; contentType: string; size: number }[];
-}
+export type { CapturedMessage as OutboxItem } from '@shared/schemas/outbox';
+import type { CapturedMessage as OutboxItem } from '@shared/schemas/outbox';
 
 export interface OutboxList {
   /** False when mail goes to a real relay: nothing is captured here then. */
