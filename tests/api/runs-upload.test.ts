@@ -1,4 +1,3 @@
-import { createHash } from 'node:crypto';
 import fs from 'node:fs';
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
@@ -6,9 +5,9 @@ import os from 'node:os';
 import path from 'node:path';
 import { Readable } from 'node:stream';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
-import type supertest from 'supertest';
 import { createTestApp, TEST_PASSWORD, type TestApp, type TestShop } from '../support/test-app';
-import { largeRunFileChunks, syntheticRunFile } from '@server/db/synthetic-runs';
+import { download, runFile as file, sha256Hex as sha, uploadRuns as upload, type Agent } from '../support/run-fixtures';
+import { largeRunFileChunks } from '@server/db/synthetic-runs';
 import { Run } from '@server/modules/runs/run.entity';
 import { rawKeyFor } from '@server/modules/runs/run-ingest';
 
@@ -18,8 +17,6 @@ import { rawKeyFor } from '@server/modules/runs/run-ingest';
  * its request, whether it succeeds, fails in the handler, fails validation, hits a limit, finds
  * storage down or is aborted by the client.
  */
-type Agent = ReturnType<typeof supertest.agent>;
-
 const MAX_FILE = 16 * 1024 * 1024;
 const root = fs.mkdtempSync(path.join(os.tmpdir(), 'pullbook-upload-test-'));
 // Not created here: the upload middleware creates it on demand.
@@ -29,8 +26,6 @@ let t: TestApp;
 let a: TestShop;
 let tuner: Agent;
 
-const sha = (b: Uint8Array) => createHash('sha256').update(b).digest('hex');
-const file = (seed: number) => Buffer.from(syntheticRunFile({ seed }).bytes);
 const tempFiles = () => (fs.existsSync(tmpDir) ? fs.readdirSync(tmpDir).sort() : []);
 /**
  * Files of the temporary folder that were not there at `before` (each test compares with its own
@@ -38,23 +33,6 @@ const tempFiles = () => (fs.existsSync(tmpDir) ? fs.readdirSync(tmpDir).sort() :
  * just after the answer reaches the client: give it a moment.
  */
 const expectNoNewTempFiles = (before: string[]) => vi.waitFor(() => expect(tempFiles().filter((f) => !before.includes(f))).toEqual([]), { timeout: 3000, interval: 20 });
-
-function upload(agent: Agent, bikeId: string, files: { name: string; bytes: Buffer }[]) {
-  let req = agent.post('/api/runs').field('bikeId', bikeId);
-  for (const f of files) req = req.attach('files', f.bytes, { filename: f.name, contentType: 'text/csv' });
-  return req;
-}
-
-function download(agent: Agent, url: string) {
-  return agent
-    .get(url)
-    .buffer(true)
-    .parse((res, cb) => {
-      const chunks: Buffer[] = [];
-      res.on('data', (c: Buffer) => chunks.push(c));
-      res.on('end', () => cb(null, Buffer.concat(chunks)));
-    });
-}
 
 /** Records what each storage put received and how many temporary files existed at that moment. */
 function watchPuts(app: TestApp) {

@@ -1,9 +1,8 @@
-import { createHash } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type supertest from 'supertest';
 import { createTestApp, type TestApp, type TestShop } from '../support/test-app';
+import { download, runFile as file, sha256Hex as sha, uploadRuns as upload, type Agent } from '../support/run-fixtures';
 import { modelPeaks, syntheticRunFile } from '@server/db/synthetic-runs';
 import { SAFETY_CHECKS } from '@shared/schemas/run';
 import { Run } from '@server/modules/runs/run.entity';
@@ -21,34 +20,12 @@ import os from 'node:os';
 let t: TestApp;
 let a: TestShop;
 let b: TestShop;
-type Agent = ReturnType<typeof supertest.agent>;
 let tuner: Agent;
 let owner: Agent;
 let desk: Agent;
 let customer: Agent;
 
-const sha = (b: Uint8Array) => createHash('sha256').update(b).digest('hex');
-const file = (seed: number, opts: Parameters<typeof syntheticRunFile>[0] = {}, fmt: Parameters<typeof syntheticRunFile>[1] = {}) => Buffer.from(syntheticRunFile({ seed, ...opts }, fmt).bytes);
 const SAMPLE = path.join(process.cwd(), 'sample-data');
-
-function upload(agent: Agent, bikeId: string, files: { name: string; bytes: Buffer }[], extra: Record<string, string> = {}) {
-  let req = agent.post('/api/runs').field('bikeId', bikeId);
-  for (const [k, v] of Object.entries(extra)) req = req.field(k, v);
-  for (const f of files) req = req.attach('files', f.bytes, { filename: f.name, contentType: 'text/csv' });
-  return req;
-}
-
-/** Binary download as a Buffer (supertest parses only text by default). */
-function download(agent: Agent, url: string) {
-  return agent
-    .get(url)
-    .buffer(true)
-    .parse((res, cb) => {
-      const chunks: Buffer[] = [];
-      res.on('data', (c: Buffer) => chunks.push(c));
-      res.on('end', () => cb(null, Buffer.concat(chunks)));
-    });
-}
 
 beforeAll(async () => {
   t = await createTestApp();
