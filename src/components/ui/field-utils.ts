@@ -12,6 +12,11 @@ export function errorMessage(error: FieldErrorLike): string | undefined {
   return error.message || undefined;
 }
 
+/** After a submit, one sentence naming every field problem, for the form's alert (null when there is none). */
+export function fieldProblemsSummary(isSubmitted: boolean, errors: object): string | null {
+  return isSubmitted && Object.keys(errors).length ? `Check the fields marked below: ${(Object.values(errors) as FieldErrorLike[]).map((e) => errorMessage(e)).filter(Boolean).join('; ')}.` : null;
+}
+
 export interface FieldIdsInput {
   id?: string;
   hint?: unknown;

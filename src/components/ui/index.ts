@@ -5,7 +5,7 @@ export { Button, type ButtonProps, type ButtonSize, type ButtonVariant } from '.
 export { IconButton, type IconButtonProps } from './IconButton';
 export { Spinner, type SpinnerProps } from './Spinner';
 
-export { errorMessage, useFieldIds, type FieldErrorLike } from './field-utils';
+export { errorMessage, fieldProblemsSummary, useFieldIds, type FieldErrorLike } from './field-utils';
 export { FieldShell, type FieldBaseProps } from './Field';
 export { TextField, type TextFieldProps } from './TextField';
 export { NumberField, type NumberFieldProps } from './NumberField';

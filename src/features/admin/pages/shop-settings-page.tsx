@@ -4,7 +4,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useQuery } from '@tanstack/react-query';
 import type { z } from 'zod';
 import { shopSettingsInput, type CorrectionStandard, type ShopDto, type ShopSettingsValues } from '@shared/schemas/shop';
-import { Button, Card, ErrorState, FormError, LoadingState, PageHeader, SelectField, TextAreaField, TextField, useToast, errorMessage } from '@/components/ui';
+import { Button, Card, ErrorState, FormError, LoadingState, PageHeader, SelectField, TextAreaField, TextField, useToast, fieldProblemsSummary } from '@/components/ui';
 import { applyFieldErrors } from '@/lib/api-client';
 import { adminQueries } from '../api/admin-queries';
 import { useUpdateShop } from '../api/update-shop';
@@ -54,7 +54,7 @@ function ShopForm({ shop }: { shop: ShopDto }) {
   });
   const { errors, isDirty, isSubmitted } = form.formState;
   // After a submit, every field problem is also summed up in the form's alert, so it is announced.
-  const fieldProblems = isSubmitted && Object.keys(errors).length ? `Check the fields marked below: ${Object.values(errors).map((e) => errorMessage(e)).filter(Boolean).join('; ')}.` : null;
+  const fieldProblems = fieldProblemsSummary(isSubmitted, errors);
 
   const onSubmit = form.handleSubmit(async (values) => {
     setFormError(null);

@@ -7,7 +7,7 @@ import { Link } from 'react-router-dom';
 import { z } from 'zod';
 import { inviteUserInput } from '@shared/schemas/auth';
 import { ROLE_LABELS, STAFF, type Role } from '@shared/roles';
-import { Button, Card, ConfirmDialog, DataTable, ErrorState, FormError, PageHeader, SelectField, StatusBadge, TextField, useToast, errorMessage } from '@/components/ui';
+import { Button, Card, ConfirmDialog, DataTable, ErrorState, FormError, PageHeader, SelectField, StatusBadge, TextField, useToast, fieldProblemsSummary } from '@/components/ui';
 import { ApiError, applyFieldErrors } from '@/lib/api-client';
 import { formatDateTime } from '@shared/format';
 import { useCurrentUser } from '@/lib/auth';
@@ -183,7 +183,7 @@ function InviteCard() {
   const form = useForm<InviteValues, unknown, z.output<typeof staffInviteForm>>({ resolver: zodResolver(staffInviteForm), mode: 'onTouched', defaultValues: { name: '', email: '', role: 'tuner' } });
   const { errors, isSubmitted } = form.formState;
   // After a submit, every field problem is also summed up in the form's alert, so it is announced.
-  const fieldProblems = isSubmitted && Object.keys(errors).length ? `Check the fields marked below: ${Object.values(errors).map((e) => errorMessage(e)).filter(Boolean).join('; ')}.` : null;
+  const fieldProblems = fieldProblemsSummary(isSubmitted, errors);
 
   const onSubmit = form.handleSubmit(async (values) => {
     setFormError(null);

@@ -4,7 +4,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
 import { changePasswordInput } from '@shared/schemas/auth';
 import { ROLE_LABELS } from '@shared/roles';
-import { Button, Card, FormError, PageHeader, TextField, errorMessage, useToast } from '@/components/ui';
+import { Button, Card, FormError, PageHeader, TextField, useToast, fieldProblemsSummary } from '@/components/ui';
 import { applyFieldErrors } from '@/lib/api-client';
 import { useCurrentUser } from '@/lib/auth';
 import { useChangePassword } from '../api/change-password';
@@ -22,7 +22,7 @@ export default function AccountPage() {
   const [formError, setFormError] = useState<string | null>(null);
   const { errors, isSubmitted } = form.formState;
   // After a submit, every field problem is also summed up in the form's alert, so it is announced.
-  const fieldProblems = isSubmitted && Object.keys(errors).length ? `Check the fields marked below: ${Object.values(errors).map((e) => errorMessage(e)).filter(Boolean).join('; ')}.` : null;
+  const fieldProblems = fieldProblemsSummary(isSubmitted, errors);
 
   const onSubmit = form.handleSubmit(async ({ currentPassword, newPassword }) => {
     setFormError(null);

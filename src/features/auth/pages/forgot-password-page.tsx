@@ -4,7 +4,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { Link } from 'react-router-dom';
 import type { z } from 'zod';
 import { forgotPasswordInput } from '@shared/schemas/auth';
-import { Button, FormError, TextField, errorMessage } from '@/components/ui';
+import { Button, FormError, TextField, fieldProblemsSummary } from '@/components/ui';
 import { applyFieldErrors } from '@/lib/api-client';
 import { paths } from '@/config/paths';
 import { AuthLayout } from '../components/auth-layout';
@@ -17,7 +17,7 @@ export default function ForgotPasswordPage() {
   const form = useForm<Values>({ resolver: zodResolver(forgotPasswordInput), defaultValues: { email: '' } });
   const { errors, isSubmitted } = form.formState;
   // After a submit, every field problem is also summed up in the form's alert, so it is announced.
-  const fieldProblems = isSubmitted && Object.keys(errors).length ? `Check the fields marked below: ${Object.values(errors).map((e) => errorMessage(e)).filter(Boolean).join('; ')}.` : null;
+  const fieldProblems = fieldProblemsSummary(isSubmitted, errors);
 
   const [formError, setFormError] = useState<string | null>(null);
 

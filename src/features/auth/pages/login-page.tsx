@@ -3,7 +3,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { Link, Navigate, useNavigate, useSearchParams } from 'react-router-dom';
 import { loginInput } from '@shared/schemas/auth';
 import type { z } from 'zod';
-import { Button, FormError, LoadingState, TextField, errorMessage } from '@/components/ui';
+import { Button, FormError, LoadingState, TextField, fieldProblemsSummary } from '@/components/ui';
 import { ApiError, applyFieldErrors } from '@/lib/api-client';
 import { useAuth } from '@/lib/auth';
 import { paths } from '@/config/paths';
@@ -21,7 +21,7 @@ export default function LoginPage() {
   const form = useForm<LoginValues>({ resolver: zodResolver(loginInput), defaultValues: { email: '', password: '' } });
   const { errors, isSubmitting, isSubmitted } = form.formState;
   // After a submit, every field problem is also summed up in the form's alert, so it is announced.
-  const fieldProblems = isSubmitted && Object.keys(errors).length ? `Check the fields marked below: ${Object.values(errors).map((e) => errorMessage(e)).filter(Boolean).join('; ')}.` : null;
+  const fieldProblems = fieldProblemsSummary(isSubmitted, errors);
 
   if (isLoading) return <LoadingState message="Checking your sign-in…" />;
   if (user) return <Navigate to={next} replace />;

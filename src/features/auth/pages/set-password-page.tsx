@@ -5,7 +5,7 @@ import { useQuery } from '@tanstack/react-query';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { z } from 'zod';
 import { passwordSchema } from '@shared/schemas/auth';
-import { Button, ErrorState, FormError, LoadingState, TextField, useToast, errorMessage } from '@/components/ui';
+import { Button, ErrorState, FormError, LoadingState, TextField, useToast, fieldProblemsSummary } from '@/components/ui';
 import { ApiError, applyFieldErrors } from '@/lib/api-client';
 import { paths } from '@/config/paths';
 import { AuthLayout } from '../components/auth-layout';
@@ -70,7 +70,7 @@ function SetPasswordForm({ token, info, isInvite, title }: { token: string; info
   const form = useForm<Values>({ resolver: zodResolver(setPasswordForm), defaultValues: { name: info.name, password: '', confirm: '' } });
   const { errors, isSubmitted } = form.formState;
   // After a submit, every field problem is also summed up in the form's alert, so it is announced.
-  const fieldProblems = isSubmitted && Object.keys(errors).length ? `Check the fields marked below: ${Object.values(errors).map((e) => errorMessage(e)).filter(Boolean).join('; ')}.` : null;
+  const fieldProblems = fieldProblemsSummary(isSubmitted, errors);
 
   const onSubmit = form.handleSubmit(async (values) => {
     setFormError(null);

@@ -5,7 +5,7 @@ import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { bikeFormSchema, type BikeDto, type BikeFormValues } from '@shared/schemas/bike';
 import { cubicInchesToCc } from '@shared/displacement';
 import type { ShopDto } from '@shared/schemas/shop';
-import { Button, Dialog, FormError, NumberField, SearchInput, SelectField, TextAreaField, TextField, cn, useDebouncedValue, useToast, errorMessage } from '@/components/ui';
+import { Button, Dialog, FormError, NumberField, SearchInput, SelectField, TextAreaField, TextField, cn, useDebouncedValue, useToast, fieldProblemsSummary } from '@/components/ui';
 import { applyFieldErrors } from '@/lib/api-client';
 import { bikeQueries } from '../api/bike-queries';
 import { useCreateBike, type BikeFormData } from '../api/create-bike';
@@ -55,7 +55,7 @@ function BikeFormDialogBody({ onClose, bike, customerId, onSaved }: BikeFormDial
   });
   const { errors, isSubmitted } = form.formState;
   // After a submit, every field problem is also summed up in the form's alert, so it is announced.
-  const fieldProblems = isSubmitted && Object.keys(errors).length ? `Check the fields marked below: ${Object.values(errors).map((e) => errorMessage(e)).filter(Boolean).join('; ')}.` : null;
+  const fieldProblems = fieldProblemsSummary(isSubmitted, errors);
   const families = useQuery(bikeQueries.engineFamilies());
   const listId = useId();
 

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { customerInput, type CustomerDto, type CustomerInput } from '@shared/schemas/customer';
-import { Button, Dialog, FormError, TextAreaField, TextField, useToast, errorMessage } from '@/components/ui';
+import { Button, Dialog, FormError, TextAreaField, TextField, useToast, fieldProblemsSummary } from '@/components/ui';
 import { applyFieldErrors } from '@/lib/api-client';
 import { useCreateCustomer, type CustomerData } from '../api/create-customer';
 import { useUpdateCustomer } from '../api/update-customer';
@@ -34,7 +34,7 @@ function CustomerFormDialogBody({ onClose, customer, onSaved }: CustomerFormDial
   });
   const { errors, isSubmitted } = form.formState;
   // After a submit, every field problem is also summed up in the form's alert, so it is announced.
-  const fieldProblems = isSubmitted && Object.keys(errors).length ? `Check the fields marked below: ${Object.values(errors).map((e) => errorMessage(e)).filter(Boolean).join('; ')}.` : null;
+  const fieldProblems = fieldProblemsSummary(isSubmitted, errors);
 
   const onSubmit = form.handleSubmit(async (data) => {
     setFormError(null);

@@ -4,7 +4,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { inviteUserInput } from '@shared/schemas/auth';
 import type { CustomerDto } from '@shared/schemas/customer';
-import { Button, Dialog, FormError, TextField, useToast, errorMessage } from '@/components/ui';
+import { Button, Dialog, FormError, TextField, useToast, fieldProblemsSummary } from '@/components/ui';
 import { ApiError, applyFieldErrors } from '@/lib/api-client';
 import { useGivePortalAccess } from '../api/give-portal-access';
 
@@ -28,7 +28,7 @@ function PortalAccessDialogBody({ onClose, customer }: { onClose: () => void; cu
   });
   const { errors, isSubmitted } = form.formState;
   // After a submit, every field problem is also summed up in the form's alert, so it is announced.
-  const fieldProblems = isSubmitted && Object.keys(errors).length ? `Check the fields marked below: ${Object.values(errors).map((e) => errorMessage(e)).filter(Boolean).join('; ')}.` : null;
+  const fieldProblems = fieldProblemsSummary(isSubmitted, errors);
 
   const onSubmit = form.handleSubmit(async (values) => {
     setFormError(null);

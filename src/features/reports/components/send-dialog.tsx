@@ -3,7 +3,7 @@ import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { sendInput } from '@shared/schemas/report';
-import { Button, Dialog, FormError, TextAreaField, TextField, errorMessage, useToast } from '@/components/ui';
+import { Button, Dialog, FormError, TextAreaField, TextField, useToast, fieldProblemsSummary } from '@/components/ui';
 import { applyFieldErrors } from '@/lib/api-client';
 import { useSendReport } from '../api/report-mutations';
 import type { ReportDetail } from '../api/types';
@@ -30,7 +30,7 @@ export function SendReportDialog({ report, open, onClose }: { report: ReportDeta
     defaultValues: { to: report.customer.email ?? '', message: prefilledMessage(report) },
   });
   const { errors, isSubmitted } = form.formState;
-  const fieldProblems = isSubmitted && Object.keys(errors).length ? `Check the fields marked below: ${Object.values(errors).map((e) => errorMessage(e)).filter(Boolean).join('; ')}.` : null;
+  const fieldProblems = fieldProblemsSummary(isSubmitted, errors);
 
   const onSubmit = form.handleSubmit(async (values) => {
     setFormError(null);
