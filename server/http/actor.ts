@@ -1,12 +1,4 @@
-import type { Role } from '@shared/roles';
+import type { SignedInUser } from '@shared/schemas/auth';
 
-/** The signed-in user as services see it: who, which shop, which role. */
-export interface Actor {
-  id: string;
-  shopId: string;
-  role: Role;
-  email: string;
-  name: string;
-  /** For customers: the customer record whose bikes they may see. */
-  customerId: string | null;
-}
+/** The signed-in user as services see it: who, which shop, which role (the /me answer too). */
+export type Actor = SignedInUser;

@@ -1,16 +1,11 @@
 import { createContext, useContext, type ReactNode } from 'react';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { Role } from '@shared/roles';
+import type { SignedInUser } from '@shared/schemas/auth';
 import { api, ApiError } from './api-client';
 
-export interface CurrentUser {
-  id: string;
-  shopId: string;
-  role: Role;
-  email: string;
-  name: string;
-  customerId: string | null;
-}
+/** The user GET /api/auth/me answers with (the server's actor). */
+export type CurrentUser = SignedInUser;
 
 interface AuthState {
   user: CurrentUser | null;

@@ -1,6 +1,17 @@
 import { z } from 'zod';
 import { ROLES, type Role } from '../roles';
 
+/** The signed-in user: what services see as the actor and what GET /api/auth/me answers. */
+export interface SignedInUser {
+  id: string;
+  shopId: string;
+  role: Role;
+  email: string;
+  name: string;
+  /** For customers: the customer record whose bikes they may see. */
+  customerId: string | null;
+}
+
 export const passwordSchema = z.string().min(10, 'Use at least 10 characters').max(200, 'At most 200 characters');
 
 export const loginInput = z.object({
