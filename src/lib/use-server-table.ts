@@ -48,7 +48,15 @@ export function useServerTable<TItem, TKey extends QueryKey>(options: {
     /** The debounced, trimmed search the list was asked for. */
     q,
     list,
-    /** Spread into DataTable for server-side sorting and paging. */
-    tableState: { sorting, onSortingChange, pagination, onPaginationChange: setPagination },
+    /** Spread into DataTable: the current page's rows, loading state and server-side sorting and paging. */
+    tableProps: {
+      data: list.data?.items ?? [],
+      isLoading: list.isFetching,
+      totalRows: list.data?.total,
+      sorting,
+      onSortingChange,
+      pagination,
+      onPaginationChange: setPagination,
+    },
   };
 }

@@ -60,7 +60,7 @@ export default function BikesPage() {
   const canEdit = hasRole(user, ['owner', 'desk']);
   const navigate = useNavigate();
   const [params, setParams] = useSearchParams();
-  const { search, onSearchChange, q, list, tableState } = useServerTable({ defaultSort: [{ id: 'make', desc: false }], query: bikeQueries.list });
+  const { search, onSearchChange, q, list, tableProps } = useServerTable({ defaultSort: [{ id: 'make', desc: false }], query: bikeQueries.list });
   const creating = canEdit && params.get('new') === '1';
   const presetCustomer = params.get('customerId') ?? undefined;
 
@@ -103,11 +103,8 @@ export default function BikesPage() {
         <DataTable
           caption="Bikes"
           columns={columns}
-          data={list.data?.items ?? []}
           getRowId={(b) => b.id}
-          isLoading={list.isFetching}
-          totalRows={list.data?.total}
-          {...tableState}
+          {...tableProps}
           maxHeight={null}
           emptyMessage={q ? <>No bike matches “{q}”.</> : canEdit ? <>No bikes yet. Add one with “New bike”, or from the customer’s page.</> : <>No bikes yet.</>}
         />

@@ -35,7 +35,7 @@ export default function CustomersPage() {
   const canEdit = hasRole(user, ['owner', 'desk']);
   const navigate = useNavigate();
   const [params, setParams] = useSearchParams();
-  const { search, onSearchChange, q, list, tableState } = useServerTable({ defaultSort: [{ id: 'name', desc: false }], query: customerQueries.list });
+  const { search, onSearchChange, q, list, tableProps } = useServerTable({ defaultSort: [{ id: 'name', desc: false }], query: customerQueries.list });
   const creating = canEdit && params.get('new') === '1';
 
   const setCreating = (open: boolean) =>
@@ -74,11 +74,8 @@ export default function CustomersPage() {
         <DataTable
           caption="Customers"
           columns={columns}
-          data={list.data?.items ?? []}
           getRowId={(c) => c.id}
-          isLoading={list.isFetching}
-          totalRows={list.data?.total}
-          {...tableState}
+          {...tableProps}
           maxHeight={null}
           emptyMessage={
             q ? (
