@@ -25,14 +25,7 @@ interface CaseResult extends LoadResult {
 }
 
 async function load(name: string, baseUrl: string, cookie: string, paths: string[], targetMs: number): Promise<CaseResult> {
-  let next = 0;
-  const result = await loadTest({
-    url: baseUrl,
-    connections: CONNECTIONS,
-    duration: DURATION_S,
-    headers: { cookie },
-    requests: [{ method: 'GET', setupRequest: (req) => ({ ...req, path: paths[next++ % paths.length] }) }],
-  });
+  const result = await loadTest({ url: baseUrl, connections: CONNECTIONS, duration: DURATION_S, headers: { cookie } }, paths);
   return { name, ...result, targetMs };
 }
 

@@ -1,4 +1,5 @@
-import autocannon from 'autocannon';
+import { Worker } from 'node:worker_threads';
+import type autocannon from 'autocannon';
 import { percentile } from './stats.js';
 
 export interface LoadResult {
@@ -9,16 +10,20 @@ export interface LoadResult {
   p95Ms: number;
 }
 
-/** Runs autocannon and takes median and p95 from every response's time, not autocannon's histogram. */
-export async function loadTest(options: autocannon.Options): Promise<LoadResult> {
-  const times: number[] = [];
-  let errors = 0;
-  await new Promise<void>((resolve, reject) => {
-    const instance = autocannon(options, (err) => (err ? reject(err) : resolve()));
-    instance.on('response', (_client: unknown, statusCode: number, _bytes: number, responseTime: number) => {
-      if (statusCode !== 200) errors += 1;
-      times.push(responseTime);
+/**
+ * Runs autocannon in a worker thread (so it does not steal the app's event loop) and takes
+ * median and p95 from every response's time, not autocannon's histogram. `paths` rotates the
+ * request path over the given list.
+ */
+export async function loadTest(options: Omit<autocannon.Options, 'requests' | 'setupClient'>, paths?: string[]): Promise<LoadResult> {
+  const { times, errors } = await new Promise<{ times: number[]; errors: number }>((resolve, reject) => {
+    const worker = new Worker(new URL('./load-worker.mjs', import.meta.url), { workerData: { options, paths } });
+    worker.once('message', (msg: { times: number[]; errors: number } | { error: string }) => {
+      void worker.terminate();
+      if ('error' in msg) reject(new Error(msg.error));
+      else resolve(msg);
     });
+    worker.once('error', reject);
   });
   times.sort((a, b) => a - b);
   return { requests: times.length, errors, medianMs: percentile(times, 0.5), p95Ms: percentile(times, 0.95) };
