@@ -15,6 +15,7 @@ import { initOrm, migrateToLatest } from '../server/db/orm';
 // Each run gets its own services and folder, so several test runs can share a machine.
 const TEST_DIR = path.join(STORAGE, 'test', `run-${Date.now().toString(36)}-${process.pid}`);
 const started: RunningService[] = [];
+let clusterHome: string | undefined;
 const args = process.argv.slice(2);
 const only = args.filter((a) => !a.startsWith('--'));
 const skipStatic = args.includes('--no-static');
@@ -43,7 +44,11 @@ function stepAsync(title: string, cmd: string, cmdArgs: string[], env: NodeJS.Pr
 async function stopAll() {
   for (const s of started.reverse()) await s.stop().catch(() => undefined);
   started.length = 0;
-  if (!process.env.PULLBOOK_KEEP_TEST_DIR) fs.rmSync(TEST_DIR, { recursive: true, force: true });
+  if (!process.env.PULLBOOK_KEEP_TEST_DIR) {
+    fs.rmSync(TEST_DIR, { recursive: true, force: true });
+    // A cluster that had to live outside the checkout (see startLocalPostgres) goes too.
+    if (clusterHome?.startsWith('/var/tmp/pullbook-')) fs.rmSync(path.dirname(clusterHome), { recursive: true, force: true });
+  }
 }
 
 async function main(): Promise<number> {
@@ -65,6 +70,7 @@ async function main(): Promise<number> {
 
   const pg = await startLocalPostgres({ baseDir: path.join(TEST_DIR, 'postgres'), port: await freePort(), database: 'pullbook_template', label: `test-postgres-${process.pid}` });
   started.push(pg);
+  clusterHome = path.dirname(pg.dataDir);
   // Each test file clones this migrated template into a database of its own.
   const admin = pg.url.replace(/\/[^/]+$/, '/postgres');
   const pgmod = (await import('pg')).default;
