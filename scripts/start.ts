@@ -29,8 +29,10 @@ async function shutdown(code: number) {
   for (const s of started.reverse()) await s.stop().catch((e) => console.error(e));
   process.exit(code);
 }
-process.once('SIGINT', () => void shutdown(0));
-process.once('SIGTERM', () => void shutdown(0));
+// `on`, not `once`: Ctrl-C reaches npm, tsx and this process alike, and a second SIGINT must not
+// kill the shutdown half-way (PostgreSQL would be left running).
+process.on('SIGINT', () => void shutdown(0));
+process.on('SIGTERM', () => void shutdown(0));
 
 /** A stable secret per checkout, so sessions survive a restart of the local app. */
 function localSessionSecret() {
