@@ -39,7 +39,7 @@ import { isAnalysisError } from '../../analysis/errors';
 import { gridPoints, interpolateSorted } from '../../analysis/resample';
 import { smoothSavitzkyGolay } from '../../analysis/smoothing';
 import { hpTo, lbftTo } from '../../analysis/units';
-import { Run } from '../runs/run.entity';
+import { Run, type StoredCurve } from '../runs/run.entity';
 import { Stage, Part } from '../stages/stage.entity';
 import { Bike } from '../bikes/bike.entity';
 import { Shop } from '../shops/shop.entity';
@@ -64,36 +64,144 @@ const NOTABLE_LOSS_HP = 0.5;
 /** Share of the total positive gain area that "most of the gain" means. Our own threshold. */
 const MOST_OF_GAIN = 0.75;
 
+/**
+ * What a comparison reads of a run: a plain read model filled by one SQL query (no managed
+ * entities, no change-tracking snapshots of the curve columns).
+ */
+interface RunRow {
+  id: string;
+  label: string | null;
+  sequence: number;
+  status: string;
+  curve: StoredCurve | null;
+  correctionStandard: string | null;
+  correctionFactor: number | null;
+  conditions: Record<string, unknown> | null;
+  identityStatus: string | null;
+  createdAt: Date;
+  bike: { id: string; make: string; model: string; year: number | null };
+  stage: { id: string; name: string } | null;
+  session: { id: string; startedAt: Date; ambientTempC: number | null; baroKpa: number | null; humidityPct: number | null; dyno: { id: string; name: string } | null } | null;
+}
+
 interface Prepared {
-  run: Run;
+  run: RunRow;
   curve: NormalizedCurve;
   summary: ComparisonRunSummary;
   warnings: ComparisonWarning[];
 }
 
-const bikeLabel = (b: Bike) => [b.year, b.make, b.model].filter((v) => v !== null && v !== undefined && v !== '').join(' ');
-const runName = (r: Run) => r.label || `${r.stage?.name ?? 'Unstaged'} · run ${r.sequence}`;
+const bikeLabel = (b: { year: number | null; make: string; model: string }) => [b.year, b.make, b.model].filter((v) => v !== null && v !== undefined && v !== '').join(' ');
+const runName = (r: { label: string | null; sequence: number; stage: { name: string } | null }) => r.label || `${r.stage?.name ?? 'Unstaged'} · run ${r.sequence}`;
 const standardLabel = (s: string) => CORRECTION_STANDARDS.find((c) => c.id === s)?.label ?? s;
 const r4 = (v: number) => Math.round(v * 1e4) / 1e4;
 const r3 = (v: number) => Math.round(v * 1e3) / 1e3;
 const num = (v: unknown): number | null => (typeof v === 'number' && Number.isFinite(v) ? v : null);
+const NO_CUSTOMER = '00000000-0000-0000-0000-000000000000';
+const placeholders = (n: number) => Array.from({ length: n }, () => '?').join(', ');
+const toDate = (v: string | Date) => (v instanceof Date ? v : new Date(v));
+const jsonOf = <T>(v: unknown): T => (typeof v === 'string' ? (JSON.parse(v) as T) : (v as T));
 
-/** Run filter for the actor: always the shop; customers only their own bikes. */
-function runScope(actor: Actor): FilterQuery<Run> {
-  const where: FilterQuery<Run> = { shop: actor.shopId, deletedAt: null };
-  if (actor.role === 'customer') (where as Record<string, unknown>).bike = { customer: actor.customerId ?? '00000000-0000-0000-0000-000000000000' };
-  return where;
+interface RunRecord {
+  id: string;
+  label: string | null;
+  sequence: number;
+  status: string;
+  curve: unknown;
+  correction_standard: string | null;
+  correction_factor: number | null;
+  conditions: unknown;
+  identity_status: string | null;
+  created_at: string | Date;
+  stage_id: string | null;
+  bike_id: string;
+  bike_make: string;
+  bike_model: string;
+  bike_year: number | null;
+  stage_name: string | null;
+  session_id: string | null;
+  session_started_at: string | Date | null;
+  session_ambient_temp_c: number | null;
+  session_baro_kpa: number | null;
+  session_humidity_pct: number | null;
+  dyno_id: string | null;
+  dyno_name: string | null;
 }
 
-async function loadRuns(em: EntityManager, actor: Actor, ids: string[]): Promise<Run[]> {
-  const runs = await em.find(Run, { ...(runScope(actor) as object), id: { $in: ids } } as FilterQuery<Run>, {
-    populate: ['curve', 'bike', 'stage', 'session', 'session.dyno'] as never,
-  });
-  return runs;
+function toRunRow(r: RunRecord): RunRow {
+  return {
+    id: r.id,
+    label: r.label,
+    sequence: r.sequence,
+    status: r.status,
+    curve: jsonOf<StoredCurve | null>(r.curve),
+    correctionStandard: r.correction_standard,
+    correctionFactor: r.correction_factor,
+    conditions: jsonOf<Record<string, unknown> | null>(r.conditions),
+    identityStatus: r.identity_status,
+    createdAt: toDate(r.created_at),
+    bike: { id: r.bike_id, make: r.bike_make, model: r.bike_model, year: r.bike_year },
+    stage: r.stage_id ? { id: r.stage_id, name: r.stage_name ?? '' } : null,
+    session: r.session_id
+      ? {
+          id: r.session_id,
+          startedAt: toDate(r.session_started_at!),
+          ambientTempC: r.session_ambient_temp_c,
+          baroKpa: r.session_baro_kpa,
+          humidityPct: r.session_humidity_pct,
+          dyno: r.dyno_id ? { id: r.dyno_id, name: r.dyno_name ?? '' } : null,
+        }
+      : null,
+  };
+}
+
+/**
+ * Runs visible to the actor (shop, not deleted; customers only their own bikes) that are either
+ * one of `ids` or a ready run of a stage given by `stages`: a list of stage ids, or 'of-runs' for
+ * the stages of the runs in `ids` themselves. Newest first.
+ */
+async function loadRunRows(em: EntityManager, actor: Actor, ids: string[], stages: string[] | 'of-runs'): Promise<RunRow[]> {
+  const params: unknown[] = [actor.shopId];
+  let where = 'r.shop_id = ? and r.deleted_at is null';
+  if (actor.role === 'customer') {
+    where += ' and b.customer_id = ?';
+    params.push(actor.customerId ?? NO_CUSTOMER);
+  }
+  const which: string[] = [];
+  if (ids.length) {
+    which.push(`r.id in (${placeholders(ids.length)})`);
+    params.push(...ids);
+  }
+  if (stages === 'of-runs') {
+    if (ids.length) {
+      which.push(`(r.status = 'ready' and r.stage_id in (select x.stage_id from run x where x.shop_id = ? and x.deleted_at is null and x.stage_id is not null and x.id in (${placeholders(ids.length)})))`);
+      params.push(actor.shopId, ...ids);
+    }
+  } else if (stages.length) {
+    which.push(`(r.status = 'ready' and r.stage_id in (${placeholders(stages.length)}))`);
+    params.push(...stages);
+  }
+  if (!which.length) return [];
+  const rows: RunRecord[] = await em.getConnection().execute(
+    `select r.id, r.label, r.sequence, r.status, r.curve, r.correction_standard, r.correction_factor, r.conditions, r.identity_status, r.created_at, r.stage_id,
+            b.id as bike_id, b.make as bike_make, b.model as bike_model, b.year as bike_year,
+            st.name as stage_name,
+            ds.id as session_id, ds.started_at as session_started_at, ds.ambient_temp_c as session_ambient_temp_c, ds.baro_kpa as session_baro_kpa, ds.humidity_pct as session_humidity_pct,
+            d.id as dyno_id, d.name as dyno_name
+       from run r
+       join bike b on b.id = r.bike_id
+       left join stage st on st.id = r.stage_id
+       left join dyno_session ds on ds.id = r.session_id
+       left join dyno d on d.id = ds.dyno_id
+      where ${where} and (${which.join(' or ')})
+      order by r.created_at desc`,
+    params,
+  );
+  return rows.map(toRunRow);
 }
 
 /** Conditions used for correction: the run's own, then its session's for what the file lacked. */
-function conditionsOf(run: Run) {
+function conditionsOf(run: RunRow) {
   const c = (run.conditions ?? {}) as Record<string, unknown>;
   const s = run.session;
   return {
@@ -108,7 +216,7 @@ function conditionsOf(run: Run) {
  * the factor is recomputed from the run's conditions; when they are missing the stored factor is
  * kept and a warning says so.
  */
-function prepare(run: Run, options: ComparisonOptions): Prepared {
+function prepare(run: RunRow, options: ComparisonOptions): Prepared {
   const warnings: ComparisonWarning[] = [];
   const stored = run.curve;
   if (run.status !== 'ready' || !stored || stored.rpm.length < 2) {
@@ -291,20 +399,19 @@ interface StageSpread {
   bands: Map<number, number>;
 }
 
-async function stageSpreads(em: EntityManager, actor: Actor, stageIds: string[], options: ComparisonOptions): Promise<Map<string, StageSpread>> {
+/**
+ * Run-to-run spread of each stage with 2+ ready runs. `runs` are the candidate runs, newest first
+ * (from {@link loadRunRows}); runs already prepared with the same options (`known`) are reused.
+ */
+function stageSpreads(runs: RunRow[], stageIds: string[], options: ComparisonOptions, known: Map<string, Prepared>): Map<string, StageSpread> {
   const out = new Map<string, StageSpread>();
   if (!stageIds.length) return out;
-  const runs = await em.find(
-    Run,
-    { ...(runScope(actor) as object), stage: { $in: stageIds }, status: 'ready' } as FilterQuery<Run>,
-    { populate: ['curve', 'bike', 'stage', 'session', 'session.dyno'] as never, orderBy: { createdAt: 'desc' } },
-  );
   const width = options.bandWidthRpm ?? DEFAULT_BAND_WIDTH;
   for (const stageId of stageIds) {
     const prepared = runs
-      .filter((r) => r.stage?.id === stageId && r.curve)
+      .filter((r) => r.status === 'ready' && r.stage?.id === stageId && r.curve)
       .slice(0, MAX_STAGE_RUNS)
-      .map((r) => prepare(r, options));
+      .map((r) => known.get(r.id) ?? prepare(r, options));
     if (prepared.length < 2) continue;
     let rep;
     try {
@@ -490,15 +597,15 @@ async function colorSlotsOf(em: EntityManager, actor: Actor, all: Prepared[]): P
 export async function evaluateComparison(em: EntityManager, actor: Actor, input: EvaluateInput): Promise<ComparisonPreview> {
   const data = parseInput(input);
   const options = data.options;
-  const runs = await loadRuns(em, actor, data.runIds);
-  if (runs.length !== data.runIds.length) throw notFound('Run');
-  const byId = new Map(runs.map((r) => [r.id, r]));
+  const rows = await loadRunRows(em, actor, data.runIds, 'of-runs');
+  const byId = new Map(rows.map((r) => [r.id, r]));
+  if (!data.runIds.every((id) => byId.has(id))) throw notFound('Run');
   const all = data.runIds.map((id) => prepare(byId.get(id)!, options));
   const baseline = all.find((p) => p.run.id === data.baselineRunId)!;
   const warnings = fairnessWarnings(all, baseline);
 
   const stageIds = [...new Set(all.map((p) => p.summary.stageId).filter((s): s is string => !!s))];
-  const spreads = await stageSpreads(em, actor, stageIds, options);
+  const spreads = stageSpreads(rows, stageIds, options, new Map(all.map((p) => [p.run.id, p])));
   const width = options.bandWidthRpm ?? DEFAULT_BAND_WIDTH;
   const units = options.units ?? 'hp-lbft';
   const baseSpread = baseline.summary.stageId ? spreads.get(baseline.summary.stageId) : undefined;
@@ -688,7 +795,10 @@ export async function stageTimeline(em: EntityManager, actor: Actor, query: { bi
   const parts = stages.length ? await em.find(Part, { stage: { $in: stages.map((s) => s.id) } }, { orderBy: { createdAt: 'asc' } }) : [];
   const options: ComparisonOptions = { correction: query.correction };
   const refIds = stages.map((s) => s.referenceRun?.id).filter((v): v is string => !!v);
-  const refs = refIds.length ? await loadRuns(em, actor, refIds) : [];
+  const stageIds = stages.map((s) => s.id);
+  const rows = await loadRunRows(em, actor, refIds, stageIds);
+  const rowById = new Map(rows.map((r) => [r.id, r]));
+  const refs = [...new Set(refIds)].map((id) => rowById.get(id)).filter((r): r is RunRow => !!r);
   const prepared = new Map<string, Prepared>();
   const warnings: ComparisonWarning[] = [];
   for (const r of refs) {
@@ -698,7 +808,7 @@ export async function stageTimeline(em: EntityManager, actor: Actor, query: { bi
       if (!(e instanceof AppError)) throw e;
     }
   }
-  const spreads = await stageSpreads(em, actor, stages.map((s) => s.id), options);
+  const spreads = stageSpreads(rows, stageIds, options, prepared);
   const used = [...prepared.values()];
   if (used.length >= 2) warnings.push(...fairnessWarnings(used, used[0]).filter((w) => w.code !== 'LITTLE_OVERLAP'));
 
