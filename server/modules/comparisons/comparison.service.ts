@@ -80,7 +80,7 @@ interface RunRow {
   identityStatus: string | null;
   createdAt: Date;
   bike: { id: string; make: string; model: string; year: number | null };
-  stage: { id: string; name: string } | null;
+  stage: { id: string; name: string; position: number } | null;
   session: { id: string; startedAt: Date; ambientTempC: number | null; baroKpa: number | null; humidityPct: number | null; dyno: { id: string; name: string } | null } | null;
 }
 
@@ -119,6 +119,7 @@ interface RunRecord {
   bike_model: string;
   bike_year: number | null;
   stage_name: string | null;
+  stage_position: number | null;
   session_id: string | null;
   session_started_at: string | Date | null;
   session_ambient_temp_c: number | null;
@@ -141,7 +142,7 @@ function toRunRow(r: RunRecord): RunRow {
     identityStatus: r.identity_status,
     createdAt: toDate(r.created_at),
     bike: { id: r.bike_id, make: r.bike_make, model: r.bike_model, year: r.bike_year },
-    stage: r.stage_id ? { id: r.stage_id, name: r.stage_name ?? '' } : null,
+    stage: r.stage_id ? { id: r.stage_id, name: r.stage_name ?? '', position: r.stage_position ?? 0 } : null,
     session: r.session_id
       ? {
           id: r.session_id,
@@ -155,47 +156,63 @@ function toRunRow(r: RunRecord): RunRow {
   };
 }
 
+const RUN_COLUMNS = `r.id, r.label, r.sequence, r.status, r.correction_standard, r.correction_factor, r.conditions, r.identity_status, r.created_at, r.stage_id,
+            b.id as bike_id, b.make as bike_make, b.model as bike_model, b.year as bike_year,
+            st.name as stage_name, st.position as stage_position,
+            ds.id as session_id, ds.started_at as session_started_at, ds.ambient_temp_c as session_ambient_temp_c, ds.baro_kpa as session_baro_kpa, ds.humidity_pct as session_humidity_pct,
+            d.id as dyno_id, d.name as dyno_name`;
+const RUN_JOINS = `from run r
+       join bike b on b.id = r.bike_id
+       left join stage st on st.id = r.stage_id
+       left join dyno_session ds on ds.id = r.session_id
+       left join dyno d on d.id = ds.dyno_id`;
+
+/** The actor's run filter (shop, not deleted; customers only their own bikes) and its parameters. */
+function runScopeSql(actor: Actor): { sql: string; params: unknown[] } {
+  if (actor.role === 'customer') return { sql: 'r.shop_id = ? and r.deleted_at is null and b.customer_id = ?', params: [actor.shopId, actor.customerId ?? NO_CUSTOMER] };
+  return { sql: 'r.shop_id = ? and r.deleted_at is null', params: [actor.shopId] };
+}
+
 /**
- * Runs visible to the actor (shop, not deleted; customers only their own bikes) that are either
- * one of `ids` or a ready run of a stage given by `stages`: a list of stage ids, or 'of-runs' for
- * the stages of the runs in `ids` themselves. Newest first.
+ * Runs visible to the actor that are one of `ids` or a ready run of one of `stageIds`, newest
+ * first.
  */
-async function loadRunRows(em: EntityManager, actor: Actor, ids: string[], stages: string[] | 'of-runs'): Promise<RunRow[]> {
-  const params: unknown[] = [actor.shopId];
-  let where = 'r.shop_id = ? and r.deleted_at is null';
-  if (actor.role === 'customer') {
-    where += ' and b.customer_id = ?';
-    params.push(actor.customerId ?? NO_CUSTOMER);
-  }
+async function loadRunRows(em: EntityManager, actor: Actor, ids: string[], stageIds: string[]): Promise<RunRow[]> {
+  const scope = runScopeSql(actor);
+  const params: unknown[] = [...scope.params];
   const which: string[] = [];
   if (ids.length) {
     which.push(`r.id in (${placeholders(ids.length)})`);
     params.push(...ids);
   }
-  if (stages === 'of-runs') {
-    if (ids.length) {
-      which.push(`(r.status = 'ready' and r.stage_id in (select x.stage_id from run x where x.shop_id = ? and x.deleted_at is null and x.stage_id is not null and x.id in (${placeholders(ids.length)})))`);
-      params.push(actor.shopId, ...ids);
-    }
-  } else if (stages.length) {
-    which.push(`(r.status = 'ready' and r.stage_id in (${placeholders(stages.length)}))`);
-    params.push(...stages);
+  if (stageIds.length) {
+    which.push(`(r.status = 'ready' and r.stage_id in (${placeholders(stageIds.length)}))`);
+    params.push(...stageIds);
   }
   if (!which.length) return [];
   const rows: RunRecord[] = await em.getConnection().execute(
-    `select r.id, r.label, r.sequence, r.status, r.curve, r.correction_standard, r.correction_factor, r.conditions, r.identity_status, r.created_at, r.stage_id,
-            b.id as bike_id, b.make as bike_make, b.model as bike_model, b.year as bike_year,
-            st.name as stage_name,
-            ds.id as session_id, ds.started_at as session_started_at, ds.ambient_temp_c as session_ambient_temp_c, ds.baro_kpa as session_baro_kpa, ds.humidity_pct as session_humidity_pct,
-            d.id as dyno_id, d.name as dyno_name
-       from run r
-       join bike b on b.id = r.bike_id
-       left join stage st on st.id = r.stage_id
-       left join dyno_session ds on ds.id = r.session_id
-       left join dyno d on d.id = ds.dyno_id
-      where ${where} and (${which.join(' or ')})
-      order by r.created_at desc`,
+    `select ${RUN_COLUMNS}, r.curve ${RUN_JOINS} where ${scope.sql} and (${which.join(' or ')}) order by r.created_at desc`,
     params,
+  );
+  return rows.map(toRunRow);
+}
+
+/**
+ * Everything a preview reads, in one query: every visible run of the compared runs' bikes (their
+ * archive, for the colour slots) and every ready run of the compared runs' stages (for the
+ * spread), newest first. The curve is read only for the compared runs and the stage runs.
+ */
+async function loadPreviewRows(em: EntityManager, actor: Actor, ids: string[]): Promise<RunRow[]> {
+  const scope = runScopeSql(actor);
+  const list = placeholders(ids.length);
+  const needsCurve = `r.id in (${list}) or (r.status = 'ready' and r.stage_id in (select w.stage_id from wanted w))`;
+  const rows: RunRecord[] = await em.getConnection().execute(
+    `with wanted as (select x.bike_id, x.stage_id from run x where x.shop_id = ? and x.deleted_at is null and x.id in (${list}))
+     select ${RUN_COLUMNS}, case when ${needsCurve} then r.curve end as curve
+       ${RUN_JOINS}
+      where ${scope.sql} and (r.bike_id in (select w.bike_id from wanted w) or (r.status = 'ready' and r.stage_id in (select w.stage_id from wanted w)))
+      order by r.created_at desc`,
+    [actor.shopId, ...ids, ...ids, ...scope.params],
   );
   return rows.map(toRunRow);
 }
@@ -581,23 +598,19 @@ function parseInput(input: EvaluateInput) {
  * run-to-run spread of every stage involved that has 2+ ready runs, and plain sentences.
  * Runs must all be visible to the actor (shop; customers: their own bikes) — else 404.
  */
-/** Colour slots of the compared runs from their bikes' archives (run-colors.ts). */
-async function colorSlotsOf(em: EntityManager, actor: Actor, all: Prepared[]): Promise<Map<string, number>> {
-  const bikeIds = [...new Set(all.map((p) => p.run.bike.id))];
-  const rows: { id: string; bike_id: string; position: number | null; sequence: number; created_at: string | Date }[] = await em
-    .getConnection()
-    .execute(
-      `select r.id, r.bike_id, s.position, r.sequence, r.created_at from run r left join stage s on s.id = r.stage_id where r.shop_id = ? and r.deleted_at is null and r.bike_id in (${bikeIds.map(() => '?').join(', ')})`,
-      [actor.shopId, ...bikeIds],
-    );
-  const archive: ArchiveRun[] = rows.map((r) => ({ id: r.id, bikeId: r.bike_id, stagePosition: r.position, sequence: r.sequence, createdAt: r.created_at }));
+/** Colour slots of the compared runs from their bikes' archives (run-colors.ts); `rows` hold every visible run of those bikes. */
+function colorSlotsOf(rows: RunRow[], all: Prepared[]): Map<string, number> {
+  const bikeIds = new Set(all.map((p) => p.run.bike.id));
+  const archive: ArchiveRun[] = rows
+    .filter((r) => bikeIds.has(r.bike.id))
+    .map((r) => ({ id: r.id, bikeId: r.bike.id, stagePosition: r.stage?.position ?? null, sequence: r.sequence, createdAt: r.createdAt }));
   return runColorSlots(archive, all.map((p) => p.run.id));
 }
 
 export async function evaluateComparison(em: EntityManager, actor: Actor, input: EvaluateInput): Promise<ComparisonPreview> {
   const data = parseInput(input);
   const options = data.options;
-  const rows = await loadRunRows(em, actor, data.runIds, 'of-runs');
+  const rows = await loadPreviewRows(em, actor, data.runIds);
   const byId = new Map(rows.map((r) => [r.id, r]));
   if (!data.runIds.every((id) => byId.has(id))) throw notFound('Run');
   const all = data.runIds.map((id) => prepare(byId.get(id)!, options));
@@ -667,7 +680,7 @@ export async function evaluateComparison(em: EntityManager, actor: Actor, input:
   if (!spreads.size) summary.push('No stage in this comparison has two or more runs, so run-to-run spread is unknown; treat small differences with care.');
   if (warnings.some((w) => w.code !== 'SEVERAL_BIKES' && w.code !== 'DYNO_UNKNOWN')) summary.push('Read these figures with the warnings below in mind.');
 
-  const colors = await colorSlotsOf(em, actor, all);
+  const colors = colorSlotsOf(rows, all);
   for (const p of all) p.summary.colorIndex = colors.get(p.run.id) ?? 0;
 
   return {
