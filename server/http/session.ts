@@ -3,32 +3,83 @@ import connectPgSimple from 'connect-pg-simple';
 import passport from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
 import pg from 'pg';
+import { AsyncLocalStorage } from 'node:async_hooks';
 import type express from 'express';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import type { AppDeps } from '../app-deps';
-import { User } from '../modules/users/user.entity';
-import { toActor, verifyCredentials } from '../modules/auth/auth.service';
+import { verifyCredentials } from '../modules/auth/auth.service';
 import type { Actor } from './actor';
 
 export const SESSION_COOKIE = 'pullbook.sid';
 
+interface ActorRow {
+  id: string;
+  shop_id: string;
+  role: Actor['role'];
+  email: string;
+  name: string;
+  customer_id: string | null;
+}
+
+const toActorFromRow = (row: ActorRow): Actor => ({ id: row.id, shopId: row.shop_id, role: row.role, email: row.email, name: row.name, customerId: row.customer_id });
+
+/**
+ * The signed-in user read together with the session, handed to passport's deserializeUser in
+ * the same request (one query instead of two on every request).
+ */
+interface SessionLoad {
+  userId?: string;
+  actor?: Actor | null;
+}
+const sessionLoad = new AsyncLocalStorage<SessionLoad>();
+
+// Session and user in one prepared statement; the user columns are null when the session has
+// no signed-in user, the user is gone, or the user is disabled.
+const SESSION_WITH_USER = {
+  name: 'pullbook-session-with-user',
+  text: `select s.sess, u.id, u.shop_id, u.role, u.email, u.name, u.customer_id
+           from http_session s
+           left join app_user u on u.id::text = s.sess->'passport'->>'user' and not u.disabled
+          where s.sid = $1 and s.expire >= now()`,
+};
+const ACTIVE_USER = { name: 'pullbook-active-user', text: 'select id, shop_id, role, email, name, customer_id from app_user where id = $1 and not disabled' };
+
 /**
  * Cookie sessions stored in PostgreSQL (table http_session), so any app instance can serve any
- * request. The user row is re-read on every request: disabling a user or changing a role takes
- * effect at once.
+ * request. The user row is re-read on every request (with the session, in one query): disabling
+ * a user or changing a role takes effect at once.
  */
 export function installSessions(app: express.Express, deps: AppDeps) {
   const PgStore = connectPgSimple(session);
+  /** connect-pg-simple's store, with a read that also loads the session's user. */
+  class SessionStore extends PgStore {
+    override get(sid: string, fn: (err: unknown, sess?: session.SessionData | null) => void) {
+      pool.query<{ sess: session.SessionData & { passport?: { user?: string } } } & Partial<ActorRow>>({ ...SESSION_WITH_USER, values: [sid] }).then(
+        ({ rows: [row] }) => {
+          if (!row) return fn(null, null);
+          const load = sessionLoad.getStore();
+          const userId = row.sess.passport?.user;
+          if (load && userId) {
+            load.userId = userId;
+            load.actor = row.id ? toActorFromRow(row as ActorRow) : null;
+          }
+          return fn(null, row.sess);
+        },
+        (err) => fn(err),
+      );
+    }
+  }
   const pool = new pg.Pool({ connectionString: deps.config.DATABASE_URL, max: 10 });
   const secure = deps.config.PUBLIC_URL.startsWith('https://');
   if (secure) app.set('trust proxy', 1);
 
+  app.use((_req, _res, next) => sessionLoad.run({}, next));
   app.use(
     session({
       name: SESSION_COOKIE,
       // No touch on every request: a session lasts 12 h from sign-in (a working day), and reads
       // stay reads — one write per request would dominate the cost of light API calls.
-      store: new PgStore({ pool, tableName: 'http_session', createTableIfMissing: false, pruneSessionInterval: 15 * 60, disableTouch: true }),
+      store: new SessionStore({ pool, tableName: 'http_session', createTableIfMissing: false, pruneSessionInterval: 15 * 60, disableTouch: true }),
       secret: deps.config.SESSION_SECRET,
       resave: false,
       saveUninitialized: false,
@@ -47,14 +98,14 @@ export function installSessions(app: express.Express, deps: AppDeps) {
     }),
   );
   passport.serializeUser((actor, done) => done(null, (actor as Actor).id));
-  passport.deserializeUser((id: string, done) => {
-    deps.orm.em
-      .fork()
-      .findOne(User, { id })
-      .then(
-        (user) => done(null, user && !user.disabled ? toActor(user) : false),
-        (err) => done(err),
-      );
+  // Usually the user came with the session; otherwise one plain query (no ORM unit of work).
+  passport.deserializeUser((id: string, done: (err: unknown, user?: Actor | false) => void) => {
+    const load = sessionLoad.getStore();
+    if (load?.userId === id && load.actor !== undefined) return done(null, load.actor ?? false);
+    pool.query<ActorRow>({ ...ACTIVE_USER, values: [id] }).then(
+      ({ rows: [row] }) => done(null, row ? toActorFromRow(row) : false),
+      (err) => done(err),
+    );
   });
 
   app.use(passport.initialize());
