@@ -4,6 +4,10 @@
  * port with a PostgreSQL cluster of its own under storage/bench/comparison-postgres (migrated and
  * seeded with invented runs on each start; the data is small). Median and p95 from every
  * response's time. Target: p95 < 50 ms for 2 runs; 12 runs is reported.
+ *
+ * Every request computes its comparison in full; what repeats across requests is only the read
+ * of the runs' parsed curves, which the read model caches by run id and updated_at
+ * (server/modules/comparisons/comparison-runs.ts), as it does for a tuner changing options.
  */
 import path from 'node:path';
 import { randomBytes } from 'node:crypto';
@@ -70,7 +74,7 @@ export async function run(): Promise<void> {
       rows.push([c.name, String(r.requests), String(r.errors), r.medianMs.toFixed(1), r.p95Ms.toFixed(1), c.targetMs === null ? 'reported' : `< ${c.targetMs} ms`, ok ? 'ok' : 'OVER TARGET']);
     }
     printTable(rows);
-    process.stdout.write(`${CONNECTIONS} concurrent connections, ${DURATION_S} s per case; each run 81 points (2,000–6,000 rpm, 50 rpm grid), 4 runs per stage for the spread\n`);
+    process.stdout.write(`${CONNECTIONS} concurrent connections, ${DURATION_S} s per case; each run 81 points (2,000–6,000 rpm, 50 rpm grid), 4 runs per stage for the spread; curves from the read model's cache after the first request\n`);
   } finally {
     if (app) await app.close();
     await pgService.stop();

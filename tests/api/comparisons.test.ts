@@ -5,7 +5,9 @@ import { compareCurves, repeatability } from '@server/analysis/compare';
 import { applyCorrection } from '@server/analysis/curve';
 import { correctionFactor } from '@server/analysis/correction';
 import { Bike } from '@server/modules/bikes/bike.entity';
-import type { Run } from '@server/modules/runs/run.entity';
+import { Run } from '@server/modules/runs/run.entity';
+import { evaluateComparison } from '@server/modules/comparisons/comparison.service';
+import { toActor } from '@server/modules/auth/auth.service';
 
 let t: TestApp;
 let a: TestShop;
@@ -299,6 +301,42 @@ describe('repeatability', () => {
     expect(res.body.summary[0]).toMatch(/below 4,000 rpm the change is within run-to-run spread/);
   });
 });
+
+describe('curves read again after a change (the read model caches parsed curves)', () => {
+  it('a curve rewritten by hand-written SQL, updated_at untouched, is what the next preview uses', async () => {
+    const [r0, r1] = await seedRuns(a.bike, [curveFromPower((r) => 20 + 0.01 * r), curveFromPower((r) => 22 + 0.01 * r)]);
+    const first = await preview({ runIds: [r0.id, r1.id], baselineRunId: r0.id });
+    expect(first.body.results[0].averagePowerGainHp).toBeCloseTo(2, 6);
+    const em = t.deps.orm.em.fork();
+    const [before] = await em.getConnection().execute<{ v: string }[]>('select updated_at::text as v from run where id = ?', [r1.id]);
+    // +5 hp flat instead of +2: the run_curve_version trigger moves updated_at, so the cache misses.
+    await em.getConnection().execute('update run set curve = ? where id = ?', [JSON.stringify(curveFromPower((r) => 25 + 0.01 * r)), r1.id]);
+    const [after] = await em.getConnection().execute<{ v: string }[]>('select updated_at::text as v from run where id = ?', [r1.id]);
+    expect(after.v).not.toBe(before.v);
+    const second = await preview({ runIds: [r0.id, r1.id], baselineRunId: r0.id });
+    expect(second.body.results[0].averagePowerGainHp).toBeCloseTo(5, 6);
+  });
+
+  it('inside a transaction, sees the transaction’s own uncommitted runs', async () => {
+    const actor = toActor(a.users.tuner);
+    await t.deps.orm.em.fork().transactional(async (tx) => {
+      const f = new ComparisonFixtures(tx, a.shop);
+      const bike = tx.getReference(Bike, a.bike.id);
+      const r0 = f.run(bike, { curve: curveFromPower((r) => 30 + 0.01 * r), label: 'In tx 1' });
+      const r1 = f.run(bike, { curve: curveFromPower((r) => 33 + 0.01 * r), label: 'In tx 2' });
+      await tx.flush();
+      const res = await evaluateComparison(tx, actor, { runIds: [r0.id, r1.id], baselineRunId: r0.id });
+      expect(res.results[0].averagePowerGainHp).toBeCloseTo(3, 6);
+      expect(res.runs.map((x) => x.name)).toEqual(['In tx 1', 'In tx 2']);
+      // Roll back: these runs never existed.
+      throw new RollBack();
+    }).catch((e) => {
+      if (!(e instanceof RollBack)) throw e;
+    });
+    expect(await t.deps.orm.em.fork().count(Run, { label: { $in: ['In tx 1', 'In tx 2'] } })).toBe(0);
+  });
+});
+class RollBack extends Error {}
 
 describe('access and validation', () => {
   const base = curveFromPower((r) => 20 + 0.01 * r);

@@ -39,7 +39,8 @@ import { isAnalysisError } from '../../analysis/errors';
 import { gridPoints, interpolateSorted } from '../../analysis/resample';
 import { smoothSavitzkyGolay } from '../../analysis/smoothing';
 import { hpTo, lbftTo } from '../../analysis/units';
-import { Run, type StoredCurve } from '../runs/run.entity';
+import { Run } from '../runs/run.entity';
+import { MAX_STAGE_RUNS, loadPreviewRows, loadRunRows, type RunRow } from './comparison-runs';
 import { Stage, Part } from '../stages/stage.entity';
 import { Bike } from '../bikes/bike.entity';
 import { Shop } from '../shops/shop.entity';
@@ -57,32 +58,10 @@ export interface EvaluateInput {
 }
 
 const DEFAULT_BAND_WIDTH = 1000;
-/** Runs of one stage considered for its run-to-run spread (newest first). */
-const MAX_STAGE_RUNS = 12;
 /** A loss smaller than this (hp) is not worth a sentence. Our own threshold. */
 const NOTABLE_LOSS_HP = 0.5;
 /** Share of the total positive gain area that "most of the gain" means. Our own threshold. */
 const MOST_OF_GAIN = 0.75;
-
-/**
- * What a comparison reads of a run: a plain read model filled by one SQL query (no managed
- * entities, no change-tracking snapshots of the curve columns).
- */
-interface RunRow {
-  id: string;
-  label: string | null;
-  sequence: number;
-  status: string;
-  curve: StoredCurve | null;
-  correctionStandard: string | null;
-  correctionFactor: number | null;
-  conditions: Record<string, unknown> | null;
-  identityStatus: string | null;
-  createdAt: Date;
-  bike: { id: string; make: string; model: string; year: number | null };
-  stage: { id: string; name: string; position: number } | null;
-  session: { id: string; startedAt: Date; ambientTempC: number | null; baroKpa: number | null; humidityPct: number | null; dyno: { id: string; name: string } | null } | null;
-}
 
 interface Prepared {
   run: RunRow;
@@ -97,125 +76,6 @@ const standardLabel = (s: string) => CORRECTION_STANDARDS.find((c) => c.id === s
 const r4 = (v: number) => Math.round(v * 1e4) / 1e4;
 const r3 = (v: number) => Math.round(v * 1e3) / 1e3;
 const num = (v: unknown): number | null => (typeof v === 'number' && Number.isFinite(v) ? v : null);
-const NO_CUSTOMER = '00000000-0000-0000-0000-000000000000';
-const placeholders = (n: number) => Array.from({ length: n }, () => '?').join(', ');
-const toDate = (v: string | Date) => (v instanceof Date ? v : new Date(v));
-const jsonOf = <T>(v: unknown): T => (typeof v === 'string' ? (JSON.parse(v) as T) : (v as T));
-
-interface RunRecord {
-  id: string;
-  label: string | null;
-  sequence: number;
-  status: string;
-  curve: unknown;
-  correction_standard: string | null;
-  correction_factor: number | null;
-  conditions: unknown;
-  identity_status: string | null;
-  created_at: string | Date;
-  stage_id: string | null;
-  bike_id: string;
-  bike_make: string;
-  bike_model: string;
-  bike_year: number | null;
-  stage_name: string | null;
-  stage_position: number | null;
-  session_id: string | null;
-  session_started_at: string | Date | null;
-  session_ambient_temp_c: number | null;
-  session_baro_kpa: number | null;
-  session_humidity_pct: number | null;
-  dyno_id: string | null;
-  dyno_name: string | null;
-}
-
-function toRunRow(r: RunRecord): RunRow {
-  return {
-    id: r.id,
-    label: r.label,
-    sequence: r.sequence,
-    status: r.status,
-    curve: jsonOf<StoredCurve | null>(r.curve),
-    correctionStandard: r.correction_standard,
-    correctionFactor: r.correction_factor,
-    conditions: jsonOf<Record<string, unknown> | null>(r.conditions),
-    identityStatus: r.identity_status,
-    createdAt: toDate(r.created_at),
-    bike: { id: r.bike_id, make: r.bike_make, model: r.bike_model, year: r.bike_year },
-    stage: r.stage_id ? { id: r.stage_id, name: r.stage_name ?? '', position: r.stage_position ?? 0 } : null,
-    session: r.session_id
-      ? {
-          id: r.session_id,
-          startedAt: toDate(r.session_started_at!),
-          ambientTempC: r.session_ambient_temp_c,
-          baroKpa: r.session_baro_kpa,
-          humidityPct: r.session_humidity_pct,
-          dyno: r.dyno_id ? { id: r.dyno_id, name: r.dyno_name ?? '' } : null,
-        }
-      : null,
-  };
-}
-
-const RUN_COLUMNS = `r.id, r.label, r.sequence, r.status, r.correction_standard, r.correction_factor, r.conditions, r.identity_status, r.created_at, r.stage_id,
-            b.id as bike_id, b.make as bike_make, b.model as bike_model, b.year as bike_year,
-            st.name as stage_name, st.position as stage_position,
-            ds.id as session_id, ds.started_at as session_started_at, ds.ambient_temp_c as session_ambient_temp_c, ds.baro_kpa as session_baro_kpa, ds.humidity_pct as session_humidity_pct,
-            d.id as dyno_id, d.name as dyno_name`;
-const RUN_JOINS = `from run r
-       join bike b on b.id = r.bike_id
-       left join stage st on st.id = r.stage_id
-       left join dyno_session ds on ds.id = r.session_id
-       left join dyno d on d.id = ds.dyno_id`;
-
-/** The actor's run filter (shop, not deleted; customers only their own bikes) and its parameters. */
-function runScopeSql(actor: Actor): { sql: string; params: unknown[] } {
-  if (actor.role === 'customer') return { sql: 'r.shop_id = ? and r.deleted_at is null and b.customer_id = ?', params: [actor.shopId, actor.customerId ?? NO_CUSTOMER] };
-  return { sql: 'r.shop_id = ? and r.deleted_at is null', params: [actor.shopId] };
-}
-
-/**
- * Runs visible to the actor that are one of `ids` or a ready run of one of `stageIds`, newest
- * first.
- */
-async function loadRunRows(em: EntityManager, actor: Actor, ids: string[], stageIds: string[]): Promise<RunRow[]> {
-  const scope = runScopeSql(actor);
-  const params: unknown[] = [...scope.params];
-  const which: string[] = [];
-  if (ids.length) {
-    which.push(`r.id in (${placeholders(ids.length)})`);
-    params.push(...ids);
-  }
-  if (stageIds.length) {
-    which.push(`(r.status = 'ready' and r.stage_id in (${placeholders(stageIds.length)}))`);
-    params.push(...stageIds);
-  }
-  if (!which.length) return [];
-  const rows: RunRecord[] = await em.getConnection().execute(
-    `select ${RUN_COLUMNS}, r.curve ${RUN_JOINS} where ${scope.sql} and (${which.join(' or ')}) order by r.created_at desc`,
-    params,
-  );
-  return rows.map(toRunRow);
-}
-
-/**
- * Everything a preview reads, in one query: every visible run of the compared runs' bikes (their
- * archive, for the colour slots) and every ready run of the compared runs' stages (for the
- * spread), newest first. The curve is read only for the compared runs and the stage runs.
- */
-async function loadPreviewRows(em: EntityManager, actor: Actor, ids: string[]): Promise<RunRow[]> {
-  const scope = runScopeSql(actor);
-  const list = placeholders(ids.length);
-  const needsCurve = `r.id in (${list}) or (r.status = 'ready' and r.stage_id in (select w.stage_id from wanted w))`;
-  const rows: RunRecord[] = await em.getConnection().execute(
-    `with wanted as (select x.bike_id, x.stage_id from run x where x.shop_id = ? and x.deleted_at is null and x.id in (${list}))
-     select ${RUN_COLUMNS}, case when ${needsCurve} then r.curve end as curve
-       ${RUN_JOINS}
-      where ${scope.sql} and (r.bike_id in (select w.bike_id from wanted w) or (r.status = 'ready' and r.stage_id in (select w.stage_id from wanted w)))
-      order by r.created_at desc`,
-    [actor.shopId, ...ids, ...ids, ...scope.params],
-  );
-  return rows.map(toRunRow);
-}
 
 /** Conditions used for correction: the run's own, then its session's for what the file lacked. */
 function conditionsOf(run: RunRow) {
