@@ -4,6 +4,11 @@ import type { Actor } from '../../http/actor';
 import { notFound } from '../../lib/errors';
 import type { SimilarBuildsDto } from '@shared/schemas/builds';
 import { BUILD_INDEX_COLUMNS, Sql, toBuildItem, type BuildIndexRow } from './build-sql';
+import { preparedQuery, preparedStatement } from '../../db/prepared-query';
+
+const ME = preparedStatement(`select b.id, b.engine_family, b.displacement_cc, b.cylinders, coalesce(l.categories, '{}') as cats, coalesce(l.parts_text, '') as txt
+       from bike b left join lateral (select categories, parts_text from build_index where bike_id = b.id order by stage_position desc limit 1) l on true
+      where b.id = ? and b.shop_id = ?`);
 
 /**
  * "Similar to this bike": other builds of the same shop ranked by a weighted similarity
@@ -50,14 +55,8 @@ interface SimilarRow extends BuildIndexRow {
 export async function similarBuilds(em: EntityManager, actor: Actor, bikeId: string, limit: number): Promise<SimilarBuildsDto> {
   const q = new Sql();
   const shop = actor.shopId;
-  const conn = em.getConnection();
   // This bike and its whole build (the cumulative build of its last stage).
-  const [me] = (await conn.execute(
-    `select b.id, b.engine_family, b.displacement_cc, b.cylinders, coalesce(l.categories, '{}') as cats, coalesce(l.parts_text, '') as txt
-       from bike b left join lateral (select categories, parts_text from build_index where bike_id = b.id order by stage_position desc limit 1) l on true
-      where b.id = ? and b.shop_id = ?`,
-    [bikeId, shop],
-  )) as { id: string; engine_family: string | null; displacement_cc: number | null; cylinders: number | null; cats: PartCategory[]; txt: string }[];
+  const [me] = (await preparedQuery(em, ME, [bikeId, shop])) as { id: string; engine_family: string | null; displacement_cc: number | null; cylinders: number | null; cats: PartCategory[]; txt: string }[];
   if (!me) throw notFound('Bike');
   const myCats = new Set(me.cats);
   const w = SIMILARITY_WEIGHTS;
@@ -122,7 +121,9 @@ export async function similarBuilds(em: EntityManager, actor: Actor, bikeId: str
     select ${BUILD_INDEX_COLUMNS}, c.name as customer_name, top.e, top.d, top.c, top.t, top.similarity, bi.categories, top.same_family, top.same_cylinders, top.cc_rel
       from top join build_index bi on bi.stage_id = top.stage_id join customer c on c.id = bi.customer_id
      order by top.similarity desc, top.stage_id desc`;
-  const rows = (await conn.execute(sql, q.params)) as SimilarRow[];
+  // Prepared: the text varies only with which of this bike's fields are known and how many part
+  // categories it has, a few dozen texts at most.
+  const rows = (await preparedQuery(em, preparedStatement(sql), q.params)) as SimilarRow[];
   return {
     bikeId,
     weights: { ...w },

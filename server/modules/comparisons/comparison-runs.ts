@@ -1,6 +1,6 @@
 /**
  * What a comparison reads of its runs: a plain read model (no managed entities, no change-tracking
- * snapshots of the curve columns), filled by prepared SQL statements, with the parsed curves kept
+ * snapshots of the curve columns), filled by prepared SQL statements (server/db/prepared-query.ts), with the parsed curves kept
  * in a small in-process cache keyed by run id and the row's `updated_at`.
  *
  * The preview endpoint is the hottest read in the product (the builder asks again on every
@@ -10,6 +10,7 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import type { Actor } from '../../http/actor';
 import type { StoredCurve } from '../runs/run.entity';
+import { preparedQuery as query } from '../../db/prepared-query';
 
 /** Runs of one stage considered for its run-to-run spread (newest first). */
 export const MAX_STAGE_RUNS = 12;
@@ -119,30 +120,6 @@ class CurveCache {
 
 /** About 2,000 curves of a few kB each: the runs a busy shop compares over a day. */
 const curveCache = new CurveCache(2000);
-
-/**
- * Runs a named (prepared once per connection) statement. Inside a transaction the transaction's
- * connection is used, unnamed, so a caller's uncommitted rows are seen.
- */
-async function query<T>(em: EntityManager, statement: { name: string; text: string }, values: unknown[]): Promise<T[]> {
-  if (em.isInTransaction()) {
-    const bindings: unknown[] = [];
-    const text = statement.text.replace(/\$(\d+)/g, (_m, n: string) => {
-      const v = values[Number(n) - 1];
-      // knex would spread an array into a list; PostgreSQL reads this literal (uuids need no quoting).
-      bindings.push(Array.isArray(v) ? `{${v.join(',')}}` : v);
-      return '?';
-    });
-    return em.getConnection().execute<T[]>(text, bindings, 'all', em.getTransactionContext());
-  }
-  const client = em.getKnex().client;
-  const connection = (await client.acquireConnection()) as { query: (q: { name: string; text: string; values: unknown[] }) => Promise<{ rows: T[] }> };
-  try {
-    return (await connection.query({ ...statement, values })).rows;
-  } finally {
-    await client.releaseConnection(connection);
-  }
-}
 
 function toRunRow(r: RunRecord, curve: StoredCurve | null): RunRow {
   return {
