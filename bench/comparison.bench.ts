@@ -8,10 +8,18 @@
  * Every request computes its comparison in full; what repeats across requests is only the read
  * of the runs' parsed curves, which the read model caches by run id and updated_at
  * (server/modules/comparisons/comparison-runs.ts), as it does for a tuner changing options.
+ *
+ * Then the overlay of the 12 runs in the browser (the built client, Debian's Chromium through
+ * playwright-core): the comparison page opened afresh five times, each time the time from the
+ * chart option being built to ECharts' first finished frame (performance marks
+ * 'pb:overlay-option' → measure 'pb:overlay-render', set in comparison-charts.tsx). Reported.
  */
 import path from 'node:path';
 import { randomBytes } from 'node:crypto';
+import { chromium } from 'playwright-core';
 import { STORAGE } from '../scripts/lib/paths.js';
+import { buildClient } from '../scripts/lib/client-build.js';
+import { percentile } from './lib/stats.js';
 import { freePort, startLocalPostgres } from '../scripts/lib/local-services.js';
 import { migrateToLatest } from '../server/db/orm.js';
 import { hashPassword } from '../server/modules/auth/auth.service.js';
@@ -32,12 +40,40 @@ function load(baseUrl: string, cookie: string, body: string) {
   return loadTest({ url: `${baseUrl}/api/comparisons/preview`, connections: CONNECTIONS, duration: DURATION_S, method: 'POST', headers: { cookie, 'content-type': 'application/json', origin: baseUrl }, body });
 }
 
+const BROWSER_RENDERS = 5;
+
+/** Opens the 12-run comparison page `times` times and returns each overlay render time (ms). */
+async function overlayRenderTimes(baseUrl: string, email: string, runIds: string[], times: number): Promise<number[]> {
+  const browser = await chromium.launch({ executablePath: '/usr/bin/chromium', headless: true, args: ['--no-sandbox', '--disable-gpu', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'] });
+  try {
+    const context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
+    const page = await context.newPage();
+    page.setDefaultTimeout(30_000);
+    await page.goto(`${baseUrl}/login`);
+    await page.getByLabel('E-mail').fill(email);
+    await page.getByLabel('Password').fill(PASSWORD);
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.waitForURL((u) => !u.pathname.startsWith('/login'));
+    const out: number[] = [];
+    for (let i = 0; i < times; i++) {
+      await page.goto(`${baseUrl}/comparisons/new?runIds=${runIds.join(',')}&baselineRunId=${runIds[0]}`);
+      await page.waitForFunction(() => performance.getEntriesByName('pb:overlay-render').length > 0, undefined, { timeout: 30_000 });
+      out.push(await page.evaluate(() => performance.getEntriesByName('pb:overlay-render')[0].duration));
+    }
+    return out;
+  } finally {
+    await browser.close();
+  }
+}
+
 /** Prints the comparison bench table. */
 export async function run(): Promise<void> {
+  const clientDir = path.join(STORAGE, 'bench', 'client');
+  buildClient(clientDir);
   const pgService = await startLocalPostgres({ baseDir: path.join(STORAGE, 'bench', 'comparison-postgres'), port: await freePort(), database: 'pullbook_compare', label: 'bench-compare-postgres' });
   let app: BenchApp | null = null;
   try {
-    app = await startBenchApp({ databaseUrl: pgService.url, poolMax: CONNECTIONS, prepare: (deps) => migrateToLatest(deps.orm) });
+    app = await startBenchApp({ databaseUrl: pgService.url, poolMax: CONNECTIONS, prepare: (deps) => migrateToLatest(deps.orm), clientDir });
     const { baseUrl, deps } = app;
 
     // A fresh invented shop each start (the cluster is reused; old shops are simply ignored).
@@ -73,6 +109,10 @@ export async function run(): Promise<void> {
       const ok = r.errors === 0 && (c.targetMs === null || r.p95Ms < c.targetMs);
       rows.push([c.name, String(r.requests), String(r.errors), r.medianMs.toFixed(1), r.p95Ms.toFixed(1), c.targetMs === null ? 'reported' : `< ${c.targetMs} ms`, ok ? 'ok' : 'OVER TARGET']);
     }
+    await app.settle();
+    const renders = await overlayRenderTimes(baseUrl, email, ids, BROWSER_RENDERS);
+    renders.sort((x, y) => x - y);
+    rows.push([`overlay of 12 runs in the browser`, String(renders.length), '—', percentile(renders, 0.5).toFixed(1), `max ${renders[renders.length - 1].toFixed(1)}`, 'reported', 'ok']);
     printTable(rows);
     process.stdout.write(`${CONNECTIONS} concurrent connections, ${DURATION_S} s per case; each run 81 points (2,000–6,000 rpm, 50 rpm grid), 4 runs per stage for the spread; curves from the read model's cache after the first request\n`);
   } finally {

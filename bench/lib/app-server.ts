@@ -16,10 +16,11 @@ export interface BenchApp {
 }
 
 /**
- * The real app on a free loopback port against the given database, without S3 or SMTP.
+ * The real app on a free loopback port against the given database, without S3 or SMTP (and,
+ * given `clientDir`, serving that built client).
  * `prepare` runs on the dependencies before the app is created (e.g. migrations).
  */
-export async function startBenchApp(options: { databaseUrl: string; poolMax: number; prepare?: (deps: Deps) => Promise<unknown> }): Promise<BenchApp> {
+export async function startBenchApp(options: { databaseUrl: string; poolMax: number; prepare?: (deps: Deps) => Promise<unknown>; clientDir?: string }): Promise<BenchApp> {
   const server = http.createServer();
   try {
     await new Promise<void>((r) => server.listen(0, '127.0.0.1', () => r()));
@@ -35,7 +36,7 @@ export async function startBenchApp(options: { databaseUrl: string; poolMax: num
     });
     const deps = await buildDeps(config, { poolMax: options.poolMax });
     if (options.prepare) await options.prepare(deps);
-    const created = createApp(deps);
+    const created = createApp(deps, { clientDir: options.clientDir });
     // Abandoned requests still run to their end; count them until the response is finished, not
     // until the socket closes, so the next case and the shutdown wait for them.
     let inFlight = 0;
