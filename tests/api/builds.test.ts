@@ -282,6 +282,81 @@ describe('similar builds', () => {
   });
 });
 
+describe('similar builds against a plain reference query', () => {
+  // The service scores only the builds that can still reach the top (a cut on the E/D/C score
+  // before the costly text term). This reference scores every candidate build with the same
+  // documented formula and no cut; both must give the same top list for every limit.
+  const REFERENCE = `
+    with me as (
+      select b.id, b.shop_id, b.engine_family as fam, b.displacement_cc as cc, coalesce(l.categories, '{}') as cats, coalesce(l.parts_text, '') as txt
+        from bike b left join lateral (select categories, parts_text from build_index where bike_id = b.id order by stage_position desc limit 1) l on true
+       where b.id = ?),
+    scored as (
+      select bi.stage_id,
+             case when me.fam is null or b.engine_family is null then 0 else similarity(b.engine_family, me.fam) end::float8 as e,
+             case when me.cc is null or b.displacement_cc is null then 0 else greatest(0, 1 - abs(b.displacement_cc - me.cc) / (0.2 * me.cc)) end::float8 as d,
+             coalesce(cardinality(array(select unnest(bi.categories) intersect select unnest(me.cats)))::float8
+                      / nullif(cardinality(array(select unnest(bi.categories) union select unnest(me.cats))), 0), 0) as c,
+             case when bi.parts_text = '' or me.txt = '' then 0 else similarity(bi.parts_text, me.txt) end::float8 as t
+        from build_index bi join bike b on b.id = bi.bike_id cross join me
+       where bi.shop_id = me.shop_id and b.id <> me.id and bi.gain_peak_power_hp is not null
+         and ((me.fam is not null and b.engine_family % me.fam) or (me.cc is not null and b.displacement_cc between me.cc * 0.8 and me.cc * 1.2)))
+    select stage_id, ((0.4 * e + 0.3 * d + 0.2 * c) + 0.1 * t)::float8 as similarity from scored
+     order by similarity desc, stage_id desc limit ?`;
+
+  it('gives the same builds in the same order as scoring every candidate (30 generated bikes, limits 1–50)', async () => {
+    const shop = await t.createShop('Finder Reference');
+    const em = t.deps.orm.em.fork();
+    const cust = await em.findOneOrFail(Customer, shop.customer.id);
+    // Invented specs from a fixed-seed generator (mulberry32), so the set is the same every run.
+    let seed = 20261202;
+    const rand = () => {
+      seed = (seed + 0x6d2b79f5) | 0;
+      let x = Math.imul(seed ^ (seed >>> 15), 1 | seed);
+      x = (x + Math.imul(x ^ (x >>> 7), 61 | x)) ^ x;
+      return ((x ^ (x >>> 14)) >>> 0) / 4294967296;
+    };
+    const pick = <T,>(xs: readonly T[]) => xs[Math.floor(rand() * xs.length)];
+    const families = ['Vantor 103', 'Vantor 107', 'Vantor 114', 'Strata Inline-4', 'Strata Twin', null];
+    const pool: { category: PartCategory; description: string }[] = [
+      { category: 'exhaust', description: 'Two-into-one header' },
+      { category: 'exhaust', description: 'Slip-on mufflers with removable baffles' },
+      { category: 'intake', description: 'High-flow air cleaner' },
+      { category: 'camshaft', description: 'Bolt-in cam set' },
+      { category: 'camshaft', description: 'Chain-drive cams, adjustable pushrods, new lifters and cam plate' },
+      { category: 'cylinder-heads', description: 'Mild port and valve job' },
+      { category: 'fuel-tune', description: 'Fuel map on the dyno' },
+      { category: 'ignition', description: 'Coil pack' },
+    ];
+    const bikes: Bike[] = [];
+    for (let i = 0; i < 30; i++) {
+      const stages: StageSpec[] = [{ name: 'Baseline' }];
+      const n = 1 + Math.floor(rand() * 3);
+      for (let k = 1; k <= n; k++) {
+        const parts = Array.from({ length: Math.floor(rand() * 3) }, () => pick(pool));
+        stages.push({ name: `Stage ${k}`, peak: Math.round(rand() * 200) / 10, parts });
+      }
+      const cc = rand() < 0.1 ? null : 1500 + Math.round(rand() * 400);
+      bikes.push((await addBike(em, shop.shop.id, cust, { make: 'Corvane', model: `Ref ${i}`, family: pick(families), cc }, stages)).bike);
+    }
+    const owner = await t.signIn(shop.users.owner);
+    let compared = 0;
+    for (const bike of bikes.slice(0, 8)) {
+      for (const limit of [1, 3, 10, 50]) {
+        const res = await owner.get(`/api/bikes/${bike.id}/similar`).query({ limit });
+        expect(res.status).toBe(200);
+        const ref = await em.getConnection().execute<{ stage_id: string; similarity: number }[]>(REFERENCE, [bike.id, limit]);
+        const got = res.body.items as { stageId: string; similarity: number }[];
+        expect(got.map((x) => x.stageId)).toEqual(ref.map((r) => r.stage_id));
+        got.forEach((x, i) => expect(x.similarity).toBeCloseTo(ref[i].similarity, 12));
+        compared += ref.length;
+      }
+    }
+    // The generated set must actually exercise the cut: many candidates, long lists.
+    expect(compared).toBeGreaterThan(200);
+  });
+});
+
 describe('typical outcome', () => {
   it('summarises per-stage increments of similar builds (checked with simple-statistics, R-7 quantiles)', async () => {
     const shop = await t.createShop('Finder Delta');

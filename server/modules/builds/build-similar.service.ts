@@ -29,7 +29,9 @@ const ME = preparedStatement(`select b.id, b.engine_family, b.displacement_cc, b
  * 0.3) or whose displacement is within ±20 % (when this bike has neither, every bike), at every
  * measured stage. For speed at archive scale only the 200 candidate bikes with the highest
  * 0.4·E + 0.3·D are scored in full (the part terms can add at most 0.3, so a bike outside them
- * can only outrank one inside when that many bikes tie closely on engine and size). Reasons name what matched: "same engine family" (E = 1, case ignored), "similar
+ * can only outrank one inside when that many bikes tie closely on engine and size; among tied
+ * bikes the most recently added go first, as recent builds reflect the parts and practice the
+ * shop uses now). Reasons name what matched: "same engine family" (E = 1, case ignored), "similar
  * engine family (X)" (E ≥ 0.5), "within 5 % displacement" / "within 10 % displacement" /
  * "within 20 % displacement", "same cylinder count", "also has: camshaft, cylinder heads", "similar
  * parts descriptions" (T ≥ 0.3).
@@ -91,11 +93,11 @@ export async function similarBuilds(em: EntityManager, actor: Actor, bikeId: str
     with mine as (select ${q.p(me.txt)}::text as txt),
     ${famCte()},
     bike_score as (
-      select b.id, ${e()}::float8 as e, ${d()}::float8 as d, ${ccRel()}::float8 as cc_rel, ${sameFamily()} as same_family, ${sameCyl()} as same_cylinders
+      select b.id, b.created_at, ${e()}::float8 as e, ${d()}::float8 as d, ${ccRel()}::float8 as cc_rel, ${sameFamily()} as same_family, ${sameCyl()} as same_cylinders
         from bike b left join fam on fam.engine_family = b.engine_family
        where b.shop_id = ${q.p(shop)} and b.id <> ${q.p(me.id)} and (${candidate()})),
     cand_bike as (
-      select * from bike_score order by ${w.engineFamily} * e + ${w.displacement} * d desc, id limit ${q.p(SIMILAR_CANDIDATE_BIKES)}),
+      select * from bike_score order by ${w.engineFamily} * e + ${w.displacement} * d desc, created_at desc, id limit ${q.p(SIMILAR_CANDIDATE_BIKES)}),
     cand as materialized (
       select bi.stage_id, cb.e, cb.d, cb.cc_rel, cb.same_family, cb.same_cylinders, bi.parts_text,
              ${sharedCount()} as n_shared, cardinality(bi.categories) + ${q.p(myCats.size)} as sizes
