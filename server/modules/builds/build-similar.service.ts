@@ -6,8 +6,8 @@ import type { SimilarBuildsDto } from '@shared/schemas/builds';
 import { BUILD_INDEX_COLUMNS, Sql, toBuildItem, type BuildIndexRow } from './build-sql';
 import { preparedQuery, preparedStatement } from '../../db/prepared-query';
 
-const ME = preparedStatement(`select b.id, b.engine_family, b.displacement_cc, b.cylinders, coalesce(l.categories, '{}') as cats, coalesce(l.parts_text, '') as txt
-       from bike b left join lateral (select categories, parts_text from build_index where bike_id = b.id order by stage_position desc limit 1) l on true
+const ME = preparedStatement(`select b.id, b.engine_family, b.displacement_cc, b.cylinders, coalesce(l.categories, '{}') as cats, coalesce(l.parts_trgm, '{}') as trgm
+       from bike b left join lateral (select categories, parts_trgm from build_index where bike_id = b.id order by stage_position desc limit 1) l on true
       where b.id = ? and b.shop_id = ?`);
 
 /**
@@ -22,8 +22,10 @@ const ME = preparedStatement(`select b.id, b.engine_family, b.displacement_cc, b
  * - C, shared part categories: Jaccard index |A ∩ B| / |A ∪ B| of the categories fitted to this
  *   bike (all its stages) and those of the other build (cumulative, up to that stage); 0 when both
  *   are empty.
- * - T, parts text: pg_trgm similarity of all this bike's part descriptions joined and the other
- *   build's cumulative part descriptions joined.
+ * - T, parts text: pg_trgm's trigram similarity |A ∩ B| / |A ∪ B| of all this bike's part
+ *   descriptions joined and the other build's cumulative part descriptions joined, from the
+ *   trigram sets build_index keeps (parts_trgm, Migration20261202031000) — the same sets
+ *   similarity() extracts, without extracting them again for every pair.
  *
  * Candidates are other bikes of the shop whose engine family is trigram-similar (`%`, threshold
  * 0.3) or whose displacement is within ±20 % (when this bike has neither, every bike), at every
@@ -58,7 +60,7 @@ export async function similarBuilds(em: EntityManager, actor: Actor, bikeId: str
   const q = new Sql();
   const shop = actor.shopId;
   // This bike and its whole build (the cumulative build of its last stage).
-  const [me] = (await preparedQuery(em, ME, [bikeId, shop])) as { id: string; engine_family: string | null; displacement_cc: number | null; cylinders: number | null; cats: PartCategory[]; txt: string }[];
+  const [me] = (await preparedQuery(em, ME, [bikeId, shop])) as { id: string; engine_family: string | null; displacement_cc: number | null; cylinders: number | null; cats: PartCategory[]; trgm: number[] }[];
   if (!me) throw notFound('Bike');
   const myCats = new Set(me.cats);
   const w = SIMILARITY_WEIGHTS;
@@ -87,10 +89,8 @@ export async function similarBuilds(em: EntityManager, actor: Actor, bikeId: str
   const ccRel = () => (cc === null ? 'null' : `abs(b.displacement_cc - ${q.p(cc)}) / ${q.p(cc)}`);
   const sameFamily = () => (fam === null ? 'false' : `(lower(b.engine_family) = lower(${q.p(fam)})) is true`);
   const sameCyl = () => (me.cylinders === null ? 'false' : `(b.cylinders = ${q.p(me.cylinders)}) is true`);
-  // The part terms add at most partCategories + partsText; the text term (the costly one) is
-  // computed only for builds that can still reach the top \`limit\` once it is added.
   const sql = `
-    with mine as (select ${q.p(me.txt)}::text as txt),
+    with mine as (select ${q.p(me.trgm)}::int[] as trgm),
     ${famCte()},
     bike_score as (
       select b.id, b.created_at, ${e()}::float8 as e, ${d()}::float8 as d, ${ccRel()}::float8 as cc_rel, ${sameFamily()} as same_family, ${sameCyl()} as same_cylinders
@@ -98,27 +98,16 @@ export async function similarBuilds(em: EntityManager, actor: Actor, bikeId: str
        where b.shop_id = ${q.p(shop)} and b.id <> ${q.p(me.id)} and (${candidate()})),
     cand_bike as (
       select * from bike_score order by ${w.engineFamily} * e + ${w.displacement} * d desc, created_at desc, id limit ${q.p(SIMILAR_CANDIDATE_BIKES)}),
-    cand as materialized (
-      select bi.stage_id, cb.e, cb.d, cb.cc_rel, cb.same_family, cb.same_cylinders, bi.parts_text,
-             ${sharedCount()} as n_shared, cardinality(bi.categories) + ${q.p(myCats.size)} as sizes
-        from cand_bike cb join build_index bi on bi.bike_id = cb.id and bi.gain_peak_power_hp is not null),
-    jaccard as (
-      -- Both category lists are sets, so |A ∪ B| = |A| + |B| − |A ∩ B|.
-      select cand.*, coalesce(n_shared::float8 / nullif(sizes - n_shared, 0), 0) as c from cand),
-    partial as materialized (
-      select jaccard.*, (${w.engineFamily} * e + ${w.displacement} * d + ${w.partCategories} * c)::float8 as part_score from jaccard),
-    cut as (
-      select part_score - ${w.partsText} - 1e-9 as floor from partial order by part_score desc offset ${q.p(limit - 1)} limit 1),
-    kept as (
-      select * from partial where part_score >= coalesce((select floor from cut), '-infinity'::float8)),
-    -- Builds often share a parts list word for word: one similarity per distinct text.
-    text_sim as materialized (
-      select k.parts_text, case when k.parts_text = '' or mine.txt = '' then 0 else similarity(k.parts_text, mine.txt) end::float8 as t
-        from (select distinct parts_text from kept) k, mine),
+    cand as (
+      select bi.stage_id, cb.e, cb.d, cb.cc_rel, cb.same_family, cb.same_cylinders,
+             ${sharedCount()} as n_shared, cardinality(bi.categories) + ${q.p(myCats.size)} as sizes,
+             icount(bi.parts_trgm & mine.trgm) as t_shared, icount(bi.parts_trgm) + icount(mine.trgm) as t_sizes
+        from cand_bike cb join build_index bi on bi.bike_id = cb.id and bi.gain_peak_power_hp is not null cross join mine),
     scored as (
-      select kept.*, text_sim.t from kept join text_sim on text_sim.parts_text = kept.parts_text),
+      -- Both category lists and both trigram lists are sets, so |A ∪ B| = |A| + |B| − |A ∩ B|.
+      select cand.*, coalesce(n_shared::float8 / nullif(sizes - n_shared, 0), 0) as c, coalesce(t_shared::float8 / nullif(t_sizes - t_shared, 0), 0) as t from cand),
     top as (
-      select scored.*, (part_score + ${w.partsText} * t)::float8 as similarity from scored
+      select scored.*, (${w.engineFamily} * e + ${w.displacement} * d + ${w.partCategories} * c + ${w.partsText} * t)::float8 as similarity from scored
        order by similarity desc, stage_id desc limit ${q.p(limit)})
     select ${BUILD_INDEX_COLUMNS}, c.name as customer_name, top.e, top.d, top.c, top.t, top.similarity, bi.categories, top.same_family, top.same_cylinders, top.cc_rel
       from top join build_index bi on bi.stage_id = top.stage_id join customer c on c.id = bi.customer_id
