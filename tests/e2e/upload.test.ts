@@ -119,6 +119,9 @@ describe('uploading a dyno session', () => {
     const created = (await (await h.t.signIn(shop.users.tuner)).get('/api/sessions').query({ bikeId: shop.bike.id })).body[0];
     expect(created.ambientTempC).toBeCloseTo(AIR.temperatureC, 6);
     expect(created.baroKpa).toBeCloseTo(AIR.baroKpa, 6);
+    // Shown back in the shop's units, as typed.
+    await visible(page, `${TYPED.temperatureF.toFixed(1)} °F`);
+    await visible(page, `${TYPED.baroInHg.toFixed(2)} inHg`);
 
     // The run files stay locked until every check is ticked and confirmed.
     const input = page.locator('input[type=file]');

@@ -6,6 +6,7 @@ import { runColor } from '@/lib/chart-theme';
 import { formatNumber, formatRpm, formatRpmRange } from '@shared/format';
 import { type ChartHandle, DifferenceChart, OverlayChart, chartPng, chartSvg } from './comparison-charts';
 import { curvesCsv, displayUnits, download, fileSlug } from '../lib/display';
+import { formatAirTemperature, formatBarometric } from '@/lib/air-conditions';
 
 const signed = (v: number, d = 1) => formatNumber(v, { decimals: d, signed: true });
 
@@ -221,6 +222,8 @@ function ResultCard({ result: r, name, colour, baselineName, units }: { result: 
 }
 
 function RunsTable({ preview, units }: { preview: ComparisonPreview; units: ReturnType<typeof displayUnits> }) {
+  // Air conditions follow the comparison's units: hp and lb·ft with °F and inHg, kW and N·m with °C and kPa.
+  const airUnits = preview.options.units === 'kw-nm' ? 'metric' : 'imperial';
   return (
     <Card title="Runs in this comparison" flush>
       <div className="overflow-x-auto">
@@ -257,7 +260,7 @@ function RunsTable({ preview, units }: { preview: ComparisonPreview; units: Retu
                   {r.correction.source === 'fallback' && <span className="block text-xs text-warn">stored factor kept (conditions missing)</span>}
                 </td>
                 <td className="px-3 py-2">
-                  {r.conditions.temperatureC === null ? '—' : `${formatNumber(r.conditions.temperatureC, { decimals: 1 })} °C`} · {r.conditions.baroKpa === null ? '—' : `${formatNumber(r.conditions.baroKpa, { decimals: 1 })} kPa`}
+                  {formatAirTemperature(r.conditions.temperatureC, airUnits, '—')} · {formatBarometric(r.conditions.baroKpa, airUnits, '—')}
                 </td>
                 <td className="px-3 py-2">{r.dynoName ?? '—'}</td>
               </tr>

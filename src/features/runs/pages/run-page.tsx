@@ -9,7 +9,9 @@ import { formatDateTime, formatFileSize, formatNumber, formatRpmRange, MISSING }
 import { useCurrentUser } from '@/lib/auth';
 import { ApiError } from '@/lib/api-client';
 import { paths } from '@/config/paths';
+import { formatAirTemperature, formatBarometric } from '@/lib/air-conditions';
 import { runQueries } from '../api/run-queries';
+import { useShopUnits } from '../api/shop-queries';
 import { useDeleteRun } from '../api/delete-run';
 import { useRestoreRun } from '../api/restore-run';
 import { displayCurve, mixtureChannels, POWER_LABEL, TORQUE_LABEL, type MixtureChoice, type PowerChoice, type TorqueChoice } from '../lib/display-curve';
@@ -140,9 +142,10 @@ function CurveCard({ run }: { run: RunDetailDto }) {
 
 function Facts({ run }: { run: RunDetailDto }) {
   const c = run.conditions ?? {};
+  const units = useShopUnits();
   const rows: [string, string][] = [
-    ['Air temperature', typeof c.temperatureC === 'number' ? `${formatNumber(c.temperatureC, { decimals: 1 })} °C` : 'not recorded'],
-    ['Barometric pressure', typeof c.baroKpa === 'number' ? `${formatNumber(c.baroKpa, { decimals: 1 })} kPa` : 'not recorded'],
+    ['Air temperature', formatAirTemperature(typeof c.temperatureC === 'number' ? c.temperatureC : null, units)],
+    ['Barometric pressure', formatBarometric(typeof c.baroKpa === 'number' ? c.baroKpa : null, units)],
     ['Relative humidity', typeof c.humidityPct === 'number' ? `${formatNumber(c.humidityPct)} %` : 'not recorded'],
     ['Dyno', run.dynoName ?? MISSING],
     ['Uploaded', `${formatDateTime(run.createdAt)}${run.uploadedByName ? ` by ${run.uploadedByName}` : ''}`],

@@ -7,8 +7,10 @@ import { Button, Card, DataTable, ErrorState, Icon, LoadingState, PageHeader, St
 import { formatDateTime, formatNumber } from '@shared/format';
 import { useCurrentUser } from '@/lib/auth';
 import { paths } from '@/config/paths';
+import { formatAirTemperature, formatBarometric } from '@/lib/air-conditions';
 import { bikeLabel, lookupQueries, runQueries } from '../api/run-queries';
 import { sessionQueries } from '../api/session-queries';
+import { useShopUnits } from '../api/shop-queries';
 import { stageQueries } from '../api/stage-queries';
 import { useSetReferenceRun } from '../api/set-reference-run';
 import { RunStatusBadge } from '../components/run-status';
@@ -48,12 +50,13 @@ function ReferenceCell({ run, stages, canEdit }: { run: RunSummaryDto; stages: S
 }
 
 function Summary({ s }: { s: SessionDto }) {
+  const units = useShopUnits();
   const std = CORRECTION_OPTIONS.find((o) => o.value === s.correctionStandard)?.label ?? s.correctionStandard;
   const items: [string, string][] = [
     ['Dyno', s.dynoName ?? 'not recorded'],
     ['Operator', s.operatorName ?? 'not recorded'],
-    ['Air temperature', s.ambientTempC === null ? 'not recorded' : `${formatNumber(s.ambientTempC, { decimals: 1 })} °C`],
-    ['Barometric pressure', s.baroKpa === null ? 'not recorded' : `${formatNumber(s.baroKpa, { decimals: 1 })} kPa`],
+    ['Air temperature', formatAirTemperature(s.ambientTempC, units)],
+    ['Barometric pressure', formatBarometric(s.baroKpa, units)],
     ['Relative humidity', s.humidityPct === null ? 'not recorded' : `${formatNumber(s.humidityPct)} %`],
     ['Correction', std],
   ];

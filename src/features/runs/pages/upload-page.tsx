@@ -5,10 +5,11 @@ import type { SessionDto } from '@shared/schemas/run';
 import { Button, Card, DropZone, ErrorState, Icon, LoadingState, PageHeader, SelectField, useToast } from '@/components/ui';
 import { formatCount, formatDateTime, formatNumber } from '@shared/format';
 import { paths } from '@/config/paths';
+import { formatAirTemperature, formatBarometric } from '@/lib/air-conditions';
 import { bikeLabel, lookupQueries } from '../api/run-queries';
 import { sessionQueries } from '../api/session-queries';
 import { stageQueries } from '../api/stage-queries';
-import { shopQueries } from '../api/shop-queries';
+import { shopQueries, useShopUnits } from '../api/shop-queries';
 import { useUploadRuns } from '../api/upload-runs';
 import { BikePicker } from '../components/bike-picker';
 import { SessionForm } from '../components/session-form';
@@ -30,16 +31,17 @@ export function todaysSessions(list: SessionDto[], now = new Date()): SessionDto
 }
 
 function Conditions({ s }: { s: SessionDto }) {
+  const units = useShopUnits();
   const std = CORRECTION_OPTIONS.find((o) => o.value === s.correctionStandard)?.label ?? s.correctionStandard;
   return (
     <dl className="num grid grid-cols-2 gap-x-6 gap-y-1 text-sm md:grid-cols-4">
       <div>
         <dt className="text-ink-muted">Air temperature</dt>
-        <dd className="font-medium">{s.ambientTempC === null ? 'not recorded' : `${formatNumber(s.ambientTempC, { decimals: 1 })} °C`}</dd>
+        <dd className="font-medium">{formatAirTemperature(s.ambientTempC, units)}</dd>
       </div>
       <div>
         <dt className="text-ink-muted">Barometric pressure</dt>
-        <dd className="font-medium">{s.baroKpa === null ? 'not recorded' : `${formatNumber(s.baroKpa, { decimals: 1 })} kPa`}</dd>
+        <dd className="font-medium">{formatBarometric(s.baroKpa, units)}</dd>
       </div>
       <div>
         <dt className="text-ink-muted">Humidity</dt>
