@@ -547,6 +547,36 @@ describe('run colours', () => {
     expect(two.get(runs[2].id)).toBe(three.get(runs[2].id));
     expect(new Set(three.values()).size).toBe(3);
   });
+
+  it('a saved comparison keeps its colours when runs are added to an earlier stage', async () => {
+    const em = t.deps.orm.em.fork();
+    const f = new ComparisonFixtures(em, a.shop);
+    const tuner = await t.signIn(a.users.tuner);
+    const bike = em.create(Bike, { shop: a.shop.id, customer: a.customer.id, make: 'Testmake', model: 'Saved colours', cylinders: 2 } as never) as Bike;
+    const session = f.session(bike, { dyno: f.dyno() });
+    const [s0, s1, s2] = [0, 1, 2].map((i) => f.stage(bike, i === 0 ? 'Baseline' : `Stage ${i}`, i));
+    const base = f.run(bike, { curve: curveFromPower((r) => 20 + 0.01 * r), stage: s0, session });
+    const after = f.run(bike, { curve: curveFromPower((r) => 23 + 0.01 * r), stage: s2, session });
+    await em.flush();
+    const body = { runIds: [base.id, after.id], baselineRunId: base.id, options: {} };
+    const saved = await tuner.post('/api/comparisons').send({ ...body, name: 'Before and after' });
+    expect(saved.status).toBe(201);
+    const colours = async () => {
+      const res = await tuner.get(`/api/comparisons/${saved.body.id}`);
+      expect(res.status).toBe(200);
+      return res.body.preview.runs.map((r: { colorIndex: number }) => r.colorIndex);
+    };
+    const before = await colours();
+    expect(before).toEqual([0, 1]); // archive order: Baseline run 0, Stage 2 run 1
+
+    // Two more pulls on Stage 1 move the Stage 2 run to archive place 3.
+    f.run(bike, { curve: curveFromPower((r) => 21 + 0.01 * r), stage: s1, session });
+    f.run(bike, { curve: curveFromPower((r) => 21.5 + 0.01 * r), stage: s1, session });
+    await em.flush();
+    const fresh = await tuner.post('/api/comparisons/preview').send(body);
+    expect(fresh.body.runs.map((r: { colorIndex: number }) => r.colorIndex)).toEqual([0, 3]);
+    expect(await colours()).toEqual(before);
+  });
 });
 
 describe('builder candidates', () => {

@@ -16,6 +16,11 @@ export class Comparison {
   runIds!: string[];
   options!: Record<string, unknown>;
   note: string | null = null;
+  /**
+   * Each run's colour slot when the comparison was saved (run-colors.ts), so its chart keeps its
+   * colours when runs are later added to the bike's archive. Null for comparisons saved before.
+   */
+  colorSlots: Record<string, number> | null = null;
   createdBy: User | null = null;
   createdAt: Date = new Date();
 }
@@ -33,6 +38,7 @@ export const ComparisonSchema = new EntitySchema<Comparison>({
     runIds: { type: 'json' },
     options: { type: 'json' },
     note: { type: 'text', nullable: true },
+    colorSlots: { type: 'json', nullable: true },
     createdBy: { kind: 'm:1', entity: () => User, nullable: true, deleteRule: 'set null' },
     createdAt: { type: 'datetime', columnType: 'timestamptz' },
   },

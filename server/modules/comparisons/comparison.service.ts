@@ -55,6 +55,8 @@ export interface EvaluateInput {
   runIds: string[];
   baselineRunId: string;
   options?: ComparisonOptions;
+  /** Colour slots to keep (a saved comparison's); runs without one get theirs from the archive. */
+  colorSlots?: Record<string, number> | null;
 }
 
 const DEFAULT_BAND_WIDTH = 1000;
@@ -540,7 +542,8 @@ export async function evaluateComparison(em: EntityManager, actor: Actor, input:
   if (!spreads.size) summary.push('No stage in this comparison has two or more runs, so run-to-run spread is unknown; treat small differences with care.');
   if (warnings.some((w) => w.code !== 'SEVERAL_BIKES' && w.code !== 'DYNO_UNKNOWN')) summary.push('Read these figures with the warnings below in mind.');
 
-  const colors = colorSlotsOf(rows, all);
+  const kept = input.colorSlots ?? {};
+  const colors = data.runIds.every((id) => Number.isInteger(kept[id])) ? new Map(Object.entries(kept)) : colorSlotsOf(rows, all);
   for (const p of all) p.summary.colorIndex = colors.get(p.run.id) ?? 0;
 
   return {
@@ -586,7 +589,7 @@ function toDto(c: Comparison): ComparisonDto {
 
 /** Saves a comparison (after computing it once, so a saved comparison is always computable). */
 export async function createComparison(em: EntityManager, actor: Actor, input: ComparisonInput): Promise<ComparisonDto> {
-  await evaluateComparison(em, actor, input);
+  const preview = await evaluateComparison(em, actor, input);
   const baseline = await em.findOneOrFail(Run, { id: input.baselineRunId, shop: actor.shopId }, { populate: ['bike'] });
   const c = em.create(Comparison, {
     shop: em.getReference(Shop, actor.shopId),
@@ -596,6 +599,7 @@ export async function createComparison(em: EntityManager, actor: Actor, input: C
     runIds: input.runIds,
     options: input.options as Record<string, unknown>,
     note: input.note ?? null,
+    colorSlots: Object.fromEntries(preview.runs.map((r) => [r.runId, r.colorIndex])),
     createdBy: em.getReference(User, actor.id),
   } as Comparison);
   await em.flush();
@@ -615,7 +619,7 @@ export async function getComparison(em: EntityManager, actor: Actor, id: string)
   const c = await findComparison(em, actor, id);
   const comparison = toDto(c);
   try {
-    const preview = await evaluateComparison(em, actor, { runIds: c.runIds, baselineRunId: c.baselineRun.id, options: c.options as ComparisonOptions });
+    const preview = await evaluateComparison(em, actor, { runIds: c.runIds, baselineRunId: c.baselineRun.id, options: c.options as ComparisonOptions, colorSlots: c.colorSlots });
     return { comparison, preview, previewError: null };
   } catch (e) {
     if (e instanceof AppError && e.status < 500) {

@@ -130,7 +130,9 @@ export async function buildReportData(
   const shop = await em.findOneOrFail(Shop, actor.shopId);
   // The figures are the comparison's; only the sentences follow the shop's units.
   const options = { ...(detail.comparison.options as ComparisonOptions), units: shop.units === 'metric' ? 'kw-nm' : 'hp-lbft' } as ComparisonOptions;
-  const preview = await evaluateComparison(em, actor, { runIds: detail.comparison.runIds, baselineRunId: detail.comparison.baselineRunId, options });
+  // The saved comparison's colours (each run keeps the colour it has on screen).
+  const colorSlots = Object.fromEntries(detail.preview.runs.map((r) => [r.runId, r.colorIndex]));
+  const preview = await evaluateComparison(em, actor, { runIds: detail.comparison.runIds, baselineRunId: detail.comparison.baselineRunId, options, colorSlots });
   const bike = await em.findOneOrFail(Bike, { id: detail.comparison.bikeId, shop: actor.shopId }, { populate: ['customer'] });
   const dynoIds = [...new Set(preview.runs.map((r) => r.dynoId).filter((d): d is string => !!d))];
   const dynos = dynoIds.length ? await em.find(Dyno, { id: { $in: dynoIds }, shop: actor.shopId }) : [];
