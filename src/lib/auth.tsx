@@ -1,6 +1,6 @@
 import { createContext, useContext, type ReactNode } from 'react';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { Role } from '@shared/roles';
+import { ROLE_LABELS, STAFF, type Role } from '@shared/roles';
 import type { SignedInUser } from '@shared/schemas/auth';
 import { api, ApiError } from './api-client';
 
@@ -78,13 +78,25 @@ export function hasRole(user: CurrentUser | null, roles: readonly Role[]) {
  * Renders its children only for the given roles; others get a plain "not for your role" page
  * instead of a screen whose requests would all answer 403. Wrap a route's element with it.
  */
+/** Who a page is for, in words: "shop staff", "the shop owner", "owners and tuners". */
+export function audienceOf(roles: readonly Role[]): string {
+  if (STAFF.every((r) => roles.includes(r)) && !roles.includes('customer')) return 'shop staff';
+  if (roles.length === 1 && roles[0] === 'owner') return 'the shop owner';
+  const plural: Record<Role, string> = { owner: 'owners', tuner: 'tuners', desk: 'front-desk staff', customer: 'customers' };
+  const names = roles.map((r) => plural[r]);
+  return names.length <= 1 ? (names[0] ?? 'nobody') : `${names.slice(0, -1).join(', ')} and ${names[names.length - 1]}`;
+}
+
 export function RequireRole({ roles, children }: { roles: readonly Role[]; children: ReactNode }) {
   const { user } = useAuth();
   if (!hasRole(user, roles)) {
     return (
       <div role="alert" className="mx-auto max-w-xl rounded-card border border-line bg-paper-raised p-6 text-ink">
         <h1 className="text-xl font-semibold">Not available for your role</h1>
-        <p className="mt-2 text-ink-muted">This page is for shop staff. Use the navigation above to get back to your own pages.</p>
+        <p className="mt-2 text-ink-muted">
+          This page is for {audienceOf(roles)}
+          {user ? `; you are signed in as ${ROLE_LABELS[user.role].toLowerCase()}` : ''}. Use the navigation above to get back to your own pages.
+        </p>
       </div>
     );
   }
