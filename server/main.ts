@@ -7,9 +7,11 @@ import { createSmtpMailer } from './lib/mail/mailer';
 import { createOutbox } from './lib/mail/outbox';
 import { createApp } from './app';
 import { runStartupTasks } from './startup';
+import { useNamedStatements } from './db/prepared-query';
 
 /** Connect to the database, object storage and mail relay named by the config. */
 export async function buildDeps(config: AppConfig, opts: { poolMax?: number } = {}): Promise<AppDeps> {
+  useNamedStatements(config.DATABASE_NAMED_STATEMENTS);
   const orm = await initOrm(config.DATABASE_URL, opts);
   const storage = createS3ObjectStore({
     endpoint: config.S3_ENDPOINT,

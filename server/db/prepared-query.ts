@@ -1,6 +1,8 @@
 import { createHash } from 'node:crypto';
 import type { EntityManager } from '@mikro-orm/postgresql';
 
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
 /** A SQL text with `$1…$n` placeholders, named for PostgreSQL's per-connection statement cache. */
 export interface PreparedStatement {
   name: string;
@@ -18,22 +20,43 @@ export function preparedStatement(textWithQuestionMarks: string): PreparedStatem
   return { name: `pb_${createHash('sha1').update(text).digest('hex').slice(0, 24)}`, text };
 }
 
+let namedStatements = true;
+
+/**
+ * Turns statement names on or off for the whole process (DATABASE_NAMED_STATEMENTS). Off is for
+ * a connection pooler in transaction mode that cannot keep prepared statements (e.g. PgBouncer
+ * without max_prepared_statements): the same texts are then sent unnamed.
+ */
+export function useNamedStatements(enabled: boolean) {
+  namedStatements = enabled;
+}
+
+/** The pg query config for a statement: named unless names are turned off. */
+export function asQuery(statement: PreparedStatement, values: unknown[]): { name?: string; text: string; values: unknown[] } {
+  return namedStatements ? { name: statement.name, text: statement.text, values } : { text: statement.text, values };
+}
+
 interface PgConnection {
-  query(q: { name: string; text: string; values: unknown[] }): Promise<{ rows: unknown[] }>;
+  query(q: { name?: string; text: string; values: unknown[] }): Promise<{ rows: unknown[] }>;
 }
 
 /**
  * Runs a named statement on one of the ORM's pooled connections: PostgreSQL parses and plans
  * it once per connection instead of on every request. Inside a transaction the transaction's
- * own connection is used, unnamed, so the caller's uncommitted rows are seen.
+ * own connection is used, unnamed, so the caller's uncommitted rows are seen — pass the
+ * transaction's EntityManager (`tx` in `em.transactional(tx => …)`), not the request's, or the
+ * read takes a second pooled connection and cannot see the transaction's rows.
  */
 export async function preparedQuery<T>(em: EntityManager, statement: PreparedStatement, values: unknown[]): Promise<T[]> {
   if (em.isInTransaction()) {
     const bindings: unknown[] = [];
     const text = statement.text.replace(/\$(\d+)/g, (_m, n: string) => {
       const v = values[Number(n) - 1];
-      // knex would spread an array into a list; PostgreSQL reads this literal (fine for uuids,
-      // numbers and booleans, the only arrays passed here).
+      // knex would spread an array into a list; PostgreSQL reads this literal, which needs no
+      // quoting for uuids and numbers (the only arrays passed here; anything else is refused).
+      if (Array.isArray(v) && !v.every((x) => typeof x === 'number' || (typeof x === 'string' && UUID.test(x)))) {
+        throw new Error('preparedQuery: inside a transaction only arrays of uuids or numbers can be bound');
+      }
       bindings.push(Array.isArray(v) ? `{${v.join(',')}}` : v);
       return '?';
     });
@@ -42,7 +65,7 @@ export async function preparedQuery<T>(em: EntityManager, statement: PreparedSta
   const client = em.getKnex().client;
   const connection = (await client.acquireConnection()) as PgConnection;
   try {
-    return (await connection.query({ ...statement, values })).rows as T[];
+    return (await connection.query(asQuery(statement, values))).rows as T[];
   } finally {
     await client.releaseConnection(connection);
   }

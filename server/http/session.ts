@@ -9,8 +9,11 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import type { AppDeps } from '../app-deps';
 import { verifyCredentials } from '../modules/auth/auth.service';
 import type { Actor } from './actor';
+import { asQuery } from '../db/prepared-query';
 
 export const SESSION_COOKIE = 'pullbook.sid';
+/** Session rows (Migration20261201220500). */
+const SESSION_TABLE = 'http_session';
 
 interface ActorRow {
   id: string;
@@ -39,8 +42,8 @@ const sessionLoad = new AsyncLocalStorage<SessionLoad>();
 const SESSION_WITH_USER = {
   name: 'pullbook-session-with-user',
   text: `select s.sess, u.id, u.shop_id, u.role, u.email, u.name, u.customer_id
-           from http_session s
-           left join app_user u on u.id = (case when s.sess->'passport'->>'user' ~ '^[0-9a-f-]{36}$' then (s.sess->'passport'->>'user')::uuid end)
+           from ${SESSION_TABLE} s
+           left join app_user u on u.id = (case when s.sess->'passport'->>'user' ~* '^[0-9a-f-]{36}$' then (s.sess->'passport'->>'user')::uuid end)
                                 and not u.disabled
           where s.sid = $1 and s.expire >= now()`,
 };
@@ -53,10 +56,14 @@ const ACTIVE_USER = { name: 'pullbook-active-user', text: 'select id, shop_id, r
  */
 export function installSessions(app: express.Express, deps: AppDeps) {
   const PgStore = connectPgSimple(session);
-  /** connect-pg-simple's store, with a read that also loads the session's user. */
+  /**
+   * connect-pg-simple's store, with a read that also loads the session's user. Its other methods
+   * are the library's; express-session calls touch() on every answered request, which (though
+   * touching itself is off) starts the library's timer that prunes expired sessions.
+   */
   class SessionStore extends PgStore {
     override get(sid: string, fn: (err: unknown, sess?: session.SessionData | null) => void) {
-      pool.query<{ sess: session.SessionData & { passport?: { user?: string } } } & Partial<ActorRow>>({ ...SESSION_WITH_USER, values: [sid] }).then(
+      pool.query<{ sess: session.SessionData & { passport?: { user?: string } } } & Partial<ActorRow>>(asQuery(SESSION_WITH_USER, [sid])).then(
         ({ rows: [row] }) => {
           if (!row) return fn(null, null);
           const load = sessionLoad.getStore();
@@ -81,7 +88,7 @@ export function installSessions(app: express.Express, deps: AppDeps) {
       name: SESSION_COOKIE,
       // No touch on every request: a session lasts 12 h from sign-in (a working day), and reads
       // stay reads — one write per request would dominate the cost of light API calls.
-      store: new SessionStore({ pool, tableName: 'http_session', createTableIfMissing: false, pruneSessionInterval: 15 * 60, disableTouch: true }),
+      store: new SessionStore({ pool, tableName: SESSION_TABLE, createTableIfMissing: false, pruneSessionInterval: 15 * 60, disableTouch: true }),
       secret: deps.config.SESSION_SECRET,
       resave: false,
       saveUninitialized: false,
@@ -104,7 +111,7 @@ export function installSessions(app: express.Express, deps: AppDeps) {
   passport.deserializeUser((id: string, done: (err: unknown, user?: Actor | false) => void) => {
     const load = sessionLoad.getStore();
     if (load?.userId === id && load.actor !== undefined) return done(null, load.actor ?? false);
-    pool.query<ActorRow>({ ...ACTIVE_USER, values: [id] }).then(
+    pool.query<ActorRow>(asQuery(ACTIVE_USER, [id])).then(
       ({ rows: [row] }) => done(null, row ? toActorFromRow(row) : false),
       (err) => done(err),
     );

@@ -1,4 +1,5 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
+import pg from 'pg';
 import { createTestApp, TEST_PASSWORD, type TestApp, type TestShop } from '../support/test-app';
 import { latestMailTo, linkIn } from '../support/mail';
 
@@ -51,6 +52,20 @@ describe('sign-in', () => {
     await t.signIn(a.users.tuner);
     const rows = (await t.deps.orm.em.fork().getConnection().execute(`select count(*)::int as n from http_session`)) as { n: number }[];
     expect(rows[0].n).toBeGreaterThan(0);
+  });
+
+  it('reads the session and its signed-in user with one statement per request', async () => {
+    const tuner = await t.signIn(a.users.tuner);
+    // The session store's pool is a pg.Pool; the ORM's connections are not.
+    const spy = vi.spyOn(pg.Pool.prototype, 'query');
+    try {
+      const me = await tuner.get('/api/auth/me');
+      expect(me.status).toBe(200);
+      expect(me.body.id).toBe(a.users.tuner.id);
+      expect(spy.mock.calls.map((c) => (c[0] as { name?: string }).name ?? String(c[0]))).toEqual(['pullbook-session-with-user']);
+    } finally {
+      spy.mockRestore();
+    }
   });
 
   it('refuses a disabled user', async () => {
