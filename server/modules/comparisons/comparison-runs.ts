@@ -10,7 +10,7 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import type { Actor } from '../../http/actor';
 import type { StoredCurve } from '../runs/run.entity';
-import { preparedQuery as query } from '../../db/prepared-query';
+import { preparedQuery as query, type PreparedStatement } from '../../db/prepared-query';
 
 /** Runs of one stage considered for its run-to-run spread (newest first). */
 export const MAX_STAGE_RUNS = 12;
@@ -66,12 +66,21 @@ const NO_CUSTOMER = '00000000-0000-0000-0000-000000000000';
 const toDate = (v: string | Date) => (v instanceof Date ? v : new Date(v));
 const jsonOf = <T>(v: unknown): T => (typeof v === 'string' ? (JSON.parse(v) as T) : (v as T));
 
-// Every run of the shop ($1) not deleted, optionally only a customer's bikes ($2, null for
-// staff), that is one of $3, of the same bike as one of $3 (when $5) or a ready run of one of
-// the stages $4 (or of the stages of $3, when $5).
-const RUN_ROWS = {
-  name: 'pullbook-comparison-run-rows',
-  text: `with wanted as (select x.bike_id, x.stage_id from run x where x.shop_id = $1 and x.deleted_at is null and x.id = any($3::uuid[]))
+/**
+ * Every run of the shop ($1) not deleted — for customers only their bikes' ($4) — that is one of
+ * $2, or a ready run of one of the stages $3; `wide` adds every run of the bikes of $2 and the
+ * ready runs of the stages of $2. One fixed text per variant, so each variant keeps a plan of its
+ * own (a generic plan of one text for all four could not drop the conditions a variant lacks).
+ */
+function runRowsStatement(variant: { customer: boolean; wide: boolean }): PreparedStatement {
+  const { customer, wide } = variant;
+  const which = ['r.id = any($2::uuid[])', `(r.status = 'ready' and r.stage_id = any($3::uuid[]))`];
+  if (wide) {
+    which.push('r.bike_id in (select w.bike_id from wanted w)', `(r.status = 'ready' and r.stage_id in (select w.stage_id from wanted w))`);
+  }
+  return {
+    name: `pullbook-comparison-runs-${customer ? 'customer' : 'staff'}-${wide ? 'wide' : 'narrow'}`,
+    text: `${wide ? 'with wanted as (select x.bike_id, x.stage_id from run x where x.shop_id = $1 and x.deleted_at is null and x.id = any($2::uuid[]))' : ''}
     select r.id, r.updated_at::text as version, r.label, r.sequence, r.status, r.curve is not null as has_curve,
            r.correction_standard, r.correction_factor, r.conditions, r.identity_status, r.created_at, r.stage_id,
            b.id as bike_id, b.make as bike_make, b.model as bike_model, b.year as bike_year,
@@ -83,13 +92,17 @@ const RUN_ROWS = {
       left join stage st on st.id = r.stage_id
       left join dyno_session ds on ds.id = r.session_id
       left join dyno d on d.id = ds.dyno_id
-     where r.shop_id = $1 and r.deleted_at is null and ($2::uuid is null or b.customer_id = $2::uuid)
-       and (r.id = any($3::uuid[])
-            or ($5 and r.bike_id in (select w.bike_id from wanted w))
-            or (r.status = 'ready' and (r.stage_id = any($4::uuid[]) or ($5 and r.stage_id in (select w.stage_id from wanted w)))))
+     where r.shop_id = $1 and r.deleted_at is null${customer ? ' and b.customer_id = $4::uuid' : ''}
+       and (${which.join(' or ')})
      order by r.created_at desc, r.id`,
+  };
+}
+const RUN_ROWS = {
+  staff: { narrow: runRowsStatement({ customer: false, wide: false }), wide: runRowsStatement({ customer: false, wide: true }) },
+  customer: { narrow: runRowsStatement({ customer: true, wide: false }), wide: runRowsStatement({ customer: true, wide: true }) },
 };
-const CURVES = { name: 'pullbook-comparison-curves', text: 'select id, updated_at::text as version, curve from run where id = any($1::uuid[])' };
+// Scoped to the shop as well, though the ids come from the scoped rows query.
+const CURVES = { name: 'pullbook-comparison-curves', text: 'select id, updated_at::text as version, curve from run where shop_id = $1 and id = any($2::uuid[])' };
 
 function deepFreeze(value: object) {
   for (const v of Object.values(value)) if (v && typeof v === 'object' && !Object.isFrozen(v)) deepFreeze(v as object);
@@ -154,8 +167,12 @@ function toRunRow(r: RunRecord, curve: StoredCurve | null): RunRow {
  * ready runs of each stage in `stageIds` and (with `wide`) of the stages of `ids`.
  */
 async function loadRows(em: EntityManager, actor: Actor, ids: string[], stageIds: string[], wide: boolean): Promise<RunRow[]> {
-  const customer = actor.role === 'customer' ? (actor.customerId ?? NO_CUSTOMER) : null;
-  const records = await query<RunRecord>(em, RUN_ROWS, [actor.shopId, customer, ids, stageIds, wide]);
+  const values: unknown[] = [actor.shopId, ids, stageIds];
+  const audience = actor.role === 'customer' ? 'customer' : 'staff';
+  if (audience === 'customer') values.push(actor.customerId ?? NO_CUSTOMER);
+  const records = await query<RunRecord>(em, RUN_ROWS[audience][wide ? 'wide' : 'narrow'], values);
+  // Rows read inside a transaction may never be committed: they neither fill nor use the cache.
+  const cache = em.isInTransaction() ? null : curveCache;
 
   const wanted = new Set(ids);
   const spreadStages = new Set(stageIds);
@@ -174,15 +191,15 @@ async function loadRows(em: EntityManager, actor: Actor, ids: string[], stageIds
     if (!wanted.has(r.id)) continue;
     if (!r.has_curve) curves.set(r.id, null);
     else {
-      const cached = curveCache.get(r.id, r.version);
+      const cached = cache?.get(r.id, r.version);
       if (cached === undefined) missing.push(r.id);
       else curves.set(r.id, cached);
     }
   }
   if (missing.length) {
-    for (const c of await query<{ id: string; version: string; curve: unknown }>(em, CURVES, [missing])) {
+    for (const c of await query<{ id: string; version: string; curve: unknown }>(em, CURVES, [actor.shopId, missing])) {
       const curve = jsonOf<StoredCurve | null>(c.curve);
-      curveCache.set(c.id, c.version, curve);
+      cache?.set(c.id, c.version, curve);
       curves.set(c.id, curve);
     }
   }
