@@ -10,6 +10,7 @@ import { Part, Stage } from '@server/modules/stages/stage.entity';
 import { Run } from '@server/modules/runs/run.entity';
 import { Shop } from '@server/modules/shops/shop.entity';
 import { searchSql } from '@server/modules/builds/build-search.service';
+import { SIMILAR_CANDIDATE_BIKES } from '@server/modules/builds/build-similar.service';
 import { buildSearchQuery } from '@shared/schemas/builds';
 import type { Actor } from '@server/http/actor';
 
@@ -354,6 +355,40 @@ describe('similar builds against a plain reference query', () => {
     }
     // The generated set must give long lists to compare.
     expect(compared).toBeGreaterThan(200);
+  });
+
+  it(`scores only the ${SIMILAR_CANDIDATE_BIKES} most recently added of the bikes tied on engine and size (the documented pre-rank)`, async () => {
+    const shop = await t.createShop('Finder Ties');
+    const em = t.deps.orm.em.fork();
+    const cust = await em.findOneOrFail(Customer, shop.customer.id);
+    const sh = em.getReference(Shop, shop.shop.id);
+    const build = [{ category: 'exhaust' as const, description: 'Two-into-one header' }, { category: 'camshaft' as const, description: 'Bolt-in cam set' }];
+    const mine = await addBike(em, shop.shop.id, cust, { make: 'Corvane', model: 'Mine', family: 'Vantor 103', cc: 1700 }, [{ name: 'Baseline' }, { name: 'Stage 1', peak: 10, parts: build }]);
+    // More tied bikes than the pre-rank keeps, one measured stage each, inserted in one flush. The
+    // oldest few carry this bike's very parts (they would score 1.0); the rest an unrelated part.
+    const extra = 5;
+    const start = Date.UTC(2024, 0, 1);
+    const tied: { bike: Bike; perfect: boolean }[] = [];
+    for (let i = 0; i < SIMILAR_CANDIDATE_BIKES + extra; i++) {
+      const bike = em.create(Bike, { shop: sh, customer: cust, make: 'Corvane', model: `Tie ${i}`, engineFamily: 'Vantor 103', displacementCc: 1700, cylinders: 2, createdAt: new Date(start + i * 60_000) } as Bike);
+      const perfect = i < extra;
+      em.create(Stage, { shop: sh, bike, position: 0, name: 'Baseline', date: null, description: null, totalCostCents: 0 } as unknown as Stage);
+      const stage = em.create(Stage, { shop: sh, bike, position: 1, name: 'Stage 1', date: null, description: null, gainPeakPowerHp: 5, gainAveragePowerHp: 3, gainAreaPct: 2, totalCostCents: 0 } as unknown as Stage);
+      for (const p of perfect ? build : [{ category: 'ignition' as const, description: 'Coil pack' }]) {
+        em.create(Part, { shop: sh, stage, category: p.category, description: p.description, headWorkLevel: null, partCostCents: 0, labourCostCents: 0 } as Part);
+      }
+      tied.push({ bike, perfect });
+    }
+    await em.flush();
+    const owner = await t.signIn(shop.users.owner);
+    const res = await owner.get(`/api/bikes/${mine.bike.id}/similar`).query({ limit: 50 });
+    expect(res.status).toBe(200);
+    const got = new Set((res.body.items as { bikeId: string }[]).map((i) => i.bikeId));
+    expect(got.size).toBe(50);
+    // The oldest (perfect) bikes fall outside the pre-rank; every answer is one of the newest.
+    for (const x of tied.slice(0, extra)) expect(got.has(x.bike.id)).toBe(false);
+    const newest = new Set(tied.slice(extra).map((x) => x.bike.id));
+    expect([...got].every((id) => newest.has(id))).toBe(true);
   });
 
   it('stored trigram sets give pg_trgm similarity() for awkward texts (case, punctuation, "0x", multibyte, empty)', async () => {

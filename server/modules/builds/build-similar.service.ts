@@ -112,8 +112,9 @@ export async function similarBuilds(em: EntityManager, actor: Actor, bikeId: str
     select ${BUILD_INDEX_COLUMNS}, c.name as customer_name, top.e, top.d, top.c, top.t, top.similarity, bi.categories, top.same_family, top.same_cylinders, top.cc_rel
       from top join build_index bi on bi.stage_id = top.stage_id join customer c on c.id = bi.customer_id
      order by top.similarity desc, top.stage_id desc`;
-  // Prepared: the text varies only with which of this bike's fields are known and how many part
-  // categories it has, a few dozen texts at most.
+  // Prepared: the text varies only with which of this bike's fields are known (engine family;
+  // displacement unknown, zero or known; cylinders) and how many part categories it has (0–9):
+  // at most 2 · 3 · 2 · 10 = 120 texts.
   const rows = (await preparedQuery(em, preparedStatement(sql), q.params)) as SimilarRow[];
   return {
     bikeId,
