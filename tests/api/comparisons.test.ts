@@ -203,7 +203,13 @@ describe('fairness warnings', () => {
     r1.conditions = { temperatureC: 24.5, baroKpa: 100 };
     const [r2] = await seedRuns(a.bike, [other], { conditions: { temperatureC: 24, baroKpa: 100 } });
     await fx.flush();
-    expect(codes(await preview({ runIds: [r0.id, r1.id], baselineRunId: r0.id }))).toContain('TEMPERATURE_APART');
+    const apart = await preview({ runIds: [r0.id, r1.id], baselineRunId: r0.id });
+    expect(codes(apart)).toContain('TEMPERATURE_APART');
+    // In both unit systems: 10.5 °C apart = 18.9 °F apart; 14 °C = 57.2 °F, 24.5 °C = 76.1 °F (°F = °C × 1.8 + 32).
+    const message = apart.body.warnings.find((w: { code: string }) => w.code === 'TEMPERATURE_APART').message;
+    expect(message).toContain('10.5 °C / 18.9 °F');
+    expect(message).toContain('14.0 °C / 57.2 °F');
+    expect(message).toContain('24.5 °C / 76.1 °F');
     // 10 °C apart exactly is not "more than 10" (r2 is on another dyno, so look only for the temperature code).
     expect(codes(await preview({ runIds: [r0.id, r2.id], baselineRunId: r0.id }))).not.toContain('TEMPERATURE_APART');
   });
@@ -215,7 +221,9 @@ describe('fairness warnings', () => {
     await fx.flush();
     const res = await preview({ runIds: [r0.id, r1.id], baselineRunId: r0.id });
     expect(codes(res)).toEqual(['PRESSURE_APART']);
-    expect(res.body.warnings[0].message).toMatch(/3\.3 kPa/);
+    // 3.3 kPa = 0.97 inHg; 101.2 kPa = 29.88 inHg (1 inHg = 3.38638 kPa, NIST SP 811).
+    expect(res.body.warnings[0].message).toContain('3.3 kPa / 0.97 inHg');
+    expect(res.body.warnings[0].message).toContain('101.2 kPa / 29.88 inHg');
   });
 
   it('warns about a cross-check mismatch in one run', async () => {

@@ -38,7 +38,7 @@ import { type NormalizedCurve, applyCorrection, peaksOf } from '../../analysis/c
 import { isAnalysisError } from '../../analysis/errors';
 import { gridPoints, interpolateSorted } from '../../analysis/resample';
 import { smoothSavitzkyGolay } from '../../analysis/smoothing';
-import { hpTo, lbftTo } from '../../analysis/units';
+import { cTo, hpTo, kpaTo, lbftTo } from '../../analysis/units';
 import { Run } from '../runs/run.entity';
 import { MAX_STAGE_RUNS, loadPreviewRows, loadRunRows, type RunRow } from './comparison-runs';
 import { Stage, Part } from '../stages/stage.entity';
@@ -55,7 +55,10 @@ export interface EvaluateInput {
   runIds: string[];
   baselineRunId: string;
   options?: ComparisonOptions;
-  /** Colour slots to keep (a saved comparison's); runs without one get theirs from the archive. */
+  /**
+   * Colour slots to keep (a saved comparison's). Used only when every run has one; otherwise
+   * (comparisons saved before slots were kept) all colours come from the archive.
+   */
   colorSlots?: Record<string, number> | null;
 }
 
@@ -183,6 +186,11 @@ function compareOrThrow(base: Prepared, other: Prepared, options: ComparisonOpti
 
 // ---- fairness
 
+// Both unit systems in warnings: they are read on screens and in PDFs of either (°F = °C × 1.8 + 32;
+// 1 inHg = 3.38638 kPa, NIST SP 811).
+const airTemp = (c: number) => `${c.toFixed(1)} °C / ${cTo(c, 'f').toFixed(1)} °F`;
+const baro = (kpa: number) => `${kpa.toFixed(1)} kPa / ${kpaTo(kpa, 'inhg').toFixed(2)} inHg`;
+
 function fairnessWarnings(all: Prepared[], baseline: Prepared): ComparisonWarning[] {
   const out: ComparisonWarning[] = all.flatMap((p) => p.warnings);
   const ids = all.map((p) => p.run.id);
@@ -225,7 +233,7 @@ function fairnessWarnings(all: Prepared[], baseline: Prepared): ComparisonWarnin
   if (t && t.apart > MAX_TEMPERATURE_APART_C) {
     out.push({
       code: 'TEMPERATURE_APART',
-      message: `Air temperature differs by ${t.apart.toFixed(1)} °C (${t.lo.summary.conditions.temperatureC} °C for “${t.lo.summary.name}”, ${t.hi.summary.conditions.temperatureC} °C for “${t.hi.summary.name}”); correction does not fully even out more than ${MAX_TEMPERATURE_APART_C} °C.`,
+      message: `Air temperature differs by ${t.apart.toFixed(1)} °C / ${(t.apart * 1.8).toFixed(1)} °F (${airTemp(t.lo.summary.conditions.temperatureC!)} for “${t.lo.summary.name}”, ${airTemp(t.hi.summary.conditions.temperatureC!)} for “${t.hi.summary.name}”); correction does not fully even out more than ${MAX_TEMPERATURE_APART_C} °C (${MAX_TEMPERATURE_APART_C * 1.8} °F).`,
       runIds: [t.lo.run.id, t.hi.run.id],
     });
   }
@@ -233,7 +241,7 @@ function fairnessWarnings(all: Prepared[], baseline: Prepared): ComparisonWarnin
   if (p && p.apart > MAX_PRESSURE_APART_KPA) {
     out.push({
       code: 'PRESSURE_APART',
-      message: `Barometric pressure differs by ${p.apart.toFixed(1)} kPa (“${p.lo.summary.name}” ${p.lo.summary.conditions.baroKpa} kPa, “${p.hi.summary.name}” ${p.hi.summary.conditions.baroKpa} kPa); more than ${MAX_PRESSURE_APART_KPA} kPa apart.`,
+      message: `Barometric pressure differs by ${p.apart.toFixed(1)} kPa / ${kpaTo(p.apart, 'inhg').toFixed(2)} inHg (“${p.lo.summary.name}” ${baro(p.lo.summary.conditions.baroKpa!)}, “${p.hi.summary.name}” ${baro(p.hi.summary.conditions.baroKpa!)}); more than ${MAX_PRESSURE_APART_KPA} kPa (${kpaTo(MAX_PRESSURE_APART_KPA, 'inhg').toFixed(2)} inHg) apart.`,
       runIds: [p.lo.run.id, p.hi.run.id],
     });
   }
