@@ -1,6 +1,6 @@
 import { createContext, useContext, type ReactNode } from 'react';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { ROLE_LABELS, STAFF, type Role } from '@shared/roles';
+import { STAFF, type Role } from '@shared/roles';
 import type { SignedInUser } from '@shared/schemas/auth';
 import { api, ApiError } from './api-client';
 
@@ -74,10 +74,6 @@ export function hasRole(user: CurrentUser | null, roles: readonly Role[]) {
   return Boolean(user && roles.includes(user.role));
 }
 
-/**
- * Renders its children only for the given roles; others get a plain "not for your role" page
- * instead of a screen whose requests would all answer 403. Wrap a route's element with it.
- */
 /** Who a page is for, in words: "shop staff", "the shop owner", "owners and tuners". */
 export function audienceOf(roles: readonly Role[]): string {
   if (STAFF.every((r) => roles.includes(r)) && !roles.includes('customer')) return 'shop staff';
@@ -87,6 +83,13 @@ export function audienceOf(roles: readonly Role[]): string {
   return names.length <= 1 ? (names[0] ?? 'nobody') : `${names.slice(0, -1).join(', ')} and ${names[names.length - 1]}`;
 }
 
+/** "you are signed in as …": "an owner", "a tuner", "front-desk staff", "a customer". */
+export const SIGNED_IN_AS: Record<Role, string> = { owner: 'an owner', tuner: 'a tuner', desk: 'front-desk staff', customer: 'a customer' };
+
+/**
+ * Renders its children only for the given roles; others get a plain "not for your role" page
+ * instead of a screen whose requests would all answer 403. Wrap a route's element with it.
+ */
 export function RequireRole({ roles, children }: { roles: readonly Role[]; children: ReactNode }) {
   const { user } = useAuth();
   if (!hasRole(user, roles)) {
@@ -95,7 +98,7 @@ export function RequireRole({ roles, children }: { roles: readonly Role[]; child
         <h1 className="text-xl font-semibold">Not available for your role</h1>
         <p className="mt-2 text-ink-muted">
           This page is for {audienceOf(roles)}
-          {user ? `; you are signed in as ${ROLE_LABELS[user.role].toLowerCase()}` : ''}. Use the navigation above to get back to your own pages.
+          {user ? `; you are signed in as ${SIGNED_IN_AS[user.role]}` : ''}. Use the navigation above to get back to your own pages.
         </p>
       </div>
     );

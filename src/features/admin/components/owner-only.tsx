@@ -1,8 +1,7 @@
 import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
-import { ROLE_LABELS } from '@shared/roles';
 import { EmptyState } from '@/components/ui';
-import { useCurrentUser } from '@/lib/auth';
+import { SIGNED_IN_AS, useCurrentUser } from '@/lib/auth';
 import { paths } from '@/config/paths';
 
 /** Settings pages are the owner's. Others who land here (an old link, a typed address) are told so plainly. */
@@ -13,7 +12,7 @@ export function OwnerOnly({ children }: { children: ReactNode }) {
     <EmptyState
       icon="circle-info"
       title="Not for your role"
-      message={`This page is for the shop owner; you are signed in as ${ROLE_LABELS[user.role].toLowerCase()}. Ask the owner if something here needs changing.`}
+      message={`This page is for the shop owner; you are signed in as ${SIGNED_IN_AS[user.role]}. Ask the owner if something here needs changing.`}
       action={
         <Link to={paths.home} className="text-accent underline">
           Go to the start page

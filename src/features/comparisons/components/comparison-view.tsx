@@ -7,6 +7,7 @@ import { formatNumber, formatRpm, formatRpmRange } from '@shared/format';
 import { type ChartHandle, DifferenceChart, OverlayChart, chartPng, chartSvg } from './comparison-charts';
 import { curvesCsv, displayUnits, download, fileSlug } from '../lib/display';
 import { formatAirTemperature, formatBarometric } from '@/lib/air-conditions';
+import { useShopUnits } from '@/lib/shop-query';
 
 const signed = (v: number, d = 1) => formatNumber(v, { decimals: d, signed: true });
 
@@ -222,8 +223,8 @@ function ResultCard({ result: r, name, colour, baselineName, units }: { result: 
 }
 
 function RunsTable({ preview, units }: { preview: ComparisonPreview; units: ReturnType<typeof displayUnits> }) {
-  // Air conditions follow the comparison's units: hp and lb·ft with °F and inHg, kW and N·m with °C and kPa.
-  const airUnits = preview.options.units === 'kw-nm' ? 'metric' : 'imperial';
+  // Air conditions in the shop's units, as on the run and session pages.
+  const airUnits = useShopUnits();
   return (
     <Card title="Runs in this comparison" flush>
       <div className="overflow-x-auto">

@@ -6,10 +6,10 @@ import { Button, Card, DropZone, ErrorState, Icon, LoadingState, PageHeader, Sel
 import { formatCount, formatDateTime, formatNumber } from '@shared/format';
 import { paths } from '@/config/paths';
 import { formatAirTemperature, formatBarometric } from '@/lib/air-conditions';
+import { shopQuery, useShopUnits } from '@/lib/shop-query';
 import { bikeLabel, lookupQueries } from '../api/run-queries';
 import { sessionQueries } from '../api/session-queries';
 import { stageQueries } from '../api/stage-queries';
-import { shopQueries, useShopUnits } from '../api/shop-queries';
 import { useUploadRuns } from '../api/upload-runs';
 import { BikePicker } from '../components/bike-picker';
 import { SessionForm } from '../components/session-form';
@@ -80,7 +80,7 @@ function UploadScreen() {
   const sessions = useQuery({ ...sessionQueries.list(bikeId), enabled: Boolean(bikeId) });
   const session = useQuery({ ...sessionQueries.detail(sessionId), enabled: Boolean(sessionId) });
   const stages = useQuery({ ...stageQueries.list(bikeId), enabled: Boolean(bikeId) });
-  const shop = useQuery(shopQueries.shop());
+  const shop = useQuery(shopQuery());
 
   const setParam = (next: Record<string, string | null>) => {
     const p = new URLSearchParams(params);
