@@ -36,6 +36,15 @@ async function preview(body: object, role: keyof TestShop['users'] = 'tuner') {
   return agent.post('/api/comparisons/preview').send(body);
 }
 
+/** A new bike of shop A's customer, fixtures on a new EntityManager, and a session on a new dyno. */
+function freshBike(model: string) {
+  const em = t.deps.orm.em.fork();
+  const f = new ComparisonFixtures(em, a.shop);
+  const bike = em.create(Bike, { shop: a.shop.id, customer: a.customer.id, make: 'Testmake', model, cylinders: 2 } as never) as Bike;
+  const dyno = f.dyno();
+  return { em, f, bike, dyno, session: f.session(bike, { dyno }) };
+}
+
 describe('preview figures', () => {
   // Linear power curves: Δhp(r) = 2 + 0.002·r is linear, so the trapezoidal rule integrates it
   // exactly (its error term (b−a)·h²·f''/12 vanishes when f'' = 0). Closed forms over [2000, 6000]:
@@ -449,12 +458,8 @@ describe('saved comparisons', () => {
 
 describe('stage timeline', () => {
   it('gives each stage its gains, costs and cost per hp', async () => {
-    const em = t.deps.orm.em.fork();
-    const f = new ComparisonFixtures(em, a.shop);
     const owner = await t.signIn(a.users.owner);
-    const bike = em.create(Bike, { shop: a.shop.id, customer: a.customer.id, make: 'Testmake', model: 'Timeline', cylinders: 2 } as never) as Bike;
-    const dyno = f.dyno();
-    const session = f.session(bike, { dyno });
+    const { em, f, bike, session } = freshBike('Timeline');
     const s0 = f.stage(bike, 'Stock', 0);
     const s1 = f.stage(bike, 'Pipe + tune', 1, [
       { category: 'exhaust', description: 'Two-into-one pipe', partCostCents: 90_000, labourCostCents: 20_000 },
@@ -504,11 +509,8 @@ describe('stage timeline', () => {
 
 describe('stage timeline, a stage without a reference run (hand-computed)', () => {
   it('charges the stage in between to the next measured gain, as the gain report does', async () => {
-    const em = t.deps.orm.em.fork();
-    const f = new ComparisonFixtures(em, a.shop);
     const owner = await t.signIn(a.users.owner);
-    const bike = em.create(Bike, { shop: a.shop.id, customer: a.customer.id, make: 'Testmake', model: 'Gap', cylinders: 2 } as never) as Bike;
-    const session = f.session(bike, { dyno: f.dyno() });
+    const { em, f, bike, session } = freshBike('Gap');
     const s0 = f.stage(bike, 'Stock', 0);
     // Not measured: no reference run.
     f.stage(bike, 'Pipe + tune', 1, [{ category: 'exhaust', description: 'Two-into-one pipe', partCostCents: 90_000, labourCostCents: 70_000 }]);
@@ -533,11 +535,8 @@ describe('stage timeline, a stage without a reference run (hand-computed)', () =
 
 describe('run colours', () => {
   it('a run keeps its colour slot whether it is compared with one run or with three', async () => {
-    const em = t.deps.orm.em.fork();
-    const f = new ComparisonFixtures(em, a.shop);
     const tuner = await t.signIn(a.users.tuner);
-    const bike = em.create(Bike, { shop: a.shop.id, customer: a.customer.id, make: 'Testmake', model: 'Colours', cylinders: 2 } as never) as Bike;
-    const session = f.session(bike, { dyno: f.dyno() });
+    const { em, f, bike, session } = freshBike('Colours');
     const stages = [0, 1, 2, 3].map((i) => f.stage(bike, i === 0 ? 'Baseline' : `Stage ${i}`, i));
     const runs = stages.map((st, i) => f.run(bike, { curve: curveFromPower((r) => 20 + i + 0.01 * r), stage: st, session }));
     await em.flush();
@@ -557,11 +556,8 @@ describe('run colours', () => {
   });
 
   it('a saved comparison keeps its colours when runs are added to an earlier stage', async () => {
-    const em = t.deps.orm.em.fork();
-    const f = new ComparisonFixtures(em, a.shop);
     const tuner = await t.signIn(a.users.tuner);
-    const bike = em.create(Bike, { shop: a.shop.id, customer: a.customer.id, make: 'Testmake', model: 'Saved colours', cylinders: 2 } as never) as Bike;
-    const session = f.session(bike, { dyno: f.dyno() });
+    const { em, f, bike, session } = freshBike('Saved colours');
     const [s0, s1, s2] = [0, 1, 2].map((i) => f.stage(bike, i === 0 ? 'Baseline' : `Stage ${i}`, i));
     const base = f.run(bike, { curve: curveFromPower((r) => 20 + 0.01 * r), stage: s0, session });
     const after = f.run(bike, { curve: curveFromPower((r) => 23 + 0.01 * r), stage: s2, session });
@@ -589,10 +585,7 @@ describe('run colours', () => {
 
 describe('builder candidates', () => {
   it('suggests the previous stage’s reference run against the latest stage’s', async () => {
-    const em = t.deps.orm.em.fork();
-    const f = new ComparisonFixtures(em, a.shop);
-    const bike = em.create(Bike, { shop: a.shop.id, customer: a.customer.id, make: 'Testmake', model: 'Builder', cylinders: 2 } as never) as Bike;
-    const session = f.session(bike, { dyno: f.dyno() });
+    const { em, f, bike, session } = freshBike('Builder');
     const s0 = f.stage(bike, 'Stock', 0);
     const s1 = f.stage(bike, 'Pipe', 1);
     const s2 = f.stage(bike, 'Cam', 2);
