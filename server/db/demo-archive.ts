@@ -22,6 +22,9 @@ import { Part, Stage } from '../modules/stages/stage.entity';
 import { Run } from '../modules/runs/run.entity';
 import { ingestFiles, type IncomingFile } from '../modules/runs/run-ingest';
 import { refreshBikeOutcomes } from '../modules/builds/build-outcome.service';
+import { createComparison } from '../modules/comparisons/comparison.service';
+import { createReport } from '../modules/reports/report.service';
+import { comparisonInput } from '@shared/schemas/comparison';
 
 const SAMPLE_DIR = fileURLToPath(new URL('../../sample-data', import.meta.url));
 const DAY = 86_400_000;
@@ -191,4 +194,27 @@ async function buildArchive(deps: AppDeps, em: EntityManager, ids: DemoIds) {
   }
 }
 
-extendDemo(buildArchive);
+/**
+ * What the shop leaves behind after the first customer's last visit: two saved comparisons of
+ * that bike (baseline against the whole build, and the last stage on its own) and the gain
+ * report made from the first, so every role has something to open.
+ */
+async function saveComparisonsAndReport(deps: AppDeps, em: EntityManager, ids: DemoIds, actor: Actor) {
+  const bike = ids.bikes[0];
+  if (!bike) return;
+  const stages = await em.find(Stage, { bike: bike.id }, { orderBy: { position: 'asc' } });
+  const measured = stages.filter((s) => s.referenceRun);
+  if (measured.length < 3) return;
+  const [first, beforeLast, last] = [measured[0], measured[measured.length - 2], measured[measured.length - 1]];
+  const save = (name: string, from: Stage, to: Stage, note: string) =>
+    createComparison(em, actor, comparisonInput.parse({ name, runIds: [from.referenceRun!.id, to.referenceRun!.id], baselineRunId: from.referenceRun!.id, options: { correction: 'sae-j1349' }, note }));
+  const whole = await save(`${first.name} against ${last.name}`, first, last, 'The whole build so far, reference pull against reference pull.');
+  await save(`${beforeLast.name} against ${last.name}`, beforeLast, last, 'What the last stage added on its own.');
+  await createReport(deps, em, actor, { comparisonId: whole.id, technicianNote: 'All pulls in third gear on bay 1 with the fan on; figures corrected to SAE J1349.' });
+}
+
+extendDemo(async (deps, em, ids) => {
+  await buildArchive(deps, em, ids);
+  const tuner = await em.findOneOrFail(User, ids.users.tuner);
+  await saveComparisonsAndReport(deps, em, ids, { id: tuner.id, shopId: ids.shopId, role: 'tuner', email: tuner.email, name: tuner.name, customerId: null });
+});

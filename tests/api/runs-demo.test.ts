@@ -5,6 +5,7 @@ import { seedDemoIfEmpty, type DemoIds } from '@server/db/demo-seed';
 import '@server/db/demo-archive';
 import { Run } from '@server/modules/runs/run.entity';
 import { Stage } from '@server/modules/stages/stage.entity';
+import { DEMO_PASSWORD } from '@server/db/demo-seed';
 
 /** The demo archive goes through the real pipeline: raw files in storage, stages with gains. */
 let t: TestApp;
@@ -45,5 +46,22 @@ describe('demo archive', () => {
       const bytes = await t.deps.storage.getBuffer(r.rawKey);
       expect(createHash('sha256').update(bytes).digest('hex')).toBe(r.rawSha256);
     }
+  });
+
+  it('leaves two saved comparisons and a stored gain report the demo customer can open', async () => {
+    const tuner = await t.signIn('tuner@demo.pullbook.test', DEMO_PASSWORD);
+    const comparisons = await tuner.get('/api/comparisons').query({ bikeId: ids.bikes[0].id });
+    expect(comparisons.status).toBe(200);
+    expect(comparisons.body).toHaveLength(2);
+    const customer = await t.signIn('customer@demo.pullbook.test', DEMO_PASSWORD);
+    const reports = await customer.get('/api/reports');
+    expect(reports.status).toBe(200);
+    expect(reports.body).toHaveLength(1);
+    const pdf = await customer.get(`/api/reports/${reports.body[0].id}/pdf`).buffer(true);
+    expect(pdf.status).toBe(200);
+    expect(pdf.body.subarray(0, 5).toString('latin1')).toBe('%PDF-');
+    const detail = await tuner.get(`/api/comparisons/${comparisons.body[0].id}`);
+    expect(detail.body.previewError).toBeNull();
+    expect(detail.body.preview.results[0].peakPowerGain.hp).toBeGreaterThan(0);
   });
 });
