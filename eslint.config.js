@@ -24,11 +24,38 @@ export default tseslint.config(
       'react-refresh/only-export-components': 'off',
     },
   },
+  // Import zones: src/shared is the isomorphic core and imports neither side; the client never
+  // imports the server; the server may import src/shared but nothing else of the client.
   {
-    // Features use shared code, never each other's internals.
+    files: ['src/shared/**/*.{ts,tsx}'],
+    rules: {
+      'no-restricted-imports': ['error', { patterns: [
+        { group: ['@/*', '@server/*', '**/server/**', '**/features/**', '**/app/**', '**/lib/**', '**/components/**', '**/config/**'], message: 'src/shared imports neither the server nor the client (src/features, src/app, src/lib, src/components).' },
+        { group: ['react', 'react-dom', 'react-dom/*', 'echarts', 'echarts/*', 'node:*', 'express', '@mikro-orm/*'], message: 'src/shared is plain TypeScript that runs in the browser and in Node.' },
+      ] }],
+    },
+  },
+  {
+    files: ['src/**/*.{ts,tsx}'],
+    ignores: ['src/shared/**', 'src/features/**'],
+    rules: {
+      'no-restricted-imports': ['error', { patterns: [{ group: ['@server/*', '**/server/**'], message: 'The client never imports server code; share it through src/shared.' }] }],
+    },
+  },
+  {
+    files: ['server/**/*.{ts,tsx}'],
+    rules: {
+      'no-restricted-imports': ['error', { patterns: [{ group: ['@/*', '**/src/features/**', '**/src/app/**', '**/src/lib/**', '**/src/components/**', '**/src/config/**'], message: 'The server imports only src/shared (alias @shared) of the client tree.' }] }],
+    },
+  },
+  {
+    // Features use shared code, never each other's internals, and never the server.
     files: ['src/features/**/*.{ts,tsx}'],
     rules: {
-      'no-restricted-imports': ['error', { patterns: [{ group: ['../../*/**', '@/features/*/components/*', '@/features/*/api/*'], message: 'Import shared code from @/components, @/lib or @shared; features do not import each other.' }] }],
+      'no-restricted-imports': ['error', { patterns: [
+        { group: ['../../*/**', '@/features/*/components/*', '@/features/*/api/*'], message: 'Import shared code from @/components, @/lib or @shared; features do not import each other.' },
+        { group: ['@server/*', '**/server/**'], message: 'The client never imports server code; share it through src/shared.' },
+      ] }],
     },
   },
 );

@@ -11,7 +11,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { parse } from 'csv-parse/sync';
 import { build } from 'esbuild';
-import { analyzeBuffer } from '../server/analysis/analyze.js';
+import { analyzeBuffer } from '@shared/analysis/analyze';
 import { largeRunFileChunks, syntheticRunFile } from '../server/db/synthetic-runs.js';
 import { printTable } from './lib/table.js';
 

@@ -6,10 +6,10 @@
  * `npx tsx bench/report.bench.ts` runs it alone; `npm run bench -- report` through the runner.
  */
 import { fileURLToPath } from 'node:url';
-import { compareCurves, repeatability, type NormalizedCurve } from '../server/analysis';
+import { compareCurves, repeatability, type NormalizedCurve } from '@shared/analysis';
 import { renderReportPdf } from '../server/modules/reports/pdf/render';
 import type { ReportData } from '../server/modules/reports/report-data';
-import { HP_TORQUE_CONSTANT } from '../server/analysis/units';
+import { HP_TORQUE_CONSTANT } from '@shared/analysis/units';
 import { percentile } from './lib/stats';
 
 const RENDERS = 10;

@@ -3,8 +3,8 @@
  * JSON: an array with one object per file (shape fixed by issue 3); exit 1 when any file failed.
  */
 import { analyzeFile } from '../lib/run-files/index.js';
-import type { AnalysisResult } from '../analysis/analyze.js';
-import { AnalysisError } from '../analysis/errors.js';
+import type { AnalysisResult } from '@shared/analysis/analyze';
+import { AnalysisError } from '@shared/analysis/errors';
 import { failureSummary, installCrashGuard, readCliArgs, round, successSummary } from './cli-support.js';
 
 const USAGE = `Usage: analyze [--json] [--curve] [--grid 50] [--smooth N] [--correction none|sae-j1349|sae-j1349-1990|iso-1585|din-70020|sae-j607]

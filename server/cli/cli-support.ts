@@ -3,10 +3,10 @@
  * summaries (the shapes are a public interface used by outside checks — change them only by
  * adding keys).
  */
-import type { AnalysisResult, AnalyzeOptions } from '../analysis/analyze.js';
-import type { ColumnMapping } from '../analysis/columns.js';
-import { isCorrectionStandard } from '../analysis/correction.js';
-import { AnalysisError } from '../analysis/errors.js';
+import type { AnalysisResult, AnalyzeOptions } from '@shared/analysis/analyze';
+import type { ColumnMapping } from '@shared/analysis/columns';
+import { isCorrectionStandard } from '@shared/analysis/correction';
+import { AnalysisError } from '@shared/analysis/errors';
 
 /** Parsed command line. */
 export interface CliArgs {

@@ -5,10 +5,10 @@
  * (without the point-wise delta).
  */
 import { analyzeFile } from '../lib/run-files/index.js';
-import type { AnalysisResult } from '../analysis/analyze.js';
-import { compareCurves } from '../analysis/compare.js';
-import { applyCorrection } from '../analysis/curve.js';
-import { AnalysisError } from '../analysis/errors.js';
+import type { AnalysisResult } from '@shared/analysis/analyze';
+import { compareCurves } from '@shared/analysis/compare';
+import { applyCorrection } from '@shared/analysis/curve';
+import { AnalysisError } from '@shared/analysis/errors';
 import { failureSummary, installCrashGuard, readCliArgs, round, successSummary } from './cli-support.js';
 
 const USAGE = `Usage: compare [--json] [--bands 1000] [--grid 50] [--smooth N] [--correction STD] [--temp C] [--baro kPa] [--humidity %] BEFORE AFTER`;

@@ -1,4 +1,4 @@
-import { cTo, kpaTo } from '@server/analysis/units';
+import { cTo, kpaTo } from '@shared/analysis/units';
 import { formatNumber } from '@shared/format';
 
 /** The shop's unit system (shop settings); Pullbook stores air conditions in °C and kPa. */

@@ -1,9 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, type TestApp, type TestShop } from '../support/test-app';
 import { ComparisonFixtures, curveFromPower, humpWithPeaks, type FixtureCurve } from '../support/comparison-fixtures';
-import { compareCurves, repeatability } from '@server/analysis/compare';
-import { applyCorrection } from '@server/analysis/curve';
-import { correctionFactor } from '@server/analysis/correction';
+import { compareCurves, repeatability } from '@shared/analysis/compare';
+import { applyCorrection } from '@shared/analysis/curve';
+import { correctionFactor } from '@shared/analysis/correction';
 import { Bike } from '@server/modules/bikes/bike.entity';
 import { Run } from '@server/modules/runs/run.entity';
 import { evaluateComparison } from '@server/modules/comparisons/comparison.service';

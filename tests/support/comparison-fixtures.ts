@@ -5,8 +5,8 @@
  */
 import { randomUUID } from 'node:crypto';
 import type { EntityManager } from '@mikro-orm/postgresql';
-import { HP_TORQUE_CONSTANT } from '../../server/analysis/units.js';
-import { peaksOf } from '../../server/analysis/curve.js';
+import { HP_TORQUE_CONSTANT } from '@shared/analysis/units';
+import { peaksOf } from '@shared/analysis/curve';
 import { Run } from '@server/modules/runs/run.entity';
 import { Stage, Part } from '@server/modules/stages/stage.entity';
 import { DynoSession } from '@server/modules/sessions/dyno-session.entity';

@@ -8,7 +8,7 @@ import { ComparisonFixtures, humpWithPeaks } from './comparison-fixtures';
 
 /**
  * Reference conditions of SAE J1349 (25 °C, 99 kPa dry air): the correction factor is exactly 1
- * there (server/analysis/correction.ts), so the corrected peaks equal the curves' own peaks.
+ * there (src/shared/analysis/correction.ts), so the corrected peaks equal the curves' own peaks.
  */
 export const REFERENCE_AIR = { temperatureC: 25, baroKpa: 99, humidityPct: 0 };
 

@@ -5,10 +5,10 @@
 import { open } from 'node:fs/promises';
 import {
   type AnalysisResult, type AnalyzeOptions, HEAD_CHARS, createFeeder, estimateRows, finishAnalysis, normaliseOptions, prepareRead, utf8Length,
-} from '../../analysis/analyze.js';
-import { SNIFF_BYTES, createStreamDecoder, detectEncoding } from '../../analysis/decode.js';
-import { AnalysisError, toAnalysisError } from '../../analysis/errors.js';
-import { RowCollector } from '../../analysis/table.js';
+} from '@shared/analysis/analyze';
+import { SNIFF_BYTES, createStreamDecoder, detectEncoding } from '@shared/analysis/decode';
+import { AnalysisError, toAnalysisError } from '@shared/analysis/errors';
+import { RowCollector } from '@shared/analysis/table';
 
 const CHUNK_BYTES = 128 * 1024;
 

@@ -1,5 +1,5 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
-import { applyCorrection, compareCurves, type NormalizedCurve } from '../../analysis/index';
+import { applyCorrection, compareCurves, type NormalizedCurve } from '@shared/analysis/index';
 import { Stage, Part } from '../stages/stage.entity';
 import { Run } from '../runs/run.entity';
 

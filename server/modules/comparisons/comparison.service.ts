@@ -32,13 +32,13 @@ import {
   comparisonPreviewInput,
 } from '@shared/schemas/comparison';
 import type { CorrectionId } from '@shared/schemas/run';
-import { type ComparisonFigures, compareCurves, repeatability } from '../../analysis/compare';
-import { type CorrectionStandard, CORRECTION_STANDARDS, correctionFactor, isCorrectionStandard } from '../../analysis/correction';
-import { type NormalizedCurve, applyCorrection, peaksOf } from '../../analysis/curve';
-import { isAnalysisError } from '../../analysis/errors';
-import { gridPoints, interpolateSorted } from '../../analysis/resample';
-import { smoothSavitzkyGolay } from '../../analysis/smoothing';
-import { cTo, hpTo, kpaTo, lbftTo } from '../../analysis/units';
+import { type ComparisonFigures, compareCurves, repeatability } from '@shared/analysis/compare';
+import { type CorrectionStandard, CORRECTION_STANDARDS, correctionFactor, isCorrectionStandard } from '@shared/analysis/correction';
+import { type NormalizedCurve, applyCorrection, peaksOf } from '@shared/analysis/curve';
+import { isAnalysisError } from '@shared/analysis/errors';
+import { gridPoints, interpolateSorted } from '@shared/analysis/resample';
+import { smoothSavitzkyGolay } from '@shared/analysis/smoothing';
+import { cTo, hpTo, kpaTo, lbftTo } from '@shared/analysis/units';
 import { Run } from '../runs/run.entity';
 import { MAX_STAGE_RUNS, loadPreviewRows, loadRunRows, type RunRow } from './comparison-runs';
 import { Stage, Part } from '../stages/stage.entity';

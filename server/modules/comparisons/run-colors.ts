@@ -11,7 +11,7 @@
  * colours are left.
  */
 
-/** Colours in the run palette (src/lib/chart-theme.ts RUN_PALETTE: the eight Okabe–Ito colours). */
+/** Colours in the run palette (src/shared/run-style.ts RUN_PALETTE: the eight Okabe–Ito colours). */
 export const RUN_COLOR_SLOTS = 8;
 
 export interface ArchiveRun {

@@ -2,7 +2,7 @@
  * How the report prints its figures, in the shop's units. The PDF, the share page data and the
  * tests all format through these, so the printed text can be checked against the API's numbers.
  */
-import { NM_PER_LBFT, W_PER_HP } from '../../analysis/units';
+import { NM_PER_LBFT, W_PER_HP } from '@shared/analysis/units';
 import { formatGain, formatMoney, formatNumber, formatPercentChange, formatRpm } from '@shared/format';
 import type { UnitSystem } from '../shops/shop.entity';
 

@@ -10,7 +10,7 @@ import type { Actor } from '../../http/actor';
 import type { AppDeps } from '../../app-deps';
 import { AppError, notFound } from '../../lib/errors';
 import { hitRateLimit } from '../../lib/rate-limit';
-import { CORRECTION_STANDARDS } from '../../analysis';
+import { CORRECTION_STANDARDS } from '@shared/analysis';
 import type { ComparisonOptions, ComparisonPreview } from '@shared/schemas/comparison';
 import { evaluateComparison, getComparison } from '../comparisons/comparison.service';
 import { Comparison } from '../comparisons/comparison.entity';

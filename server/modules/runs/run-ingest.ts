@@ -20,7 +20,7 @@ import {
   type AnalyzeOptions,
   type ColumnMapping,
   type CorrectionStandard,
-} from '../../analysis/index';
+} from '@shared/analysis/index';
 import { analyzeFile } from '../../lib/run-files/index';
 import type { UploadResult } from '@shared/schemas/run';
 import { Run, ColumnLayout, type RunStatus } from './run.entity';

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { optionalText, uuid } from './common';
-import type { ComparisonFigures } from '@server/analysis/compare';
+import type { ComparisonFigures } from '@shared/analysis/compare';
 import { CORRECTION_IDS, type CorrectionId } from './run';
 
 /**

@@ -4,7 +4,7 @@ import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { promisify } from 'node:util';
-import { analyzeBuffer } from '@server/analysis/index';
+import { analyzeBuffer } from '@shared/analysis/index';
 import { successSummary } from '@server/cli/cli-support';
 import { syntheticRunFile } from '@server/db/synthetic-runs';
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { AnalysisError, type NormalizedCurve, applyCorrection, compareCurves, integrate, peaksOf, repeatability } from '@server/analysis/index';
-import { analyzeBuffer } from '@server/analysis/index';
+import { AnalysisError, type NormalizedCurve, applyCorrection, compareCurves, integrate, peaksOf, repeatability } from '@shared/analysis/index';
+import { analyzeBuffer } from '@shared/analysis/index';
 import { syntheticRunFile } from '@server/db/synthetic-runs';
 
 /** A straight-line test curve: hp = a + b·rpm on a 50 rpm grid (values chosen by hand). */

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import {
   CORRECTION_STANDARDS, REFERENCE_CONDITIONS, AnalysisError, correctionFactor, dryAirPressureKpa,
   pressureToKpa, saturationVapourPressureKpa, temperatureToC,
-} from '@server/analysis/index';
+} from '@shared/analysis/index';
 
 // CRC Handbook of Chemistry and Physics, "Vapor pressure of water from 0 to 370 °C" (kPa);
 // values from memory.

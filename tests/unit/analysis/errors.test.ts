@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { AnalysisError, analyzeBuffer, type AnalyzeOptions } from '@server/analysis/index';
+import { AnalysisError, analyzeBuffer, type AnalyzeOptions } from '@shared/analysis/index';
 import { syntheticRunFile } from '@server/db/synthetic-runs';
 
 const enc = (s: string) => new TextEncoder().encode(s);

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { HP_TORQUE_CONSTANT, analyzeBuffer, identityStats } from '@server/analysis/index';
+import { HP_TORQUE_CONSTANT, analyzeBuffer, identityStats } from '@shared/analysis/index';
 import { syntheticRunFile } from '@server/db/synthetic-runs';
 
 const QUIET = { seed: 21, rpmNoise: 2, torqueNoise: 0.05 };

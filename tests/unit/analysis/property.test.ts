@@ -1,6 +1,6 @@
 import { describe, it } from 'vitest';
 import fc from 'fast-check';
-import { AnalysisError, analyzeBuffer } from '@server/analysis/index';
+import { AnalysisError, analyzeBuffer } from '@shared/analysis/index';
 import { type RunFileFormat, syntheticRunFile } from '@server/db/synthetic-runs';
 
 /**

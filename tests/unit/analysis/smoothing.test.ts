@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { savitzkyGolayCoefficients, smoothSavitzkyGolay } from '@server/analysis/index';
+import { savitzkyGolayCoefficients, smoothSavitzkyGolay } from '@shared/analysis/index';
 
 // Published smoothing coefficients (quadratic/cubic), Savitzky & Golay (1964) Table I as corrected
 // by Steinier, Termonia & Deltour (1972). Values typed from memory.

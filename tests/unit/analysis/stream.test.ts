@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { mkdtempSync, writeFileSync, createWriteStream } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { AnalysisError, analyzeBuffer } from '@server/analysis/index';
+import { AnalysisError, analyzeBuffer } from '@shared/analysis/index';
 import { analyzeFile } from '@server/lib/run-files/index';
 import { largeRunFileChunks, syntheticRunFile } from '@server/db/synthetic-runs';
 

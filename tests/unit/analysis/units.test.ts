@@ -5,7 +5,7 @@ import {
   HP_TORQUE_CONSTANT, KW_TORQUE_CONSTANT, NM_PER_LBFT, W_PER_HP, W_PER_PS,
   cTo, hpFromLbft, hpTo, kmhTo, kpaTo, lbftTo, powerToHp, pressureToKpa, speedToKmh, temperatureToC, torqueToLbft,
   parsePowerUnit, parseTorqueUnit, parsePressureUnit,
-} from '@server/analysis/index';
+} from '@shared/analysis/index';
 
 describe('conversion factors', () => {
   it('match NIST SP 811 (2008) Appendix B to the digits printed there', () => {

@@ -4,8 +4,8 @@
  * one Okabe–Ito colour per run, power solid, torque dashed.
  */
 import { G, Line, Polyline, Rect, Svg, Text } from '@react-pdf/renderer';
-import { LINE_DASHARRAY, LINE_STYLES, runColor } from '../../../../src/lib/chart-theme';
-import { palette } from '../../../../tailwind.config';
+import { LINE_DASHARRAY, LINE_STYLES, runColor } from '@shared/run-style';
+import { palette } from '@shared/theme';
 import { formatNumber } from '@shared/format';
 import { sharedPowerTorqueRange } from '@shared/chart-scale';
 import type { UnitSystem } from '../../shops/shop.entity';

@@ -4,7 +4,7 @@
  */
 import { Document, Image, Page, StyleSheet, Text, View } from '@react-pdf/renderer';
 import type { ReactNode } from 'react';
-import { palette } from '../../../../tailwind.config';
+import { palette } from '@shared/theme';
 import { formatDate, formatNumber, formatRpmRange } from '@shared/format';
 import { PART_CATEGORY_LABELS, type PartCategory } from '@shared/parts';
 import { costPerPower, fmtMoneyCents, fmtPctChange, fmtPower, fmtPowerGain, fmtRpm, fmtTorque, fmtTorqueGain, unitLabels } from '../figures';

@@ -1,7 +1,7 @@
 import { useCallback, useMemo, useRef, useState } from 'react';
 import type { ComparisonPreview, ComparisonResult, ComparisonWarning } from '@shared/schemas/comparison';
 import { Badge, Button, Card, Caution, SelectField, Stat, cn, useToast } from '@/components/ui';
-import { CORRECTION_STANDARDS } from '@server/analysis/correction';
+import { CORRECTION_STANDARDS } from '@shared/analysis/correction';
 import { runColor } from '@/lib/chart-theme';
 import { formatNumber, formatRpm, formatRpmRange } from '@shared/format';
 import { type ChartHandle, DifferenceChart, OverlayChart, chartPng, chartSvg } from './comparison-charts';

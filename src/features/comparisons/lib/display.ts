@@ -3,7 +3,7 @@
  * (with the analysis module's NIST SP 811 factors), the aligned-curves CSV and file downloads.
  */
 import type { ComparisonPreview, ComparisonUnits } from '@shared/schemas/comparison';
-import { hpTo, lbftTo } from '@server/analysis/units';
+import { hpTo, lbftTo } from '@shared/analysis/units';
 
 export interface DisplayUnits {
   power: 'hp' | 'kW';

@@ -3,7 +3,7 @@ import { useQuery } from '@tanstack/react-query';
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { COMPARISON_UNITS, MAX_COMPARISON_RUNS, type ComparisonOptions, type ComparisonPreviewInput, type ComparisonUnits } from '@shared/schemas/comparison';
 import type { CorrectionId } from '@shared/schemas/run';
-import { CORRECTION_STANDARDS } from '@server/analysis/correction';
+import { CORRECTION_STANDARDS } from '@shared/analysis/correction';
 import { Button, Card, EmptyState, ErrorState, Icon, LoadingState, NumberField, PageHeader, SearchInput, SelectField, useDebouncedValue } from '@/components/ui';
 import { runColor } from '@/lib/chart-theme';
 import { paths } from '@/config/paths';

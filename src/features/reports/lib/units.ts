@@ -1,5 +1,5 @@
 import { formatGain, formatNumber, formatPercentChange } from '@shared/format';
-import { hpTo, lbftTo } from '@server/analysis/units';
+import { hpTo, lbftTo } from '@shared/analysis/units';
 import type { Units } from '../api/types';
 
 /** The shop's units for display; conversions from the analysis module (NIST SP 811 factors), as the PDF uses. */

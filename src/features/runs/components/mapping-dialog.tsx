@@ -56,7 +56,7 @@ function suggested(s: Record<string, unknown>, key: string): { column?: string; 
 type Issue = { code: string; message: string } | null | undefined;
 
 /**
- * Why the dialog is open, in plain words, from the reader's error code (server/analysis/errors.ts)
+ * Why the dialog is open, in plain words, from the reader's error code (src/shared/analysis/errors.ts)
  * and the roles it could not settle (`needs` of its mapping help).
  */
 export function mappingReason(error: Issue, needs: string[], rpmColumn: string | undefined): string {

@@ -4,7 +4,7 @@ import { z } from 'zod';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useQuery } from '@tanstack/react-query';
 import { sessionInput, type SessionDto } from '@shared/schemas/run';
-import { cTo, kpaTo, pressureToKpa, temperatureToC } from '@server/analysis/units';
+import { cTo, kpaTo, pressureToKpa, temperatureToC } from '@shared/analysis/units';
 import { Button, FormError, NumberField, SelectField, TextAreaField, TextField } from '@/components/ui';
 import { formatNumber } from '@shared/format';
 import { ApiError, applyFieldErrors } from '@/lib/api-client';

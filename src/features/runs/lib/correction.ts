@@ -1,5 +1,5 @@
 import { CORRECTION_IDS } from '@shared/schemas/run';
-import { CORRECTION_STANDARDS } from '@server/analysis/correction';
+import { CORRECTION_STANDARDS } from '@shared/analysis/correction';
 
 /** The correction standards as select options, in the API's order. */
 export const CORRECTION_OPTIONS = CORRECTION_IDS.map((id) => ({ value: id, label: CORRECTION_STANDARDS.find((s) => s.id === id)?.label ?? id }));

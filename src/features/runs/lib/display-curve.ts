@@ -1,6 +1,6 @@
 import type { CorrectionId, RunDetailDto } from '@shared/schemas/run';
-import { correctionFactor } from '@server/analysis/correction';
-import { GASOLINE_STOICH_AFR, hpTo, lbftTo } from '@server/analysis/units';
+import { correctionFactor } from '@shared/analysis/correction';
+import { GASOLINE_STOICH_AFR, hpTo, lbftTo } from '@shared/analysis/units';
 import { formatNumber } from '@shared/format';
 
 export type PowerChoice = 'hp' | 'kw';

@@ -3,7 +3,7 @@ import { Link, useNavigate, useParams, useSearchParams } from 'react-router-dom'
 import { useQuery } from '@tanstack/react-query';
 import { CORRECTION_IDS, type CorrectionId, type RunDetailDto } from '@shared/schemas/run';
 import { STAFF, WORKSHOP } from '@shared/roles';
-import { GASOLINE_STOICH_AFR } from '@server/analysis/units';
+import { GASOLINE_STOICH_AFR } from '@shared/analysis/units';
 import { Badge, Button, Card, Caution, ConfirmDialog, ErrorState, Icon, LoadingState, PageHeader, SelectField, Stat, StatusBadge, useToast } from '@/components/ui';
 import { formatDateTime, formatFileSize, formatNumber, formatRpmRange, MISSING } from '@shared/format';
 import { useCurrentUser } from '@/lib/auth';
