@@ -23,11 +23,28 @@ export interface HandlerContext<B, Q, P> {
   params: P;
   em: EntityManager;
   deps: AppDeps;
+  /**
+   * The request, for what is not JSON input: uploaded files (multer), the client address, and the
+   * session in the auth module. Handlers never write the response: they return it.
+   */
   req: Request;
-  res: Response;
 }
 
-export interface RouteSpec<B, Q, P, A extends Access> {
+/** A JSON answer with a status or headers of its own (the route's `status` is the default). */
+export class Reply<R> {
+  constructor(
+    readonly body: R,
+    readonly status?: number,
+    readonly headers: Record<string, string> = {},
+    readonly clearCookies: string[] = [],
+  ) {}
+}
+
+/** `return reply(body, { status: 503 })` instead of writing to the response. */
+export const reply = <R>(body: R, opts: { status?: number; headers?: Record<string, string>; clearCookies?: string[] } = {}) =>
+  new Reply(body, opts.status, opts.headers, opts.clearCookies);
+
+interface BaseSpec<B, Q, P, A extends Access> {
   method: Method;
   path: string;
   access: A;
@@ -36,12 +53,29 @@ export interface RouteSpec<B, Q, P, A extends Access> {
   body?: ZodType<B, ZodTypeDef, unknown>;
   query?: ZodType<Q, ZodTypeDef, unknown>;
   params?: ZodType<P, ZodTypeDef, unknown>;
-  /** HTTP status on success; default 200. */
+  /** HTTP status on success; default 200 (204 when the handler returns nothing). */
   status?: number;
+  /** Headers set on every successful answer (e.g. Cache-Control). */
+  headers?: Record<string, string>;
   /** Extra middleware that runs after the access check and before validation (e.g. multer). */
   before?: express.RequestHandler[];
-  handler: (ctx: HandlerContext<B, Q, P> & { actor: A extends 'public' ? Actor | null : Actor }) => Promise<unknown>;
 }
+
+type ActorFor<A extends Access> = A extends 'public' ? Actor | null : Actor;
+
+/** A JSON route: typed input in, a typed response (or nothing, 204) out. */
+export interface JsonRouteSpec<B, Q, P, A extends Access, R> extends BaseSpec<B, Q, P, A> {
+  stream?: false;
+  handler: (ctx: HandlerContext<B, Q, P> & { actor: ActorFor<A> }) => Promise<R | Reply<R>>;
+}
+
+/** A streaming route (file downloads, PDFs, server-sent events): the only kind that writes to `res`. */
+export interface StreamRouteSpec<B, Q, P, A extends Access> extends BaseSpec<B, Q, P, A> {
+  stream: true;
+  handler: (ctx: HandlerContext<B, Q, P> & { actor: ActorFor<A>; res: Response }) => Promise<void>;
+}
+
+export type RouteSpec<B, Q, P, A extends Access, R> = JsonRouteSpec<B, Q, P, A, R> | StreamRouteSpec<B, Q, P, A>;
 
 export interface RegisteredRoute {
   method: Method;
@@ -89,7 +123,7 @@ export class ApiRouter {
     private readonly deps: AppDeps,
   ) {}
 
-  route<B = undefined, Q = undefined, P = Record<string, string>, A extends Access = Access>(spec: RouteSpec<B, Q, P, A>) {
+  route<B = undefined, Q = undefined, P = Record<string, string>, A extends Access = Access, R = unknown>(spec: RouteSpec<B, Q, P, A, R>) {
     this.routes.push({ method: spec.method, path: this.prefix + spec.path, access: spec.access, summary: spec.summary });
     const guard: express.RequestHandler = (req, _res, next) => {
       checkAccess(spec.access, (req.user as Actor | undefined) ?? null);
@@ -99,20 +133,27 @@ export class ApiRouter {
       const params = parseOrThrow(spec.params, req.params, 'path');
       const query = parseOrThrow(spec.query, req.query, 'query');
       const body = parseOrThrow(spec.body, req.body ?? {}, 'request body');
-      const em = res.locals.em as EntityManager;
-      const result = await spec.handler({
+      const ctx = {
         actor: (req.user as Actor | undefined) ?? null,
         body,
         query,
         params,
-        em,
+        em: res.locals.em as EntityManager,
         deps: this.deps,
         req,
-        res,
-      } as HandlerContext<B, Q, P> & { actor: never });
+      } as HandlerContext<B, Q, P> & { actor: never };
+      if (spec.stream) {
+        if (spec.headers) res.set(spec.headers);
+        await spec.handler({ ...ctx, res });
+        return;
+      }
+      const result = await spec.handler(ctx);
       if (res.headersSent) return;
-      if (result === undefined) res.status(spec.status ?? 204).end();
-      else res.status(spec.status ?? 200).json(result);
+      const answer = result instanceof Reply ? result : new Reply(result);
+      res.set({ ...spec.headers, ...answer.headers });
+      for (const name of answer.clearCookies) res.clearCookie(name);
+      if (answer.body === undefined) res.status(answer.status ?? spec.status ?? 204).end();
+      else res.status(answer.status ?? spec.status ?? 200).json(answer.body);
     };
     this.router[spec.method](spec.path, guard, ...(spec.before ?? []), handle);
     return this;

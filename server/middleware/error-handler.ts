@@ -17,7 +17,8 @@ export function errorHandler(): express.ErrorRequestHandler {
           : err.code === 'LIMIT_FILE_COUNT'
             ? `Too many files in one upload${res.locals.uploadCountText ? ` (at most ${res.locals.uploadCountText})` : ''}; nothing was saved`
             : `Upload refused: ${err.message}`;
-      appError = new AppError(err.code, message, tooBig ? 413 : 400);
+      const code = err.code === 'LIMIT_FILE_SIZE' ? 'FILE_TOO_LARGE' : err.code === 'LIMIT_FILE_COUNT' ? 'TOO_MANY_FILES' : tooBig ? 'BODY_TOO_LARGE' : 'UPLOAD_REFUSED';
+      appError = new AppError(code, message, tooBig ? 413 : 400, { reason: err.code });
     } else if ((err as { type?: string }).type === 'entity.too.large') {
       appError = new AppError('BODY_TOO_LARGE', 'Request body is too large', 413);
     } else if ((err as { type?: string }).type === 'entity.parse.failed') {

@@ -1,6 +1,7 @@
 import passport from 'passport';
-import type { Request } from 'express';
-import { ApiRouter } from '../../http/api-router';
+import type { Request, RequestHandler } from 'express';
+import { ApiRouter, reply } from '../../http/api-router';
+import { SESSION_COOKIE } from '../../http/session';
 import type { AppDeps } from '../../app-deps';
 import { AppError } from '../../lib/errors';
 import { changePasswordInput, forgotPasswordInput, loginInput, setPasswordInput } from '@shared/schemas/auth';
@@ -15,6 +16,22 @@ function logIn(req: Request, user: User): Promise<Actor> {
   return new Promise((resolve, reject) => req.login(actor, (err) => (err ? reject(err) : resolve(actor))));
 }
 
+/** The user passport-local found for this sign-in request (set by `checkPassword`). */
+type SignInRequest = Request & { signInUser?: User | false };
+
+/**
+ * Runs passport-local's strategy (http/session.ts) before the handler. A body that is not even
+ * shaped like a sign-in is left to the route's validation, which answers 400 with field messages.
+ */
+const checkPassword: RequestHandler = (req, res, next) => {
+  if (!loginInput.safeParse(req.body).success) return next();
+  passport.authenticate('local', { session: false }, (err: unknown, u: User | false) => {
+    if (err) return next(err);
+    (req as SignInRequest).signInUser = u;
+    next();
+  })(req, res, next);
+};
+
 export function authRoutes(deps: AppDeps) {
   const api = new ApiRouter('/api/auth', deps);
 
@@ -24,10 +41,9 @@ export function authRoutes(deps: AppDeps) {
     access: 'public',
     summary: 'Sign in with e-mail and password',
     body: loginInput,
-    handler: async ({ req, res }) => {
-      const user = await new Promise<User | false>((resolve, reject) =>
-        passport.authenticate('local', { session: false }, (err: unknown, u: User | false) => (err ? reject(err) : resolve(u)))(req, res, reject),
-      );
+    before: [checkPassword],
+    handler: async ({ req }) => {
+      const user = (req as SignInRequest).signInUser;
       if (!user) throw new AppError('BAD_CREDENTIALS', 'E-mail or password is not right', 401);
       return { user: await logIn(req, user) };
     },
@@ -38,11 +54,10 @@ export function authRoutes(deps: AppDeps) {
     path: '/logout',
     access: 'public',
     summary: 'Sign out',
-    handler: async ({ req, res }) => {
+    handler: async ({ req }) => {
       await new Promise<void>((resolve, reject) => req.logout((err) => (err ? reject(err) : resolve())));
       await new Promise<void>((resolve) => req.session.destroy(() => resolve()));
-      res.clearCookie('pullbook.sid');
-      return { ok: true };
+      return reply({ ok: true }, { clearCookies: [SESSION_COOKIE] });
     },
   });
 

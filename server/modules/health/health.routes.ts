@@ -1,4 +1,4 @@
-import { ApiRouter } from '../../http/api-router';
+import { ApiRouter, reply } from '../../http/api-router';
 import type { AppDeps } from '../../app-deps';
 
 /** Try one dependency. The answer says only up or down: hosts, ports and driver errors go to the log, not to anonymous callers. */
@@ -22,13 +22,13 @@ export function healthRoutes(deps: AppDeps) {
     path: '/',
     access: 'public',
     summary: 'State of the database and object storage',
-    handler: async ({ res }) => {
+    handler: async () => {
       const [database, storage] = await Promise.all([
         probe('database', () => deps.orm.em.fork().getConnection().execute('select 1')),
         probe('object storage', () => deps.storage.ping()),
       ]);
       const ok = database.ok && storage.ok;
-      res.status(ok ? 200 : 503).json({ status: ok ? 'ok' : 'degraded', database, storage });
+      return reply({ status: ok ? 'ok' : 'degraded', database, storage }, { status: ok ? 200 : 503 });
     },
   });
   return api;

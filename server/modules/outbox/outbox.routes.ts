@@ -31,6 +31,7 @@ export function outboxRoutes(deps: AppDeps) {
     path: '/:id/attachments/:index',
     access: ['owner'],
     summary: 'Download an attachment of a captured message',
+    stream: true,
     params: messageParams.extend({ index: z.coerce.number().int().min(0) }),
     handler: async ({ actor, params, res }) => {
       const { parsed } = await deps.outbox.get(actor.shopId, params.id);

@@ -64,6 +64,7 @@ export function reportRoutes(deps: AppDeps): ApiRouter[] {
     summary: 'The stored PDF of a report version',
     params: idParams,
     query: z.object({ download: z.string().optional() }),
+    stream: true,
     handler: async ({ em, actor, params, query, res }) => {
       const { report, stream } = await reportPdf(deps, em, actor, params.id);
       await sendPdf(res, report, stream, query.download ? 'attachment' : 'inline');
@@ -76,20 +77,17 @@ export function reportRoutes(deps: AppDeps): ApiRouter[] {
   api.route({ method: 'delete', path: '/:id/share/:shareId', access: STAFF, summary: 'Revoke a share link', params: shareParams, handler: ({ em, actor, params }) => revokeShareLink(em, actor, params.id, params.shareId) });
 
   const share = new ApiRouter('/api/share', deps);
-  share.route({ method: 'get', path: '/:token', access: 'public', summary: 'A shared report’s summary and chart data', params: tokenParams, handler: ({ em, params, req, res }) => {
-    res.set('Cache-Control', 'no-store');
-    res.set('X-Robots-Tag', 'noindex');
-    return viewShare(em, params.token, clientIp(req.ip));
-  } });
+  share.route({ method: 'get', path: '/:token', access: 'public', summary: 'A shared report’s summary and chart data', params: tokenParams, headers: { 'Cache-Control': 'no-store', 'X-Robots-Tag': 'noindex' }, handler: ({ em, params, req }) => viewShare(em, params.token, clientIp(req.ip)) });
   share.route({
     method: 'get',
     path: '/:token/pdf',
     access: 'public',
     summary: 'A shared report’s PDF',
     params: tokenParams,
+    stream: true,
+    headers: { 'X-Robots-Tag': 'noindex' },
     handler: async ({ em, params, req, res }) => {
       const { report, stream } = await sharePdf(deps, em, params.token, clientIp(req.ip));
-      res.set('X-Robots-Tag', 'noindex');
       await sendPdf(res, report, stream, 'attachment');
     },
   });
@@ -129,6 +127,7 @@ export function reportRoutes(deps: AppDeps): ApiRouter[] {
     path: '/',
     access: STAFF,
     summary: 'The shop logo image',
+    stream: true,
     handler: async ({ em, actor, res }) => {
       const shop = await em.findOneOrFail(Shop, actor.shopId);
       if (!shop.logoKey) throw new AppError('NOT_FOUND', 'This shop has no logo yet', 404);

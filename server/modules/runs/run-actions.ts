@@ -1,4 +1,5 @@
 /** Run actions that go back to the raw file: preview, hand mapping, re-processing. */
+import type { ApiErrorCode } from '@shared/errors';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import type { z } from 'zod';
 import type { AppDeps } from '../../app-deps';
@@ -76,7 +77,7 @@ export async function applyMapping(em: EntityManager, deps: AppDeps, actor: Acto
   const { outcome } = await reanalyseRun(em, deps, run, { mapping });
   if (outcome.status !== 'ready') {
     const err = outcome.error ?? { code: 'MAPPING_INVALID', message: 'That mapping does not fit the file' };
-    throw new AppError(err.code, `With that mapping the file still cannot be read: ${err.message}`, 422, err.details);
+    throw new AppError(err.code as ApiErrorCode, `With that mapping the file still cannot be read: ${err.message}`, 422, err.details);
   }
   await saveOutcome(em, run, outcome);
   let layoutId: string | null = null;

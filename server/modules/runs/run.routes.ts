@@ -45,9 +45,8 @@ export function runRoutes(deps: AppDeps): ApiRouter[] {
       }
     },
   });
-  api.route({ method: 'get', path: '/', access: 'signed-in', summary: 'Runs the caller may see (filter, sort, page)', query: runListQuery, handler: ({ em, actor, query, req }) => {
-    const raw = String(req.query.includeDeleted ?? '');
-    return listRuns(em, actor, { ...query, includeDeleted: Boolean(query.includeDeleted) && raw !== 'false' && raw !== '0' });
+  api.route({ method: 'get', path: '/', access: 'signed-in', summary: 'Runs the caller may see (filter, sort, page)', query: runListQuery, handler: ({ em, actor, query }) => {
+    return listRuns(em, actor, query);
   } });
   api.route({ method: 'get', path: '/:id', access: 'signed-in', summary: 'One run with its curve', params: idParams, handler: ({ em, actor, params }) => runDetail(em, actor, params.id) });
   api.route({
@@ -56,6 +55,7 @@ export function runRoutes(deps: AppDeps): ApiRouter[] {
     access: STAFF,
     summary: 'The original file, byte for byte',
     params: idParams,
+    stream: true,
     handler: async ({ em, actor, params, res, deps: d }) => {
       const { run, obj } = await rawFile(em, d, actor, params.id);
       res.status(200);

@@ -30,7 +30,7 @@ export type AnalysisErrorCode =
 /** The only error type thrown (or rejected) by the analysis module. */
 export class AnalysisError extends Error {
   /** Stable machine-readable code, see {@link AnalysisErrorCode}. */
-  readonly code: AnalysisErrorCode | string;
+  readonly code: AnalysisErrorCode;
   /** 1-based line of the file where the problem was found, when it applies. */
   readonly line?: number;
   /** Header text of the column where the problem was found, when it applies. */

@@ -35,6 +35,18 @@ export const optionalNumber = (opts: { min?: number; max?: number; int?: boolean
 export const uuid = z.string().uuid('Not a valid id');
 export const idParams = z.object({ id: uuid });
 
+/**
+ * A yes/no query parameter. `z.coerce.boolean()` turns the text "false" into true; this reads
+ * "true"/"1"/"yes" as true and "false"/"0"/"no"/"" as false, and refuses anything else.
+ */
+export const queryBoolean = z.preprocess((v) => {
+  if (typeof v === 'boolean' || v === undefined) return v;
+  const s = String(v).trim().toLowerCase();
+  if (['true', '1', 'yes', 'on'].includes(s)) return true;
+  if (['false', '0', 'no', 'off', ''].includes(s)) return false;
+  return v;
+}, z.boolean({ invalid_type_error: 'Use true or false' }));
+
 /** Query of a server-side table: search text, sort ("field" or "-field"), page and size. */
 export const listQuery = <S extends string>(sortable: readonly [S, ...S[]]) =>
   z.object({
@@ -47,11 +59,21 @@ export const listQuery = <S extends string>(sortable: readonly [S, ...S[]]) =>
     pageSize: z.coerce.number().int().min(1).max(200).default(25),
   });
 
+/**
+ * The one shape every list route answers with. `total` counts every matching row; `nextCursor`
+ * is set by lists that page with a keyset cursor (pass it back as `cursor`) and null on the last page.
+ */
 export interface Page<T> {
   items: T[];
   total: number;
   page: number;
   pageSize: number;
+  nextCursor?: string | null;
+}
+
+/** A whole list in the page shape (lists that are short by nature: a bike's stages, a run's reports). */
+export function wholePage<T>(items: T[]): Page<T> {
+  return { items, total: items.length, page: 1, pageSize: Math.max(items.length, 1), nextCursor: null };
 }
 
 export function parseSort(sort: string | undefined, fallback: string): { field: string; dir: 'asc' | 'desc' } {

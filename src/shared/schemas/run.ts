@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { listQuery, optionalNumber, optionalText, uuid } from './common';
+import { listQuery, optionalNumber, optionalText, queryBoolean, uuid } from './common';
 import { HEAD_WORK_LEVELS, PART_CATEGORIES, type HeadWorkLevel, type PartCategory } from '../parts';
 
 /**
@@ -135,7 +135,7 @@ export const runListQuery = listQuery(RUN_SORTS).extend({
   status: z.enum(RUN_STATUSES).optional(),
   from: z.string().date().optional(),
   to: z.string().date().optional(),
-  includeDeleted: z.coerce.boolean().optional(),
+  includeDeleted: queryBoolean.optional(),
 });
 export interface RunWarning {
   code: string;
