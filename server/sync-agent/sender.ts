@@ -1,0 +1,57 @@
+/**
+ * Sends one run file to Pullbook with the dyno's device token. Talks only to the device upload
+ * route; tells apart what a retry can fix (server or network away, 5xx, 429) from what it cannot
+ * (the token refused, the file refused).
+ */
+import { DEVICE_UPLOAD_PATH, type DeviceUploadResponse } from '@shared/schemas/device';
+import type { ApiErrorBody } from '@shared/errors';
+
+/** The token was refused (wrong, revoked, or its dyno removed): nothing will get through until it is replaced. */
+export class TokenRefusedError extends Error {
+  constructor(readonly status: number, message: string) {
+    super(message);
+    this.name = 'TokenRefusedError';
+  }
+}
+
+export type SendOutcome =
+  | { kind: 'sent'; response: DeviceUploadResponse }
+  | { kind: 'refused'; status: number; code: string; message: string }
+  | { kind: 'retry'; reason: string; retryAfterMs?: number };
+
+export interface SendInput {
+  server: string;
+  token: string;
+  fileName: string;
+  bytes: Uint8Array;
+  /** Gives up on one try after this long (a stalled connection counts as the network being away). */
+  timeoutMs?: number;
+}
+
+export async function sendRunFile({ server, token, fileName, bytes, timeoutMs = 60_000 }: SendInput): Promise<SendOutcome> {
+  const form = new FormData();
+  // A Buffer's memory is never shared here; the cast only narrows ArrayBufferLike for the DOM typings.
+  form.append('files', new Blob([bytes as Uint8Array<ArrayBuffer>], { type: 'text/plain' }), fileName);
+  let res: Response;
+  try {
+    res = await fetch(new URL(DEVICE_UPLOAD_PATH, server), {
+      method: 'POST',
+      headers: { Authorization: `Bearer ${token}`, Accept: 'application/json' },
+      body: form,
+      signal: AbortSignal.timeout(timeoutMs),
+    });
+  } catch (err) {
+    const cause = (err as { cause?: { code?: string } }).cause?.code ?? (err as Error).name;
+    return { kind: 'retry', reason: `server not reachable (${cause})` };
+  }
+  const body = (await res.json().catch(() => null)) as (ApiErrorBody & DeviceUploadResponse) | null;
+  if (res.ok && body?.results) return { kind: 'sent', response: body };
+  if (res.status === 401 || res.status === 403) {
+    throw new TokenRefusedError(res.status, body?.error?.message ?? 'the server refused the device token');
+  }
+  if (res.status === 429 || res.status >= 500 || !body) {
+    const retryAfter = Number(res.headers.get('retry-after'));
+    return { kind: 'retry', reason: `server answered ${res.status}${body?.error ? ` ${body.error.code}` : ''}`, retryAfterMs: Number.isFinite(retryAfter) && retryAfter > 0 ? retryAfter * 1000 : undefined };
+  }
+  return { kind: 'refused', status: res.status, code: body.error?.code ?? `HTTP_${res.status}`, message: body.error?.message ?? res.statusText };
+}
