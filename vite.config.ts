@@ -13,5 +13,7 @@ export default defineConfig({
   server: {
     proxy: { '/api': `http://127.0.0.1:${process.env.PORT ?? 3000}`, '/share': `http://127.0.0.1:${process.env.PORT ?? 3000}` },
   },
-  build: { outDir: 'dist', sourcemap: true, chunkSizeWarningLimit: 1500 },
+  // Source maps are built for error reports but never referenced from the bundles, and the server
+  // does not serve .map files (see server/app.ts).
+  build: { outDir: 'dist', sourcemap: 'hidden' },
 });
