@@ -43,6 +43,7 @@ export const API_ERROR_CODES = [
   'SAVE_FAILED',
   'FAILED',
   'UNSUPPORTED_IMAGE',
+  'IMAGE_TOO_LARGE',
   // comparisons and reports
   'COMPARISON_NOT_COMPUTABLE',
   'NO_PREVIEW',
