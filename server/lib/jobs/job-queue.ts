@@ -1,0 +1,76 @@
+/**
+ * Durable background jobs in PostgreSQL (pg-boss), for work that must not be lost when a process
+ * dies or a service is away: outgoing mail first. Jobs live in the database the app already uses
+ * (schema `pgboss`), so every app instance behind a load balancer shares one queue and each job is
+ * handed to exactly one worker at a time; a failed job is retried with exponential backoff.
+ */
+import PgBoss from 'pg-boss';
+import type { Logger } from 'pino';
+
+/** Each queue's retry rule. Delays double from `retryDelay` seconds (pg-boss `retryBackoff`). */
+export const QUEUES = {
+  /** One e-mail; the handler checks the send log first, so a retried job never sends twice. */
+  mail: { name: 'mail-send', retryLimit: 8, retryDelay: 15, retryBackoff: true, expireInSeconds: 120 },
+} as const satisfies Record<string, PgBoss.Queue>;
+
+export type QueueName = keyof typeof QUEUES;
+
+export interface JobInfo {
+  id: string;
+  /** 0 on the first try. */
+  retryCount: number;
+}
+
+export interface JobQueueOptions {
+  connectionString: string;
+  logger: Logger;
+  /** How often an idle worker looks for work (pg-boss allows 0.5 s and more). */
+  pollingIntervalSeconds?: number;
+  /** Overrides of the retry rules (tests use short delays). */
+  retry?: Partial<Record<QueueName, Partial<PgBoss.Queue>>>;
+}
+
+export class JobQueue {
+  private constructor(
+    private readonly boss: PgBoss,
+    private readonly opts: JobQueueOptions,
+  ) {}
+
+  static async start(opts: JobQueueOptions): Promise<JobQueue> {
+    const boss = new PgBoss({ connectionString: opts.connectionString, schema: 'pgboss', max: 3, application_name: 'pullbook-jobs' });
+    // Without a listener a lost connection would be an unhandled 'error' event and end the process.
+    boss.on('error', (err) => opts.logger.error({ err }, 'job queue error'));
+    await boss.start();
+    for (const [key, rule] of Object.entries(QUEUES) as [QueueName, PgBoss.Queue][]) {
+      const queue = { ...rule, ...opts.retry?.[key] };
+      // createQueue is idempotent in effect, but two instances starting at once can race on it.
+      await boss.createQueue(queue.name, queue).catch(async (err) => {
+        if (!(await boss.getQueue(queue.name))) throw err;
+      });
+      await boss.updateQueue(queue.name, queue);
+    }
+    return new JobQueue(boss, opts);
+  }
+
+  /** Queues a job; with `singletonKey`, a second job with the same key is not queued while the first waits. */
+  async send<T extends object>(queue: QueueName, data: T, options: { singletonKey?: string; startAfterSeconds?: number } = {}): Promise<string | null> {
+    return this.boss.send(QUEUES[queue].name, data, { singletonKey: options.singletonKey, startAfter: options.startAfterSeconds });
+  }
+
+  /** Runs `handler` for each job of the queue; a throw marks the try failed and schedules a retry. */
+  async work<T extends object>(queue: QueueName, handler: (data: T, job: JobInfo) => Promise<void>): Promise<string> {
+    return this.boss.work<T>(QUEUES[queue].name, { batchSize: 1, pollingIntervalSeconds: this.opts.pollingIntervalSeconds ?? 2, includeMetadata: true }, async ([job]) => {
+      await handler(job.data, { id: job.id, retryCount: job.retryCount });
+    });
+  }
+
+  /** The state of one job (created, retry, active, completed, failed…), for send logs and tests. */
+  async state(queue: QueueName, id: string): Promise<string | null> {
+    const job = await this.boss.getJobById(QUEUES[queue].name, id);
+    return job?.state ?? null;
+  }
+
+  async stop(): Promise<void> {
+    await this.boss.stop({ graceful: true, wait: true, timeout: 10_000 });
+  }
+}
