@@ -8,6 +8,7 @@ import { healthRoutes } from './health/health.routes';
 import { authRoutes } from './auth/auth.routes';
 import { userRoutes } from './users/user.routes';
 import { shopRoutes } from './shops/shop.routes';
+import { shopLogoRoutes } from './shops/shop-logo.routes';
 import { customerRoutes } from './customers/customer.routes';
 import { bikeRoutes } from './bikes/bike.routes';
 import { auditRoutes } from './audit/audit.routes';
@@ -36,6 +37,7 @@ export function allRouters(deps: AppDeps): ApiRouter[] {
     ...runRoutes(deps),
     ...comparisonRoutes(deps),
     ...reportRoutes(deps),
+    shopLogoRoutes(deps),
     ...buildRoutes(deps),
   ];
 }

@@ -6,7 +6,7 @@ import { applyCorrection } from '@shared/analysis/curve';
 import { correctionFactor } from '@shared/analysis/correction';
 import { Bike } from '@server/modules/bikes/bike.entity';
 import { Run } from '@server/modules/runs/run.entity';
-import { evaluateComparison } from '@server/modules/comparisons/comparison.service';
+import { evaluateComparison } from '@server/modules/comparisons/evaluate-comparison';
 import { toActor } from '@server/modules/auth/auth.service';
 
 let t: TestApp;

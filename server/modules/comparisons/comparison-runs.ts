@@ -9,28 +9,14 @@
  */
 import type { EntityManager } from '@mikro-orm/postgresql';
 import type { Actor } from '../../http/actor';
+import { tenantParams } from '../../http/tenant-scope';
 import type { StoredCurve } from '../runs/run.entity';
 import { preparedQuery as query, type PreparedStatement } from '../../db/prepared-query';
+import { MAX_STAGE_RUNS, type EngineRun } from './engine/types';
 
-/** Runs of one stage considered for its run-to-run spread (newest first). */
-export const MAX_STAGE_RUNS = 12;
-
-export interface RunRow {
-  id: string;
-  label: string | null;
-  sequence: number;
-  status: string;
-  /** Null when the run has none, and for archive rows whose curve the caller did not ask for. */
-  curve: StoredCurve | null;
-  correctionStandard: string | null;
-  correctionFactor: number | null;
-  conditions: Record<string, unknown> | null;
-  identityStatus: string | null;
-  createdAt: Date;
-  bike: { id: string; make: string; model: string; year: number | null };
-  stage: { id: string; name: string; position: number } | null;
-  session: { id: string; startedAt: Date; ambientTempC: number | null; baroKpa: number | null; humidityPct: number | null; dyno: { id: string; name: string } | null } | null;
-}
+export { MAX_STAGE_RUNS } from './engine/types';
+/** A run as a comparison reads it: the engine's plain input. */
+export type RunRow = EngineRun;
 
 interface RunRecord {
   id: string;
@@ -61,7 +47,6 @@ interface RunRecord {
   dyno_name: string | null;
 }
 
-const NO_CUSTOMER = '00000000-0000-0000-0000-000000000000';
 // The ORM's pg connections return timestamps (and, on some paths, json) as text.
 const toDate = (v: string | Date) => (v instanceof Date ? v : new Date(v));
 const jsonOf = <T>(v: unknown): T => (typeof v === 'string' ? (JSON.parse(v) as T) : (v as T));
@@ -167,9 +152,10 @@ function toRunRow(r: RunRecord, curve: StoredCurve | null): RunRow {
  * ready runs of each stage in `stageIds` and (with `wide`) of the stages of `ids`.
  */
 async function loadRows(em: EntityManager, actor: Actor, ids: string[], stageIds: string[], wide: boolean): Promise<RunRow[]> {
-  const values: unknown[] = [actor.shopId, ids, stageIds];
-  const audience = actor.role === 'customer' ? 'customer' : 'staff';
-  if (audience === 'customer') values.push(actor.customerId ?? NO_CUSTOMER);
+  const scope = tenantParams(actor);
+  const values: unknown[] = [scope.shopId, ids, stageIds];
+  const audience = scope.customerId === null ? 'staff' : 'customer';
+  if (scope.customerId !== null) values.push(scope.customerId);
   const records = await query<RunRecord>(em, RUN_ROWS[audience][wide ? 'wide' : 'narrow'], values);
   // Rows read inside a transaction may never be committed: they neither fill nor use the cache.
   const cache = em.isInTransaction() ? null : curveCache;
@@ -197,7 +183,7 @@ async function loadRows(em: EntityManager, actor: Actor, ids: string[], stageIds
     }
   }
   if (missing.length) {
-    for (const c of await query<{ id: string; version: string; curve: unknown }>(em, CURVES, [actor.shopId, missing])) {
+    for (const c of await query<{ id: string; version: string; curve: unknown }>(em, CURVES, [scope.shopId, missing])) {
       const curve = jsonOf<StoredCurve | null>(c.curve);
       cache?.set(c.id, c.version, curve);
       curves.set(c.id, curve);

@@ -3,7 +3,10 @@ import type { AppDeps } from '../../app-deps';
 import { STAFF, WORKSHOP } from '@shared/roles';
 import { idParams } from '@shared/schemas/common';
 import { candidatesQuery, comparisonInput, comparisonListQuery, comparisonPreviewInput, timelineQuery } from '@shared/schemas/comparison';
-import { comparisonCandidates, createComparison, deleteComparison, evaluateComparison, getComparison, listComparisons, stageTimeline } from './comparison.service';
+import { evaluateComparison } from './evaluate-comparison';
+import { createComparison, deleteComparison, getComparison, listComparisons } from './saved-comparisons';
+import { stageTimeline } from './stage-timeline';
+import { comparisonCandidates } from './comparison-candidates';
 
 /**
  * Comparisons: preview (staff), save (staff), read (staff; customers their own bikes, read-only),

@@ -1,6 +1,4 @@
 import { z } from 'zod';
-import multer from 'multer';
-import { randomUUID } from 'node:crypto';
 import type { Response } from 'express';
 import type { Readable } from 'node:stream';
 import { ApiRouter } from '../../http/api-router';
@@ -8,28 +6,14 @@ import type { AppDeps } from '../../app-deps';
 import { STAFF } from '@shared/roles';
 import { idParams, uuid } from '@shared/schemas/common';
 import { reportInput, reportListQuery, sendInput, shareInput } from '@shared/schemas/report';
-import { AppError } from '../../lib/errors';
-import { Shop } from '../shops/shop.entity';
-import { recordAudit } from '../audit/audit.service';
 import type { Report } from './report.entity';
-import {
-  createReport,
-  createShareLink,
-  getReport,
-  listDeliveries,
-  listReports,
-  listShareLinks,
-  pdfFileName,
-  reportPdf,
-  revokeShareLink,
-  sendReport,
-  sharePdf,
-  viewShare,
-} from './report.service';
-import { imageFormatOf } from './pdf/render';
+import { createReport } from './create-report';
+import { getReport, listReports, reportPdf } from './read-reports';
+import { listDeliveries, sendReport } from './send-report';
+import { createShareLink, listShareLinks, revokeShareLink, sharePdf, viewShare } from './share-links';
+import { pdfFileName } from './report-access';
 
 const SENDERS = ['owner', 'desk', 'tuner'] as const;
-export const LOGO_MAX_BYTES = 2 * 1024 * 1024;
 
 export { reportInput, reportListQuery, sendInput, shareInput };
 const shareParams = z.object({ id: uuid, shareId: uuid });
@@ -51,7 +35,7 @@ async function sendPdf(res: Response, report: Report, stream: { body: Readable; 
 
 const clientIp = (ip: string | undefined) => ip ?? 'unknown';
 
-/** Routes of the reports domain: reports, the public share link API and the shop logo. */
+/** Routes of the reports domain: reports and the public share link API (the shop logo is in ../shops). */
 export function reportRoutes(deps: AppDeps): ApiRouter[] {
   const api = new ApiRouter('/api/reports', deps);
   api.route({ method: 'post', path: '/', access: STAFF, summary: 'Generate a gain report (a new version when the comparison already has one)', body: reportInput, status: 201, handler: ({ em, actor, body }) => createReport(deps, em, actor, body) });
@@ -92,69 +76,5 @@ export function reportRoutes(deps: AppDeps): ApiRouter[] {
     },
   });
 
-  const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: LOGO_MAX_BYTES, files: 1, fields: 5 } }).single('logo');
-  const logo = new ApiRouter('/api/shop-logo', deps);
-  logo.route({
-    method: 'post',
-    path: '/',
-    access: ['owner'],
-    summary: 'Upload the shop logo shown on reports (PNG or JPEG, at most 2 MB)',
-    before: [
-      (_req, res, next) => {
-        res.locals.uploadLimitText = '2 MB';
-        next();
-      },
-      upload,
-    ],
-    handler: async ({ em, actor, req }) => {
-      const file = req.file;
-      if (!file) throw new AppError('FILE_REQUIRED', 'Choose a PNG or JPEG image to upload (form field "logo")', 400);
-      const format = imageFormatOf(file.buffer);
-      if (!format) throw new AppError('UNSUPPORTED_IMAGE', 'The logo must be a PNG or JPEG image', 415);
-      const shop = await em.findOneOrFail(Shop, actor.shopId);
-      const key = `shops/${actor.shopId}/logo/${randomUUID()}.${format === 'png' ? 'png' : 'jpg'}`;
-      await deps.storage.put(key, file.buffer, { contentType: format === 'png' ? 'image/png' : 'image/jpeg' });
-      const old = shop.logoKey;
-      shop.logoKey = key;
-      await em.flush();
-      if (old) await deps.storage.delete(old).catch(() => undefined);
-      await recordAudit(em, actor, 'shop.logo', 'shop', shop.id, { bytes: file.size, format });
-      return { hasLogo: true, format, sizeBytes: file.size, url: '/api/shop-logo' };
-    },
-  });
-  logo.route({
-    method: 'get',
-    path: '/',
-    access: STAFF,
-    summary: 'The shop logo image',
-    stream: true,
-    handler: async ({ em, actor, res }) => {
-      const shop = await em.findOneOrFail(Shop, actor.shopId);
-      if (!shop.logoKey) throw new AppError('NOT_FOUND', 'This shop has no logo yet', 404);
-      const { body, contentType } = await deps.storage.getStream(shop.logoKey);
-      res.status(200).type(contentType ?? 'application/octet-stream');
-      res.set('Cache-Control', 'private, max-age=60');
-      await new Promise<void>((resolve, reject) => {
-        body.on('error', reject);
-        res.on('close', () => resolve());
-        body.pipe(res);
-      });
-    },
-  });
-  logo.route({
-    method: 'delete',
-    path: '/',
-    access: ['owner'],
-    summary: 'Remove the shop logo',
-    handler: async ({ em, actor }) => {
-      const shop = await em.findOneOrFail(Shop, actor.shopId);
-      const old = shop.logoKey;
-      shop.logoKey = null;
-      await em.flush();
-      if (old) await deps.storage.delete(old).catch(() => undefined);
-      await recordAudit(em, actor, 'shop.logo.remove', 'shop', shop.id, {});
-    },
-  });
-
-  return [api, share, logo];
+  return [api, share];
 }

@@ -129,6 +129,15 @@ export interface ReportSummary {
   headline: { peakPowerGain: string; areaGain: string } | null;
 }
 
+/** POST /api/reports: the version just generated. */
+export interface ReportCreated {
+  id: string;
+  number: string;
+  version: number;
+  pdfUrl: string;
+  pdfSha256: string;
+}
+
 export interface ReportDetail extends ReportSummary {
   customer: { id: string; name: string; email: string | null };
   data: ReportData;
