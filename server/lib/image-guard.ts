@@ -10,7 +10,7 @@ import { AppError } from './errors';
 export const IMAGE_LIMITS = { maxSide: 2000, maxPixels: 4_000_000 } as const;
 
 export interface ImageInfo {
-  format: 'png' | 'jpeg';
+  format: 'png' | 'jpg';
   width: number;
   height: number;
 }
@@ -20,7 +20,7 @@ export function readImageHeader(bytes: Uint8Array): ImageInfo | null {
   try {
     const { type, width, height } = imageSize(bytes);
     if ((type !== 'png' && type !== 'jpg') || !width || !height) return null;
-    return { format: type === 'png' ? 'png' : 'jpeg', width, height };
+    return { format: type, width, height };
   } catch {
     return null;
   }

@@ -31,7 +31,7 @@ function jpegHeader(width: number, height: number): Buffer {
 describe('image guard', () => {
   it('reads dimensions from PNG and JPEG headers', () => {
     expect(readImageHeader(pngHeader(640, 200))).toEqual({ format: 'png', width: 640, height: 200 });
-    expect(readImageHeader(jpegHeader(1200, 400))).toEqual({ format: 'jpeg', width: 1200, height: 400 });
+    expect(readImageHeader(jpegHeader(1200, 400))).toEqual({ format: 'jpg', width: 1200, height: 400 });
     expect(readImageHeader(Buffer.from('GIF89a not ours'))).toBeNull();
     expect(readImageHeader(Buffer.from('plain text'))).toBeNull();
   });
@@ -46,7 +46,7 @@ describe('image guard', () => {
     expect(withinImageLimits({ width: 2000, height: 2001 })).toBe(false);
     expect(withinImageLimits({ width: 1999, height: 1999 })).toBe(true);
     expect(() => checkUploadedImage(jpegHeader(2400, 300))).toThrow(/2400 × 300 px/);
-    expect(checkUploadedImage(jpegHeader(1600, 900))).toEqual({ format: 'jpeg', width: 1600, height: 900 });
+    expect(checkUploadedImage(jpegHeader(1600, 900))).toEqual({ format: 'jpg', width: 1600, height: 900 });
   });
 
   it('answers 415 for something that is not a PNG or JPEG', () => {

@@ -10,7 +10,7 @@ import type { AppDeps } from '../../app-deps';
 import { AppError } from '../../lib/errors';
 import { recordAudit } from '../audit/audit.service';
 import { Shop } from './shop.entity';
-import { imageFormatOf } from './logo-image';
+import { checkUploadedImage } from '../../lib/image-guard';
 
 /** POST /api/shop-logo's answer. */
 export interface ShopLogoDto {
@@ -23,8 +23,8 @@ export interface ShopLogoDto {
 /** Stores a new logo and points the shop at it; the old image is deleted once the change committed. */
 export async function uploadShopLogo(deps: AppDeps, em: EntityManager, actor: Actor, file: { buffer: Buffer; size: number } | undefined): Promise<ShopLogoDto> {
   if (!file) throw new AppError('FILE_REQUIRED', 'Choose a PNG or JPEG image to upload (form field "logo")', 400);
-  const format = imageFormatOf(file.buffer);
-  if (!format) throw new AppError('UNSUPPORTED_IMAGE', 'The logo must be a PNG or JPEG image', 415);
+  // Judged from the header alone: an image claiming huge dimensions is refused before anything decodes it.
+  const { format, width, height } = checkUploadedImage(file.buffer);
   const key = `shops/${actor.shopId}/logo/${randomUUID()}.${format === 'png' ? 'png' : 'jpg'}`;
   await deps.storage.put(key, file.buffer, { contentType: format === 'png' ? 'image/png' : 'image/jpeg' });
   let old: string | null;
@@ -34,7 +34,7 @@ export async function uploadShopLogo(deps: AppDeps, em: EntityManager, actor: Ac
       const previous = shop.logoKey;
       shop.logoKey = key;
       await tx.flush();
-      await recordAudit(tx, actor, 'shop.logo', 'shop', shop.id, { bytes: file.size, format });
+      await recordAudit(tx, actor, 'shop.logo', 'shop', shop.id, { bytes: file.size, format, width, height });
       return previous;
     });
   } catch (e) {
