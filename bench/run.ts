@@ -14,6 +14,7 @@ const BENCHES: { name: string; load: () => Promise<{ run: () => Promise<void> }>
   { name: 'gain-report PDF', load: () => import('./report.bench.js') },
   { name: 'run upload', load: () => import('./upload.bench.js') },
   { name: 'comparison preview', load: () => import('./comparison.bench.js') },
+  { name: 'archive scale (everyday pages)', load: () => import('./scale.bench.js') },
 ];
 
 const only = process.argv.slice(2);

@@ -8,6 +8,8 @@ export interface LoadResult {
   errors: number;
   medianMs: number;
   p95Ms: number;
+  /** Every response's time in ms, ascending. */
+  times: number[];
 }
 
 /**
@@ -26,5 +28,5 @@ export async function loadTest(options: Omit<autocannon.Options, 'requests' | 's
     worker.once('error', reject);
   });
   times.sort((a, b) => a - b);
-  return { requests: times.length, errors, medianMs: percentile(times, 0.5), p95Ms: percentile(times, 0.95) };
+  return { requests: times.length, errors, medianMs: percentile(times, 0.5), p95Ms: percentile(times, 0.95), times };
 }
