@@ -8,7 +8,7 @@ import { SAFETY_CHECKS } from '@shared/schemas/run';
 import { Run } from '@server/modules/runs/run.entity';
 import { OrphanObject } from '@server/lib/storage/orphan-object.entity';
 import { reconcileOrphanObjects } from '@server/modules/runs/orphan-reconcile';
-import { rawKeyFor } from '@server/modules/runs/run-ingest';
+import { rawKeyFor } from '@server/modules/runs/raw-store';
 import { importFolder, reprocessAll } from '@server/modules/runs/run-cli';
 import { Stage } from '@server/modules/stages/stage.entity';
 import os from 'node:os';
