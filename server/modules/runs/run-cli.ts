@@ -68,10 +68,10 @@ export async function reprocessAll(deps: AppDeps, onLine: (line: ReprocessLine) 
     if (!actors.has(shopId)) actors.set(shopId, ownerActor(deps, shopId));
     return actors.get(shopId)!;
   };
-  let lastId = '00000000-0000-0000-0000-000000000000';
+  let lastId: string | null = null; // keyset paging by id
   for (;;) {
     const em = deps.orm.em.fork();
-    const batch = await em.find(Run, { id: { $gt: lastId } }, { orderBy: { id: 'asc' }, limit: 100 });
+    const batch: Run[] = await em.find(Run, lastId ? { id: { $gt: lastId } } : {}, { orderBy: { id: 'asc' }, limit: 100 });
     if (!batch.length) break;
     for (const run of batch) {
       lastId = run.id;
