@@ -20,7 +20,7 @@ import { User } from '../modules/users/user.entity';
 import { DynoSession } from '../modules/sessions/dyno-session.entity';
 import { Part, Stage } from '../modules/stages/stage.entity';
 import { Run } from '../modules/runs/run.entity';
-import { ingestFiles, type IncomingFile } from '../modules/runs/run-ingest';
+import { ingestFiles, type IncomingFile } from '../modules/runs/upload-runs';
 import { refreshBikeOutcomes } from '../modules/builds/build-outcome.service';
 import { createComparison } from '../modules/comparisons/comparison.service';
 import { createReport } from '../modules/reports/report.service';

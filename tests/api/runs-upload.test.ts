@@ -9,7 +9,7 @@ import { createTestApp, TEST_PASSWORD, type TestApp, type TestShop } from '../su
 import { download, runFile as file, sha256Hex as sha, uploadRuns as upload, type Agent } from '../support/run-fixtures';
 import { largeRunFileChunks } from '@server/db/synthetic-runs';
 import { Run } from '@server/modules/runs/run.entity';
-import { rawKeyFor } from '@server/modules/runs/run-ingest';
+import { rawKeyFor } from '@server/modules/runs/raw-store';
 
 /**
  * The upload route's temporary files (multer disk storage in UPLOAD_TMP_DIR, one folder for this

@@ -8,7 +8,7 @@ import { SAFETY_CHECKS } from '@shared/schemas/run';
 import { Run } from '@server/modules/runs/run.entity';
 import { OrphanObject } from '@server/lib/storage/orphan-object.entity';
 import { reconcileOrphanObjects } from '@server/modules/runs/orphan-reconcile';
-import { rawKeyFor } from '@server/modules/runs/run-ingest';
+import { rawKeyFor } from '@server/modules/runs/raw-store';
 import { importFolder, reprocessAll } from '@server/modules/runs/run-cli';
 import { Stage } from '@server/modules/stages/stage.entity';
 import os from 'node:os';
@@ -338,6 +338,30 @@ describe('list, edit, delete, roles and tenants', () => {
     expect(audit.body.some((e: { action: string }) => e.action === 'column-layout.create')).toBe(true);
   });
 
+  it('hides deleted runs from staff when includeDeleted=false (the text "false" means false)', async () => {
+    const up = await upload(tuner, a.otherBike.id, [{ name: 'deleted-listing.csv', bytes: file(4242) }]);
+    expect(up.status).toBe(201);
+    const id = up.body.results[0].run.id;
+    expect((await owner.delete(`/api/runs/${id}`)).status).toBe(200);
+    try {
+      const q = { q: 'deleted-listing.csv' };
+      expect((await owner.get('/api/runs').query({ ...q, includeDeleted: 'true' })).body.items.map((r: { id: string }) => r.id)).toEqual([id]);
+      for (const flag of ['false', '0', 'no']) {
+        const res = await owner.get('/api/runs').query({ ...q, includeDeleted: flag });
+        expect(res.status).toBe(200);
+        expect(res.body).toMatchObject({ items: [], total: 0 });
+      }
+      // Only an owner may list deleted runs; other staff never see them, whatever they ask.
+      for (const agent of [tuner, desk]) {
+        expect((await agent.get('/api/runs').query({ ...q, includeDeleted: 'false' })).body.items).toEqual([]);
+        expect((await agent.get('/api/runs').query({ ...q, includeDeleted: 'true' })).body.items).toEqual([]);
+      }
+      expect((await owner.get('/api/runs').query({ ...q, includeDeleted: 'maybe' })).status).toBe(400);
+    } finally {
+      await owner.post(`/api/runs/${id}/restore`);
+    }
+  });
+
   it('lets a customer read only their own bikes’ runs, never the raw file', async () => {
     const own = await customer.get('/api/runs').query({ pageSize: 200 });
     expect(own.status).toBe(200);
@@ -381,6 +405,8 @@ describe('command-line pipeline (import and reprocess)', () => {
       fs.writeFileSync(path.join(dir, 'broken.csv'), Buffer.from('Engine Speed [rpm],Torque [lb-ft]\n'));
       const out = await importFolder(t.deps, { bikeId: a.otherBike.id, stageName: 'Imported baseline', dir });
       expect(out.created).toBe(true);
+      const stageAudit = (await owner.get('/api/audit').query({ limit: 500 })).body.filter((e: { action: string; entityId: string }) => e.action === 'stage.create' && e.entityId === out.stageId);
+      expect(stageAudit).toMatchObject([{ userName: a.users.owner.name, details: { via: 'command line import', name: 'Imported baseline' } }]);
       expect(out.results.map((r) => [r.file, r.ok])).toEqual([['broken.csv', false], ['old-1.csv', true], ['old-2.csv', true]]);
       const stage = await t.deps.orm.em.fork().findOneOrFail(Stage, { id: out.stageId });
       expect(stage.name).toBe('Imported baseline');
@@ -414,5 +440,10 @@ describe('command-line pipeline (import and reprocess)', () => {
     expect(changed.find((l) => l.runId === victim.id)!.changes).toEqual([{ field: 'peakPowerHp', before: 1, after: Number(truePeak.toFixed(2)) }]);
     const fixed = await t.deps.orm.em.fork().findOneOrFail(Run, { id: victim.id });
     expect(fixed.peakPowerHp).toBeCloseTo(truePeak, 9);
+    // The command line acts as the shop's owner: the change is in the audit log under their name.
+    const audit = await owner.get('/api/audit').query({ limit: 500 });
+    const entries = audit.body.filter((e: { action: string; entityId: string; details: { via?: string } | null }) => e.action === 'run.reprocess' && e.entityId === victim.id && e.details?.via === 'command line');
+    expect(entries).toHaveLength(1);
+    expect(entries[0]).toMatchObject({ userName: a.users.owner.name, details: { via: 'command line', changes: [{ field: 'peakPowerHp', before: 1, after: Number(truePeak.toFixed(2)) }] } });
   });
 });

@@ -7,6 +7,11 @@
  * fall back to the local services of `npm start` (which must be running): PostgreSQL at
  * postgres://pullbook@127.0.0.1:55432/pullbook, the S3 fake at http://127.0.0.1:45680 (keys
  * S3RVER/S3RVER, bucket pullbook), SMTP at smtp://127.0.0.1:25250 and a dummy session secret.
+ *
+ * Who acts: the command line has no signed-in user, so it acts as the shop's first active owner
+ * (the person answerable for the archive). Its audit lines name that owner and say
+ * `via: 'command line'` (or `'command line import'`); each commits with the change it records.
+ * A shop without an active owner cannot be changed from the command line.
  */
 import fs from 'node:fs';
 import path from 'node:path';
@@ -14,14 +19,14 @@ import { loadConfig, type AppConfig } from '../../config/env';
 import type { AppDeps } from '../../app-deps';
 import type { Actor } from '../../http/actor';
 import type { UploadResult } from '@shared/schemas/run';
-import { AuditEntry } from '../audit/audit-entry.entity';
-import { Shop } from '../shops/shop.entity';
+import { recordAudit } from '../audit/audit.service';
 import { Bike } from '../bikes/bike.entity';
 import { User } from '../users/user.entity';
 import { Stage } from '../stages/stage.entity';
 import { Run } from './run.entity';
-import { reprocessRun } from './run-actions';
-import { ingestFiles, type IncomingFile } from './run-ingest';
+import { reprocessRun } from './reprocess-run';
+import { ingestFiles } from './upload-runs';
+import type { IncomingFile } from './raw-store';
 import { refreshBikeOutcomes } from '../builds/build-outcome.service';
 
 export const LOCAL_DEFAULTS: Record<string, string> = {
@@ -58,21 +63,24 @@ export interface ReprocessLine {
 export async function reprocessAll(deps: AppDeps, onLine: (line: ReprocessLine) => void = () => undefined): Promise<ReprocessLine[]> {
   const lines: ReprocessLine[] = [];
   const bikes = new Set<string>();
-  let lastId = '00000000-0000-0000-0000-000000000000';
+  const actors = new Map<string, Promise<Actor>>();
+  const actorOf = (shopId: string) => {
+    if (!actors.has(shopId)) actors.set(shopId, ownerActor(deps, shopId));
+    return actors.get(shopId)!;
+  };
+  let lastId: string | null = null; // keyset paging by id
   for (;;) {
     const em = deps.orm.em.fork();
-    const batch = await em.find(Run, { id: { $gt: lastId } }, { orderBy: { id: 'asc' }, limit: 100 });
+    const batch: Run[] = await em.find(Run, lastId ? { id: { $gt: lastId } } : {}, { orderBy: { id: 'asc' }, limit: 100 });
     if (!batch.length) break;
     for (const run of batch) {
       lastId = run.id;
       let line: ReprocessLine;
       try {
-        const changes = await reprocessRun(em, deps, null, run);
-        if (changes.length) {
-          em.create(AuditEntry, { shop: em.getReference(Shop, run.shop.id), user: null, action: 'run.reprocess', entityType: 'run', entityId: run.id, details: { via: 'command line', changes: changes.map((c) => ({ ...c })) } } as unknown as AuditEntry);
-          await em.flush();
-          bikes.add(run.bike.id);
-        }
+        const actor = await actorOf(run.shop.id);
+        // Only a change is audited: a pass over an unchanged archive leaves no trail of no-ops.
+        const changes = await reprocessRun(em, deps, actor, run, { details: { via: 'command line' }, auditUnchanged: false });
+        if (changes.length) bikes.add(run.bike.id);
         line = { runId: run.id, file: run.originalName, status: run.status, changes };
       } catch (e) {
         line = { runId: run.id, file: run.originalName, status: run.status, changes: [], error: e instanceof Error ? e.message : String(e) };
@@ -85,10 +93,10 @@ export async function reprocessAll(deps: AppDeps, onLine: (line: ReprocessLine) 
   return lines;
 }
 
-/** The shop's first owner, acting for the command line (uploads and the audit log name them). */
-async function ownerActor(deps: AppDeps, shopId: string): Promise<Actor> {
+/** The shop's first active owner, acting for the command line (uploads and the audit log name them). */
+export async function ownerActor(deps: AppDeps, shopId: string): Promise<Actor> {
   const owner = await deps.orm.em.fork().findOne(User, { shop: shopId, role: 'owner', disabled: false }, { orderBy: { createdAt: 'asc' } });
-  if (!owner) throw new Error('The bike’s shop has no owner account to act as');
+  if (!owner) throw new Error('The shop has no active owner account for the command line to act as');
   return { id: owner.id, shopId, role: 'owner', email: owner.email, name: owner.name, customerId: null };
 }
 
@@ -106,11 +114,13 @@ export async function importFolder(deps: AppDeps, opts: { bikeId: string; stageN
   let stage = await em.findOne(Stage, { bike: bike.id, name: opts.stageName });
   const created = !stage;
   if (!stage) {
-    const last = await em.findOne(Stage, { bike: bike.id }, { orderBy: { position: 'desc' } });
-    stage = em.create(Stage, { shop: bike.shop, bike, name: opts.stageName, position: last ? last.position + 1 : 0 } as Stage);
-    await em.flush();
-    em.create(AuditEntry, { shop: bike.shop, user: em.getReference(User, actor.id), action: 'stage.create', entityType: 'stage', entityId: stage.id, details: { via: 'command line import', name: stage.name } } as unknown as AuditEntry);
-    await em.flush();
+    stage = await em.transactional(async (tem) => {
+      const last = await tem.findOne(Stage, { bike: bike.id }, { orderBy: { position: 'desc' } });
+      const created = tem.create(Stage, { shop: bike.shop, bike, name: opts.stageName, position: last ? last.position + 1 : 0 } as Stage);
+      await tem.flush();
+      await recordAudit(tem, actor, 'stage.create', 'stage', created.id, { via: 'command line import', name: created.name });
+      return created;
+    });
   }
   const names = fs
     .readdirSync(opts.dir, { withFileTypes: true })

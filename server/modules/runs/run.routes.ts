@@ -2,12 +2,29 @@ import { z } from 'zod';
 import { ApiRouter } from '../../http/api-router';
 import type { AppDeps } from '../../app-deps';
 import { STAFF, WORKSHOP } from '@shared/roles';
-import { idParams, uuid } from '@shared/schemas/common';
-import { applyMappingInput, runListQuery, runUpdateInput, type UploadResponse } from '@shared/schemas/run';
+import { idParams, uuid, type Page } from '@shared/schemas/common';
+import {
+  applyMappingInput,
+  runListQuery,
+  runUpdateInput,
+  type ColumnLayoutDto,
+  type RunDetailDto,
+  type RunPreviewDto,
+  type RunReprocessDto,
+  type RunSummaryDto,
+  type UploadResponse,
+} from '@shared/schemas/run';
 import { removeUploadedFiles, runFilesUpload, uploadedFiles } from '../../middleware/upload';
-import { deleteLayout, deleteRun, listLayouts, listRuns, restoreRun, runDetail, updateRun } from './run.service';
-import { ingestFiles } from './run-ingest';
-import { applyMapping, rawFile, reprocessRunById, runPreview } from './run-actions';
+import { ingestFiles } from './upload-runs';
+import { listRuns } from './list-runs';
+import { runDetail } from './get-run';
+import { updateRun } from './update-run';
+import { deleteRun, restoreRun } from './delete-restore-run';
+import { applyMapping } from './apply-mapping';
+import { reprocessRunById } from './reprocess-run';
+import { runPreview } from './run-preview';
+import { contentDisposition, rawFile } from './raw-file';
+import { deleteLayout, listLayouts } from './column-layouts';
 import './orphan-reconcile';
 
 const blankToUndefined = (v: unknown) => (v === '' || v === null ? undefined : v);
@@ -17,12 +34,6 @@ const uploadFields = z.object({
   sessionId: z.preprocess(blankToUndefined, uuid.optional()),
   stageId: z.preprocess(blankToUndefined, uuid.optional()),
 });
-
-/** Content-Disposition with a plain fallback and the UTF-8 name (RFC 6266 / RFC 8187). */
-function contentDisposition(name: string) {
-  const fallback = name.replace(/[^\x20-\x7e]|["\\]/g, '_');
-  return `attachment; filename="${fallback}"; filename*=UTF-8''${encodeURIComponent(name)}`;
-}
 
 /** Routes of the runs domain, and the shop's saved column layouts. */
 export function runRoutes(deps: AppDeps): ApiRouter[] {
@@ -45,10 +56,15 @@ export function runRoutes(deps: AppDeps): ApiRouter[] {
       }
     },
   });
-  api.route({ method: 'get', path: '/', access: 'signed-in', summary: 'Runs the caller may see (filter, sort, page)', query: runListQuery, handler: ({ em, actor, query }) => {
-    return listRuns(em, actor, query);
-  } });
-  api.route({ method: 'get', path: '/:id', access: 'signed-in', summary: 'One run with its curve', params: idParams, handler: ({ em, actor, params }) => runDetail(em, actor, params.id) });
+  api.route({
+    method: 'get',
+    path: '/',
+    access: 'signed-in',
+    summary: 'Runs the caller may see (filter, sort, page)',
+    query: runListQuery,
+    handler: ({ em, actor, query }): Promise<Page<RunSummaryDto>> => listRuns(em, actor, query),
+  });
+  api.route({ method: 'get', path: '/:id', access: 'signed-in', summary: 'One run with its curve', params: idParams, handler: ({ em, actor, params }): Promise<RunDetailDto> => runDetail(em, actor, params.id) });
   api.route({
     method: 'get',
     path: '/:id/raw',
@@ -56,6 +72,7 @@ export function runRoutes(deps: AppDeps): ApiRouter[] {
     summary: 'The original file, byte for byte',
     params: idParams,
     stream: true,
+    headers: { 'Cache-Control': 'private, no-store' },
     handler: async ({ em, actor, params, res, deps: d }) => {
       const { run, obj } = await rawFile(em, d, actor, params.id);
       res.status(200);
@@ -63,7 +80,6 @@ export function runRoutes(deps: AppDeps): ApiRouter[] {
       res.set('Content-Disposition', contentDisposition(run.originalName));
       res.set('Content-Length', String(obj.contentLength ?? run.rawSizeBytes));
       res.set('X-Content-SHA256', run.rawSha256);
-      res.set('Cache-Control', 'private, no-store');
       await new Promise<void>((resolve) => {
         obj.body.once('error', (err) => {
           console.error(`[pullbook] reading ${run.rawKey} failed mid-download:`, err);
@@ -73,18 +89,17 @@ export function runRoutes(deps: AppDeps): ApiRouter[] {
         res.once('close', () => resolve());
         obj.body.pipe(res);
       });
-      return undefined;
     },
   });
-  api.route({ method: 'patch', path: '/:id', access: WORKSHOP, summary: 'Edit a run’s stage, label, tags and note', params: idParams, body: runUpdateInput, handler: ({ em, actor, params, body }) => updateRun(em, actor, params.id, body) });
-  api.route({ method: 'delete', path: '/:id', access: ['owner'], summary: 'Soft-delete a run', params: idParams, handler: ({ em, actor, params }) => deleteRun(em, actor, params.id) });
-  api.route({ method: 'post', path: '/:id/restore', access: ['owner'], summary: 'Restore a deleted run', params: idParams, handler: ({ em, actor, params }) => restoreRun(em, actor, params.id) });
-  api.route({ method: 'get', path: '/:id/preview', access: STAFF, summary: 'First rows of the raw file, for the mapping dialog', params: idParams, handler: ({ em, actor, params, deps: d }) => runPreview(em, d, actor, params.id) });
-  api.route({ method: 'post', path: '/:id/mapping', access: WORKSHOP, summary: 'Map columns by hand and re-analyse (optionally save the layout)', params: idParams, body: applyMappingInput, handler: ({ em, actor, params, body, deps: d }) => applyMapping(em, d, actor, params.id, body) });
-  api.route({ method: 'post', path: '/:id/reprocess', access: WORKSHOP, summary: 'Re-derive a run from its raw file', params: idParams, handler: ({ em, actor, params, deps: d }) => reprocessRunById(em, d, actor, params.id) });
+  api.route({ method: 'patch', path: '/:id', access: WORKSHOP, summary: 'Edit a run’s stage, label, tags and note', params: idParams, body: runUpdateInput, handler: ({ em, actor, params, body }): Promise<RunDetailDto> => updateRun(em, actor, params.id, body) });
+  api.route({ method: 'delete', path: '/:id', access: ['owner'], summary: 'Soft-delete a run', params: idParams, handler: ({ em, actor, params }): Promise<RunSummaryDto> => deleteRun(em, actor, params.id) });
+  api.route({ method: 'post', path: '/:id/restore', access: ['owner'], summary: 'Restore a deleted run', params: idParams, handler: ({ em, actor, params }): Promise<RunSummaryDto> => restoreRun(em, actor, params.id) });
+  api.route({ method: 'get', path: '/:id/preview', access: STAFF, summary: 'First rows of the raw file, for the mapping dialog', params: idParams, handler: ({ em, actor, params, deps: d }): Promise<RunPreviewDto> => runPreview(em, d, actor, params.id) });
+  api.route({ method: 'post', path: '/:id/mapping', access: WORKSHOP, summary: 'Map columns by hand and re-analyse (optionally save the layout)', params: idParams, body: applyMappingInput, handler: ({ em, actor, params, body, deps: d }): Promise<RunDetailDto> => applyMapping(em, d, actor, params.id, body) });
+  api.route({ method: 'post', path: '/:id/reprocess', access: WORKSHOP, summary: 'Re-derive a run from its raw file', params: idParams, handler: ({ em, actor, params, deps: d }): Promise<RunReprocessDto> => reprocessRunById(em, d, actor, params.id) });
 
   const layouts = new ApiRouter('/api/column-layouts', deps);
-  layouts.route({ method: 'get', path: '/', access: STAFF, summary: 'Saved column layouts', handler: ({ em, actor }) => listLayouts(em, actor) });
-  layouts.route({ method: 'delete', path: '/:id', access: WORKSHOP, summary: 'Forget a saved column layout', params: idParams, handler: ({ em, actor, params }) => deleteLayout(em, actor, params.id) });
+  layouts.route({ method: 'get', path: '/', access: STAFF, summary: 'Saved column layouts', handler: ({ em, actor }): Promise<ColumnLayoutDto[]> => listLayouts(em, actor) });
+  layouts.route({ method: 'delete', path: '/:id', access: WORKSHOP, summary: 'Forget a saved column layout', params: idParams, handler: ({ em, actor, params }): Promise<void> => deleteLayout(em, actor, params.id) });
   return [api, layouts];
 }

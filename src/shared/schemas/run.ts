@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import type { ApiErrorCode } from '../errors';
 import { listQuery, optionalNumber, optionalText, queryBoolean, uuid } from './common';
 import { HEAD_WORK_LEVELS, PART_CATEGORIES, type HeadWorkLevel, type PartCategory } from '../parts';
 
@@ -163,7 +164,7 @@ export interface RunSummaryDto {
   correctionStandard: CorrectionId | null;
   correctionFactor: number | null;
   warnings: RunWarning[];
-  error: { code: string; message: string } | null;
+  error: { code: ApiErrorCode; message: string } | null;
   tags: string[];
   note: string | null;
   isReference: boolean;
@@ -183,9 +184,51 @@ export interface RunDetailDto extends RunSummaryDto {
   /** Present when status is needs-mapping: headers, preview rows and suggestions. */
   mappingHelp: { headers: string[]; previewRows: string[][]; suggestions: Record<string, unknown> } | null;
 }
+/**
+ * Why a file could not be read or saved; the run (when one was kept) still lists it. The server
+ * answers an ApiErrorCode; the upload screen also files its own transport failures (a cancelled
+ * or broken upload) under codes of its own, hence the wider type.
+ */
+export interface RunFileError {
+  code: ApiErrorCode | (string & {});
+  message: string;
+  details?: unknown;
+}
 export type UploadResult =
-  | { file: string; ok: true; duplicate?: boolean; run: RunSummaryDto }
-  | { file: string; ok: false; error: { code: string; message: string; details?: unknown }; runId?: string };
+  | { file: string; ok: true; duplicate?: boolean; message?: string; run: RunSummaryDto }
+  | { file: string; ok: false; error: RunFileError; runId?: string };
 export interface UploadResponse {
   results: UploadResult[];
+}
+/** One field a re-processing changed (figures rounded as shown; warnings and error by code). */
+export interface RunChangeDto {
+  field: string;
+  before: unknown;
+  after: unknown;
+}
+/** A re-processed run and what changed. */
+export interface RunReprocessDto extends RunDetailDto {
+  changes: RunChangeDto[];
+}
+/** The first rows of a run's raw file, for the mapping dialog. */
+export interface RunPreviewDto {
+  runId: string;
+  originalName: string;
+  status: RunStatusId;
+  headers: string[];
+  previewRows: string[][];
+  suggestions: Record<string, unknown>;
+  headerSignature: string | null;
+  /** Roles the mapping must name (rpm, torque or power) when known. */
+  needs: string[];
+  /** The mapping last used, if any. */
+  mapping: Record<string, unknown> | null;
+}
+/** A column mapping the shop saved for a file layout. */
+export interface ColumnLayoutDto {
+  id: string;
+  name: string;
+  headerSignature: string;
+  mapping: Record<string, unknown>;
+  createdAt: string;
 }

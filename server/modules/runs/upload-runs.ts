@@ -1,0 +1,191 @@
+/**
+ * The upload pipeline, shared by the API, the import command line and the demo archive:
+ * streamed SHA-256 → duplicate check per bike → raw bytes to object storage FIRST → analysis →
+ * one database transaction per file (its runs and their audit lines). A file that fails analysis
+ * is still stored and listed ("nothing is lost").
+ *
+ * One analysed file gives a list of outcomes (`analyseUpload`) and each outcome becomes a run
+ * pointing at the same stored raw file; today the list has one element.
+ */
+import type { EntityManager } from '@mikro-orm/postgresql';
+import { UniqueConstraintViolationException } from '@mikro-orm/core';
+import type { AppDeps } from '../../app-deps';
+import type { Actor } from '../../http/actor';
+import { AppError, conflict, notFound } from '../../lib/errors';
+import { discardObject } from '../../lib/storage/discard-object';
+import type { RunFileError, UploadResult } from '@shared/schemas/run';
+import { Run } from './run.entity';
+import { Bike } from '../bikes/bike.entity';
+import { Shop } from '../shops/shop.entity';
+import { Stage } from '../stages/stage.entity';
+import { User } from '../users/user.entity';
+import { DynoSession } from '../sessions/dyno-session.entity';
+import { recordAudit } from '../audit/audit.service';
+import { RUN_POPULATE, toRunSummaries } from './run-dto';
+import { putRawFile, rawKeyFor, sha256Of, type IncomingFile } from './raw-store';
+import { analyseUpload, analysisContext, shopLayouts, type AnalysisOutcome } from './run-analysis';
+import { applyOutcome } from './run-outcome';
+import { nextSequence } from './run-sequence';
+
+export type { IncomingFile } from './raw-store';
+
+export interface IngestTarget {
+  bikeId: string;
+  sessionId?: string | null;
+  stageId?: string | null;
+}
+
+type Target = Awaited<ReturnType<typeof loadTarget>>;
+
+/** Loads and checks the upload target: bike of the shop, session of that bike (safety confirmed), stage of that bike. */
+export async function loadTarget(em: EntityManager, actor: Actor, target: IngestTarget) {
+  const bike = await em.findOne(Bike, { id: target.bikeId, shop: actor.shopId }, { populate: ['customer', 'shop'] });
+  if (!bike) throw notFound('Bike');
+  let session: DynoSession | null = null;
+  if (target.sessionId) {
+    session = await em.findOne(DynoSession, { id: target.sessionId, shop: actor.shopId });
+    if (!session) throw notFound('Session');
+    if (session.bike.id !== bike.id) throw new AppError('SESSION_OTHER_BIKE', 'That session belongs to another bike', 400);
+    if (!session.safetyConfirmedAt) {
+      throw conflict('SAFETY_CHECK_REQUIRED', 'Confirm the dyno-bay safety checklist for this session before the first upload (restraints, cooling fan, extraction, hearing protection, nobody in line with the roller, extinguisher at hand).', { sessionId: session.id });
+    }
+  }
+  let stage: Stage | null = null;
+  if (target.stageId) {
+    stage = await em.findOne(Stage, { id: target.stageId, shop: actor.shopId, bike: bike.id });
+    if (!stage) throw notFound('Stage');
+  }
+  return { bike, session, stage };
+}
+
+/** The stored raw file that the runs of one upload point at. */
+interface StoredFile {
+  file: IncomingFile;
+  key: string;
+  sha256: string;
+  size: number;
+}
+
+/**
+ * Saves one run per outcome of a stored file, with their audit lines, in one transaction.
+ * Answers the run ids in outcome order.
+ */
+async function saveRuns(em: EntityManager, actor: Actor, { bike, session, stage }: Target, stored: StoredFile, outcomes: AnalysisOutcome[]): Promise<string[]> {
+  return em.transactional(async (tem) => {
+    const ids: string[] = [];
+    for (const outcome of outcomes) {
+      const run = tem.create(Run, {
+        shop: tem.getReference(Shop, actor.shopId),
+        bike: tem.getReference(Bike, bike.id),
+        session: session ? tem.getReference(DynoSession, session.id) : null,
+        stage: stage ? tem.getReference(Stage, stage.id) : null,
+        sequence: await nextSequence(tem, bike.id, session?.id ?? null),
+        rawKey: stored.key,
+        rawSha256: stored.sha256,
+        rawSizeBytes: stored.size,
+        originalName: stored.file.originalName,
+        contentType: stored.file.contentType,
+        uploadedBy: tem.getReference(User, actor.id),
+        tags: [],
+      } as unknown as Run);
+      applyOutcome(run, outcome);
+      await tem.flush();
+      await recordAudit(tem, actor, 'run.upload', 'run', run.id, { file: stored.file.originalName, sha256: stored.sha256, status: run.status, bikeId: bike.id, sessionId: session?.id ?? null });
+      ids.push(run.id);
+    }
+    return ids;
+  });
+}
+
+/** Per file, before the summaries are read: a run to answer with, or a finished result. */
+type Pending = { kind: 'run'; file: string; runId: string; duplicate: boolean } | { kind: 'done'; result: UploadResult };
+
+const resultOfError = (file: string, error: RunFileError, runId?: string): UploadResult => ({ file, ok: false, error, ...(runId ? { runId } : {}) });
+
+/** The outcome of a stored file whose runs committed: the first run answers for the file. */
+function pendingOfSaved(file: string, runIds: string[], outcomes: AnalysisOutcome[]): Pending {
+  const [runId] = runIds;
+  const [outcome] = outcomes;
+  return outcome.status === 'ready' ? { kind: 'run', file, runId, duplicate: false } : { kind: 'done', result: resultOfError(file, outcome.error!, runId) };
+}
+
+/**
+ * Ingest files for one bike (and optionally a session and a stage). Answers one result per file,
+ * in order. Throws 503 STORAGE_UNAVAILABLE, writing nothing, when storage cannot be reached.
+ */
+export async function ingestFiles(em: EntityManager, deps: AppDeps, actor: Actor, target: IngestTarget, files: IncomingFile[]): Promise<UploadResult[]> {
+  const loaded = await loadTarget(em, actor, target);
+  const { bike, session } = loaded;
+  if (!files.length) throw new AppError('NO_FILES', 'Add at least one run file (field "files")', 400);
+  try {
+    await deps.storage.ping();
+  } catch (err) {
+    throw new AppError('STORAGE_UNAVAILABLE', 'File storage is not reachable right now; nothing was saved. Try again shortly.', 503, { cause: err instanceof Error ? err.name : String(err) });
+  }
+  const ctx = analysisContext(session, bike.shop);
+  const layouts = await shopLayouts(em, actor.shopId);
+  // One pass over each file (streamed from disk for temporary files), for the duplicate check.
+  const hashes: string[] = [];
+  for (const f of files) hashes.push(await sha256Of(f));
+  const existing = await em.find(Run, { bike: bike.id, rawSha256: { $in: [...new Set(hashes)] } }, { fields: ['id', 'rawSha256', 'deletedAt'] });
+  const known = new Map(existing.map((r) => [r.rawSha256, r.id]));
+
+  const pending: Pending[] = [];
+  let stored = 0;
+  for (let i = 0; i < files.length; i++) {
+    const f = files[i];
+    const sha = hashes[i];
+    const dupId = known.get(sha);
+    if (dupId) {
+      pending.push({ kind: 'run', file: f.originalName, runId: dupId, duplicate: true });
+      continue;
+    }
+    const key = rawKeyFor(actor.shopId, bike.id, sha);
+    let size: number;
+    try {
+      size = await putRawFile(deps, key, f);
+    } catch (err) {
+      if (stored === 0) throw err; // nothing written yet: the whole request answers 503
+      const e = err instanceof AppError ? err : new AppError('STORAGE_UNAVAILABLE', 'File storage failed', 503);
+      pending.push({ kind: 'done', result: resultOfError(f.originalName, { code: e.code, message: e.message }) });
+      continue;
+    }
+    const outcomes = await analyseUpload(f.path !== undefined ? { path: f.path } : f.bytes, ctx, layouts);
+    try {
+      const runIds = await saveRuns(em, actor, loaded, { file: f, key, sha256: sha, size }, outcomes);
+      stored++;
+      known.set(sha, runIds[0]);
+      pending.push(pendingOfSaved(f.originalName, runIds, outcomes));
+    } catch (err) {
+      if (err instanceof UniqueConstraintViolationException) {
+        // The same file arrived at the same moment in another request: it is in the archive.
+        const other = await em.fork().findOne(Run, { bike: bike.id, rawSha256: sha });
+        if (other) {
+          known.set(sha, other.id);
+          pending.push({ kind: 'run', file: f.originalName, runId: other.id, duplicate: true });
+          continue;
+        }
+      }
+      const why = (err instanceof Error ? err.message : String(err)).split(' - ').pop()!.slice(0, 300);
+      const fate = await discardObject(deps, key, `run row for ${f.originalName} did not commit: ${why}`);
+      console.error(`[pullbook] saving run ${f.originalName} failed (object ${fate}): ${why}`);
+      pending.push({ kind: 'done', result: resultOfError(f.originalName, { code: 'SAVE_FAILED', message: 'The file could not be saved in the archive; nothing was kept. Try again.' }) });
+    }
+  }
+  return uploadResults(em, pending);
+}
+
+/** One result per file, with the summaries of the runs read in one query. */
+async function uploadResults(em: EntityManager, pending: Pending[]): Promise<UploadResult[]> {
+  const ids = [...new Set(pending.flatMap((p) => (p.kind === 'run' ? [p.runId] : [])))];
+  const runs = ids.length ? await em.fork().find(Run, { id: { $in: ids } }, { populate: RUN_POPULATE as never }) : [];
+  const summaries = new Map((await toRunSummaries(em, runs)).map((s) => [s.id, s]));
+  return pending.map((p): UploadResult => {
+    if (p.kind === 'done') return p.result;
+    const run = summaries.get(p.runId)!;
+    if (!p.duplicate && run.status !== 'ready') return resultOfError(p.file, run.error ?? { code: 'FAILED', message: 'Analysis failed' }, run.id);
+    return p.duplicate
+      ? { file: p.file, ok: true, duplicate: true, run, message: `Already in the archive${run.deletedAt ? ' (as a deleted run; the owner can restore it)' : ''}: ${run.originalName}; nothing new was saved.` }
+      : { file: p.file, ok: true, run };
+  });
+}
