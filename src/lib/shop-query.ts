@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { ShopDto } from '@shared/schemas/shop';
 import { api } from './api-client';
-import type { UnitSystem } from './air-conditions';
+import type { UnitSystem } from '@shared/units-display';
 
 /** The caller's shop (its name and unit system), under the ['shop'] entry every screen shares. */
 export const shopQuery = () => queryOptions({ queryKey: ['shop'] as const, queryFn: () => api.get<ShopDto>('/api/shop'), staleTime: 5 * 60_000 });

@@ -10,7 +10,7 @@ import { applyFieldErrors } from '@/lib/api-client';
 import { bikeQueries } from '../api/bike-queries';
 import { useCreateBike, type BikeFormData } from '../api/create-bike';
 import { useUpdateBike } from '../api/update-bike';
-import { formatCc, formatCubicInches } from './displacement';
+import { formatCc, formatCubicInches } from '@shared/units-display';
 
 export interface BikeFormDialogProps {
   open: boolean;

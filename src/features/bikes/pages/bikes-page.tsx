@@ -8,7 +8,7 @@ import { useServerTable } from '@/lib/use-server-table';
 import { paths } from '@/config/paths';
 import { bikeQueries } from '../api/bike-queries';
 import { BikeFormDialog } from '../components/bike-form-dialog';
-import { formatCc, formatCubicInches } from '../components/displacement';
+import { formatCc, formatCubicInches } from '@shared/units-display';
 
 const col = createColumnHelper<BikeDto>();
 const dash = <span className="text-ink-subtle">—</span>;

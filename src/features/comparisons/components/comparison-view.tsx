@@ -1,12 +1,13 @@
 import { useCallback, useMemo, useRef, useState } from 'react';
 import type { ComparisonPreview, ComparisonResult, ComparisonWarning } from '@shared/schemas/comparison';
 import { Badge, Button, Card, Caution, SelectField, Stat, cn, useToast } from '@/components/ui';
-import { CORRECTION_STANDARDS } from '@shared/analysis/correction';
+import { correctionLabel } from '@shared/labels-display';
 import { runColor } from '@/lib/chart-theme';
 import { formatNumber, formatRpm, formatRpmRange } from '@shared/format';
 import { type ChartHandle, DifferenceChart, OverlayChart, chartPng, chartSvg } from './comparison-charts';
-import { curvesCsv, displayUnits, download, fileSlug } from '../lib/display';
-import { formatAirTemperature, formatBarometric } from '@/lib/air-conditions';
+import { curvesCsv, download, fileSlug } from '../lib/display';
+import { displayUnits } from '@shared/units-display';
+import { formatAirTemperature, formatBarometric } from '@shared/units-display';
 import { useShopUnits } from '@/lib/shop-query';
 
 const signed = (v: number, d = 1) => formatNumber(v, { decimals: d, signed: true });
@@ -132,9 +133,7 @@ export function ComparisonView({ preview, name }: { preview: ComparisonPreview; 
   );
 }
 
-function labelOf(id: string) {
-  return id === 'none' ? 'uncorrected' : (CORRECTION_STANDARDS.find((c) => c.id === id)?.label ?? id);
-}
+const labelOf = (id: string) => correctionLabel(id, 'uncorrected');
 
 function Warnings({ warnings }: { warnings: ComparisonWarning[] }) {
   if (!warnings.length) return null;

@@ -7,12 +7,12 @@ import { sessionInput, type SessionDto } from '@shared/schemas/run';
 import { cTo, kpaTo, pressureToKpa, temperatureToC } from '@shared/analysis/units';
 import { Button, FormError, NumberField, SelectField, TextAreaField, TextField } from '@/components/ui';
 import { formatNumber } from '@shared/format';
+import type { UnitSystem } from '@shared/units-display';
 import { ApiError, applyFieldErrors } from '@/lib/api-client';
 import { sessionQueries } from '../api/session-queries';
 import { useCreateSession, type SessionInput } from '../api/create-session';
 import { CORRECTION_HINT, CORRECTION_OPTIONS } from '../lib/correction';
 
-export type UnitSystem = 'imperial' | 'metric';
 
 function localNow(): string {
   const d = new Date();

@@ -9,7 +9,7 @@ import { formatDateTime, formatFileSize, formatNumber, formatRpmRange, MISSING }
 import { useCurrentUser } from '@/lib/auth';
 import { ApiError } from '@/lib/api-client';
 import { paths } from '@/config/paths';
-import { formatAirTemperature, formatBarometric } from '@/lib/air-conditions';
+import { formatAirTemperature, formatBarometric } from '@shared/units-display';
 import { useShopUnits } from '@/lib/shop-query';
 import { runQueries } from '../api/run-queries';
 import { useDeleteRun } from '../api/delete-run';

@@ -7,7 +7,7 @@ import { Button, Card, DataTable, ErrorState, Icon, LoadingState, PageHeader, St
 import { formatDateTime, formatNumber } from '@shared/format';
 import { useCurrentUser } from '@/lib/auth';
 import { paths } from '@/config/paths';
-import { formatAirTemperature, formatBarometric } from '@/lib/air-conditions';
+import { formatAirTemperature, formatBarometric } from '@shared/units-display';
 import { useShopUnits } from '@/lib/shop-query';
 import { bikeLabel, lookupQueries, runQueries } from '../api/run-queries';
 import { sessionQueries } from '../api/session-queries';

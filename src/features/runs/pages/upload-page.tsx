@@ -5,7 +5,7 @@ import type { SessionDto } from '@shared/schemas/run';
 import { Button, Card, DropZone, ErrorState, Icon, LoadingState, PageHeader, SelectField, useToast } from '@/components/ui';
 import { formatCount, formatDateTime, formatNumber } from '@shared/format';
 import { paths } from '@/config/paths';
-import { formatAirTemperature, formatBarometric } from '@/lib/air-conditions';
+import { formatAirTemperature, formatBarometric } from '@shared/units-display';
 import { shopQuery, useShopUnits } from '@/lib/shop-query';
 import { bikeLabel, lookupQueries } from '../api/run-queries';
 import { sessionQueries } from '../api/session-queries';
