@@ -6,7 +6,7 @@ import type { z } from 'zod';
 import { shopSettingsInput, type CorrectionStandard, type ShopDto, type ShopSettingsValues } from '@shared/schemas/shop';
 import { Button, Card, ErrorState, FormError, LoadingState, PageHeader, SelectField, TextAreaField, TextField, useToast, fieldProblemsSummary } from '@/components/ui';
 import { applyFieldErrors } from '@/lib/api-client';
-import { adminQueries } from '../api/admin-queries';
+import { shopQuery } from '@/lib/shop-query';
 import { useUpdateShop } from '../api/update-shop';
 
 const CORRECTION_LABELS: Record<CorrectionStandard, string> = {
@@ -20,7 +20,7 @@ const CORRECTION_LABELS: Record<CorrectionStandard, string> = {
 
 /** Owner only: the guard is the settings layout route (../routes.tsx). */
 export default function ShopSettingsPage() {
-  const shop = useQuery(adminQueries.shop());
+  const shop = useQuery({ ...shopQuery(), staleTime: 0 });
   return (
     <>
       <PageHeader title="Shop settings" subtitle="How the shop appears on gain reports, and the defaults new work starts from." />

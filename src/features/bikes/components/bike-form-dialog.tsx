@@ -7,6 +7,7 @@ import { cubicInchesToCc } from '@shared/displacement';
 import type { ShopDto } from '@shared/schemas/shop';
 import { Button, Dialog, FormError, NumberField, SearchInput, SelectField, TextAreaField, TextField, cn, useDebouncedValue, useToast, fieldProblemsSummary } from '@/components/ui';
 import { applyFieldErrors } from '@/lib/api-client';
+import { shopQuery } from '@/lib/shop-query';
 import { bikeQueries } from '../api/bike-queries';
 import { useCreateBike, type BikeFormData } from '../api/create-bike';
 import { useUpdateBike } from '../api/update-bike';
@@ -36,7 +37,7 @@ function BikeFormDialogBody({ onClose, bike, customerId, onSaved }: BikeFormDial
   const saving = create.isPending || update.isPending;
   const [formError, setFormError] = useState<string | null>(null);
   // New bikes start in the shop's preferred unit; an edit shows the stored cm³ exactly.
-  const [initialUnit] = useState<'cc' | 'ci'>(() => (!bike && qc.getQueryData<ShopDto>(bikeQueries.shop().queryKey)?.units === 'imperial' ? 'ci' : 'cc'));
+  const [initialUnit] = useState<'cc' | 'ci'>(() => (!bike && qc.getQueryData<ShopDto>(shopQuery().queryKey)?.units === 'imperial' ? 'ci' : 'cc'));
   const form = useForm<BikeFormValues, unknown, BikeFormData>({
     resolver: zodResolver(bikeFormSchema),
     mode: 'onTouched',

@@ -4,8 +4,8 @@ import { useQuery } from '@tanstack/react-query';
 import type { RunSummaryDto } from '@shared/schemas/run';
 import { columnMappingInput } from '@shared/schemas/run';
 import { Button, CheckboxField, cn, Dialog, ErrorState, FormError, LoadingState, SelectField, TextField } from '@/components/ui';
-import { runQueries } from '../api/run-queries';
-import { useApplyMapping, type ApplyMapping } from '../api/apply-mapping';
+import { runQueries } from '../api/runs/run-queries';
+import { useApplyMapping, type ApplyMapping } from '../api/runs/apply-mapping';
 
 const TORQUE_UNITS = [
   { value: 'lbft', label: 'lb·ft' },

@@ -5,11 +5,11 @@ import type { RunSummaryDto, UploadResult } from '@shared/schemas/run';
 import { Button, Icon, ProgressBar, StatusBadge } from '@/components/ui';
 import { formatFileSize, formatHp, formatRpm, formatTorque } from '@shared/format';
 import { paths } from '@/config/paths';
-import { runQueries } from '../api/run-queries';
-import type { UploadItem } from '../api/upload-runs';
+import { runQueries } from '../api/runs/run-queries';
+import type { UploadItem } from '../api/runs/upload-runs';
 import { CrossCheckBadge } from './run-status';
 import { MappingDialog } from './mapping-dialog';
-import { StageSelect } from './stage-select';
+import { StageSelect } from './stages/stage-select';
 
 export function PeakFigures({ run }: { run: Pick<RunSummaryDto, 'peakPowerHp' | 'peakPowerRpm' | 'peakTorqueLbft' | 'peakTorqueRpm'> }) {
   return (

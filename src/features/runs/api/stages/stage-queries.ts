@@ -1,7 +1,7 @@
 import { queryOptions } from '@tanstack/react-query';
 import type { StageDto } from '@shared/schemas/run';
 import { api } from '@/lib/api-client';
-import { itemsOf, type ListResponse } from './shared';
+import { itemsOf, type ListResponse } from '../list-response';
 
 export const stageQueries = {
   all: () => ['stages'] as const,

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import { stageQueries } from './stage-queries';
-import { runQueries } from './run-queries';
+import { runQueries } from '../runs/run-queries';
 
 /** Make a run the one that represents its stage (gains on the build timeline use it). */
 export function useSetReferenceRun() {

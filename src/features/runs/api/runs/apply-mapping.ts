@@ -3,8 +3,8 @@ import type { z } from 'zod';
 import type { applyMappingInput, RunSummaryDto, UploadResult } from '@shared/schemas/run';
 import { api } from '@/lib/api-client';
 import { runQueries } from './run-queries';
-import { sessionQueries } from './session-queries';
-import { stageQueries } from './stage-queries';
+import { sessionQueries } from '../sessions/session-queries';
+import { stageQueries } from '../stages/stage-queries';
 
 export type ApplyMapping = z.input<typeof applyMappingInput>;
 

@@ -3,7 +3,7 @@ import type { z } from 'zod';
 import type { RunDetailDto, runUpdateInput } from '@shared/schemas/run';
 import { api } from '@/lib/api-client';
 import { runQueries } from './run-queries';
-import { stageQueries } from './stage-queries';
+import { stageQueries } from '../stages/stage-queries';
 
 export type RunUpdate = z.input<typeof runUpdateInput>;
 

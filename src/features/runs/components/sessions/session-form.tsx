@@ -9,9 +9,9 @@ import { Button, FormError, NumberField, SelectField, TextAreaField, TextField }
 import { formatNumber } from '@shared/format';
 import type { UnitSystem } from '@shared/units-display';
 import { ApiError, applyFieldErrors } from '@/lib/api-client';
-import { sessionQueries } from '../api/session-queries';
-import { useCreateSession, type SessionInput } from '../api/create-session';
-import { CORRECTION_HINT, CORRECTION_OPTIONS } from '../lib/correction';
+import { sessionQueries } from '../../api/sessions/session-queries';
+import { useCreateSession, type SessionInput } from '../../api/sessions/create-session';
+import { CORRECTION_HINT, CORRECTION_OPTIONS } from '../../lib/correction';
 
 
 function localNow(): string {

@@ -1,14 +1,14 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import { runQueries } from './run-queries';
-import { stageQueries } from './stage-queries';
-import { sessionQueries } from './session-queries';
+import { stageQueries } from '../stages/stage-queries';
+import { sessionQueries } from '../sessions/session-queries';
 
-/** Soft delete (the owner can restore it); lists, stages and sessions count runs, so all refetch. */
-export function useDeleteRun() {
+/** Bring back a soft-deleted run. */
+export function useRestoreRun() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (id: string) => api.delete<unknown>(`/api/runs/${id}`),
+    mutationFn: (id: string) => api.post<unknown>(`/api/runs/${id}/restore`),
     onSuccess: () =>
       Promise.all([
         qc.invalidateQueries({ queryKey: runQueries.all() }),

@@ -1,7 +1,7 @@
 import { useQuery } from '@tanstack/react-query';
 import { SelectField, useToast } from '@/components/ui';
-import { stageQueries } from '../api/stage-queries';
-import { useUpdateRun } from '../api/update-run';
+import { stageQueries } from '../../api/stages/stage-queries';
+import { useUpdateRun } from '../../api/runs/update-run';
 
 /** Tag one run with a stage of its bike, saved as soon as it changes. */
 export function StageSelect({ runId, bikeId, stageId, runName, onChanged, disabled }: { runId: string; bikeId: string; stageId: string | null; runName: string; onChanged?: (stageId: string | null) => void; disabled?: boolean }) {

@@ -3,8 +3,8 @@ import { useQueryClient, type QueryClient } from '@tanstack/react-query';
 import type { UploadResponse, UploadResult } from '@shared/schemas/run';
 import { ApiError, uploadWithProgress, type UploadProgress } from '@/lib/api-client';
 import { runQueries } from './run-queries';
-import { sessionQueries } from './session-queries';
-import { stageQueries } from './stage-queries';
+import { sessionQueries } from '../sessions/session-queries';
+import { stageQueries } from '../stages/stage-queries';
 
 export interface UploadTarget {
   bikeId: string;

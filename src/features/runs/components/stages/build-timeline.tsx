@@ -8,9 +8,9 @@ import { Button, Card, ConfirmDialog, EmptyState, ErrorState, Icon, LoadingState
 import { formatDate, formatHp, formatMoney, formatRpm, formatTorque } from '@shared/format';
 import { useCurrentUser } from '@/lib/auth';
 import { paths } from '@/config/paths';
-import { runQueries } from '../api/run-queries';
-import { stageQueries } from '../api/stage-queries';
-import { useDeleteStage } from '../api/delete-stage';
+import { runQueries } from '../../api/runs/run-queries';
+import { stageQueries } from '../../api/stages/stage-queries';
+import { useDeleteStage } from '../../api/stages/delete-stage';
 import { StageFormDialog } from './stage-form-dialog';
 
 function ReferenceRun({ runId }: { runId: string }) {

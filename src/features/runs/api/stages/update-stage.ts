@@ -3,7 +3,7 @@ import type { z } from 'zod';
 import type { StageDto, stageUpdateInput } from '@shared/schemas/run';
 import { api } from '@/lib/api-client';
 import { stageQueries } from './stage-queries';
-import { runQueries } from './run-queries';
+import { runQueries } from '../runs/run-queries';
 
 export type StageUpdate = z.input<typeof stageUpdateInput>;
 

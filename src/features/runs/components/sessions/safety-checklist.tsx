@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { SAFETY_CHECKS, type SessionDto } from '@shared/schemas/run';
 import { Button, Caution, CheckboxField, FormError, StatusBadge, useToast } from '@/components/ui';
 import { formatDateTime } from '@shared/format';
-import { useConfirmSafety } from '../api/confirm-safety';
+import { useConfirmSafety } from '../../api/sessions/confirm-safety';
 
 /** The dyno-operation cautions every session shows (PRODUCT.md). */
 export function DynoCaution() {

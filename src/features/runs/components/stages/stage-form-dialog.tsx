@@ -7,8 +7,8 @@ import type { StageDto } from '@shared/schemas/run';
 import { partInput, stageInput } from '@shared/schemas/run';
 import { Button, Dialog, FormError, Icon, IconButton, NumberField, SelectField, TextAreaField, TextField, useToast } from '@/components/ui';
 import { ApiError, applyFieldErrors } from '@/lib/api-client';
-import { useCreateStage } from '../api/create-stage';
-import { useUpdateStage } from '../api/update-stage';
+import { useCreateStage } from '../../api/stages/create-stage';
+import { useUpdateStage } from '../../api/stages/update-stage';
 
 interface PartValues {
   category: PartCategory;

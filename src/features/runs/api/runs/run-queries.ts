@@ -3,7 +3,7 @@ import type { RunDetailDto, RunStatusId, RunSummaryDto } from '@shared/schemas/r
 import type { BikeDto } from '@shared/schemas/bike';
 import type { CustomerDto } from '@shared/schemas/customer';
 import { api } from '@/lib/api-client';
-import { itemsOf, toPage, type ListResponse } from './shared';
+import { itemsOf, toPage, type ListResponse } from '../list-response';
 
 /** Filters of the run list; the same names as the API's query (runListQuery) and the page URL. */
 export interface RunFilters {
