@@ -1,10 +1,10 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { useMutation, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import type { z } from 'zod';
 import type { applyMappingInput, RunSummaryDto, UploadResult } from '@shared/schemas/run';
 import { api } from '@/lib/api-client';
-import { runQueries } from './run-queries';
-import { sessionQueries } from '../sessions/session-queries';
-import { stageQueries } from '../stages/stage-queries';
+import { invalidateKeys } from '@/lib/invalidate';
+import { runKeys } from '@/lib/query-keys';
+import { runViews } from '../run-views';
 
 export type ApplyMapping = z.input<typeof applyMappingInput>;
 
@@ -20,18 +20,20 @@ function runOf(r: MappingResponse): RunSummaryDto | null {
   return r;
 }
 
+/** A re-read run gets a curve and peaks (or loses them): every run view changes. */
+export const applyMappingInvalidates = runViews;
+
+export function applyMappingMutation(qc: QueryClient) {
+  return {
+    mutationFn: async ({ runId, ...body }: ApplyMapping & { runId: string }) => runOf(await api.post<MappingResponse>(`/api/runs/${runId}/mapping`, body)),
+    onSuccess: async (_run: RunSummaryDto | null, vars: { runId: string }) => {
+      qc.removeQueries({ queryKey: runKeys.preview(vars.runId) });
+      await invalidateKeys(qc, applyMappingInvalidates());
+    },
+  };
+}
+
 /** Re-read a kept file with columns chosen by hand (and optionally save the layout for next time). */
 export function useApplyMapping() {
-  const qc = useQueryClient();
-  return useMutation({
-    mutationFn: async ({ runId, ...body }: ApplyMapping & { runId: string }) => runOf(await api.post<MappingResponse>(`/api/runs/${runId}/mapping`, body)),
-    onSuccess: async (_run, vars) => {
-      qc.removeQueries({ queryKey: runQueries.preview(vars.runId).queryKey });
-      await Promise.all([
-        qc.invalidateQueries({ queryKey: runQueries.all() }),
-        qc.invalidateQueries({ queryKey: sessionQueries.all() }),
-        qc.invalidateQueries({ queryKey: stageQueries.all() }),
-      ]);
-    },
-  });
+  return useMutation(applyMappingMutation(useQueryClient()));
 }

@@ -1,19 +1,19 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { useMutation, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
-import { runQueries } from './run-queries';
-import { stageQueries } from '../stages/stage-queries';
-import { sessionQueries } from '../sessions/session-queries';
+import { invalidateKeys } from '@/lib/invalidate';
+import { runViews } from '../run-views';
 
-/** Soft delete (the owner can restore it); lists, stages and sessions count runs, so all refetch. */
-export function useDeleteRun() {
-  const qc = useQueryClient();
-  return useMutation({
+/** A deleted run leaves every run view (lists, stage and session counts, gains, candidates). */
+export const deleteRunInvalidates = runViews;
+
+export function deleteRunMutation(qc: QueryClient) {
+  return {
     mutationFn: (id: string) => api.delete<unknown>(`/api/runs/${id}`),
-    onSuccess: () =>
-      Promise.all([
-        qc.invalidateQueries({ queryKey: runQueries.all() }),
-        qc.invalidateQueries({ queryKey: stageQueries.all() }),
-        qc.invalidateQueries({ queryKey: sessionQueries.all() }),
-      ]),
-  });
+    onSuccess: () => invalidateKeys(qc, deleteRunInvalidates()),
+  };
+}
+
+/** Soft delete (the owner can restore it). */
+export function useDeleteRun() {
+  return useMutation(deleteRunMutation(useQueryClient()));
 }

@@ -1,19 +1,19 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { useMutation, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
-import { runQueries } from './run-queries';
-import { stageQueries } from '../stages/stage-queries';
-import { sessionQueries } from '../sessions/session-queries';
+import { invalidateKeys } from '@/lib/invalidate';
+import { runViews } from '../run-views';
+
+/** A restored run is back in every run view. */
+export const restoreRunInvalidates = runViews;
+
+export function restoreRunMutation(qc: QueryClient) {
+  return {
+    mutationFn: (id: string) => api.post<unknown>(`/api/runs/${id}/restore`),
+    onSuccess: () => invalidateKeys(qc, restoreRunInvalidates()),
+  };
+}
 
 /** Bring back a soft-deleted run. */
 export function useRestoreRun() {
-  const qc = useQueryClient();
-  return useMutation({
-    mutationFn: (id: string) => api.post<unknown>(`/api/runs/${id}/restore`),
-    onSuccess: () =>
-      Promise.all([
-        qc.invalidateQueries({ queryKey: runQueries.all() }),
-        qc.invalidateQueries({ queryKey: stageQueries.all() }),
-        qc.invalidateQueries({ queryKey: sessionQueries.all() }),
-      ]),
-  });
+  return useMutation(restoreRunMutation(useQueryClient()));
 }

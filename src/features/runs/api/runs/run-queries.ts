@@ -3,6 +3,7 @@ import type { RunDetailDto, RunStatusId, RunSummaryDto } from '@shared/schemas/r
 import type { BikeDto } from '@shared/schemas/bike';
 import type { CustomerDto } from '@shared/schemas/customer';
 import { api } from '@/lib/api-client';
+import { bikeKeys, customerKeys, runKeys } from '@/lib/query-keys';
 import { itemsOf, toPage, type ListResponse } from '../list-response';
 
 /** Filters of the run list; the same names as the API's query (runListQuery) and the page URL. */
@@ -43,48 +44,48 @@ export function normalisePreview(p: RawPreview | null | undefined): RunPreview {
 }
 
 export const runQueries = {
-  all: () => ['runs'] as const,
-  lists: () => [...runQueries.all(), 'list'] as const,
+  all: runKeys.all,
+  lists: runKeys.lists,
   list: (filters: RunFilters) =>
     queryOptions({
-      queryKey: [...runQueries.lists(), filters] as const,
+      queryKey: runKeys.list(filters),
       queryFn: async () => toPage(await api.get<ListResponse<RunSummaryDto>>('/api/runs', { ...filters }), filters.page, filters.pageSize),
       placeholderData: keepPreviousData,
     }),
-  details: () => [...runQueries.all(), 'detail'] as const,
+  details: runKeys.details,
   detail: (id: string) =>
     queryOptions({
-      queryKey: [...runQueries.details(), id] as const,
+      queryKey: runKeys.detail(id),
       queryFn: () => api.get<RunDetailDto>(`/api/runs/${id}`),
     }),
   preview: (id: string) =>
     queryOptions({
-      queryKey: [...runQueries.all(), 'preview', id] as const,
+      queryKey: runKeys.preview(id),
       queryFn: async () => normalisePreview(await api.get<RawPreview>(`/api/runs/${id}/preview`)),
       staleTime: Infinity,
     }),
 };
 
-/** Bikes and customers to pick from (the runs feature keeps its own light look-ups). */
+/** Bikes and customers to pick from, as plain arrays (under the resources' 'options' keys). */
 export const lookupQueries = {
   bikes: (q: string) =>
     queryOptions({
-      queryKey: ['runs', 'lookup', 'bikes', q] as const,
+      queryKey: bikeKeys.options({ q, pageSize: 50 }),
       queryFn: async () => itemsOf(await api.get<ListResponse<BikeDto>>('/api/bikes', { q: q || undefined, pageSize: 50 })),
       placeholderData: keepPreviousData,
     }),
   /** Every bike of the shop (up to the API's page limit), for filter menus. */
   allBikes: () =>
     queryOptions({
-      queryKey: ['runs', 'lookup', 'bikes', 'all'] as const,
+      queryKey: bikeKeys.options({ pageSize: 200, sort: 'make' }),
       queryFn: async () => itemsOf(await api.get<ListResponse<BikeDto>>('/api/bikes', { pageSize: 200, sort: 'make' })),
       staleTime: 5 * 60_000,
     }),
   bike: (id: string) =>
-    queryOptions({ queryKey: ['runs', 'lookup', 'bike', id] as const, queryFn: () => api.get<BikeDto>(`/api/bikes/${id}`) }),
+    queryOptions({ queryKey: bikeKeys.detail(id), queryFn: () => api.get<BikeDto>(`/api/bikes/${id}`) }),
   customers: () =>
     queryOptions({
-      queryKey: ['runs', 'lookup', 'customers'] as const,
+      queryKey: customerKeys.options({ pageSize: 200, sort: 'name' }),
       queryFn: async () => itemsOf(await api.get<ListResponse<CustomerDto>>('/api/customers', { pageSize: 200, sort: 'name' })),
       staleTime: 5 * 60_000,
     }),

@@ -1,9 +1,9 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { useMutation, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import type { z } from 'zod';
 import type { RunDetailDto, runUpdateInput } from '@shared/schemas/run';
 import { api } from '@/lib/api-client';
-import { runQueries } from './run-queries';
-import { stageQueries } from '../stages/stage-queries';
+import { invalidateKeys } from '@/lib/invalidate';
+import { runViews } from '../run-views';
 
 export type RunUpdate = z.input<typeof runUpdateInput>;
 
@@ -11,17 +11,20 @@ export function updateRun(id: string, body: RunUpdate) {
   return api.patch<RunDetailDto>(`/api/runs/${id}`, body);
 }
 
-/** Edit a run's stage, label, tags or note. Stage run counts change, so stages are refetched too. */
-export function useUpdateRun() {
-  const qc = useQueryClient();
-  return useMutation({
+/**
+ * A run's stage, label, tags or note: every run view shows them (a stage change moves the run
+ * between stages, the gains by stage and the comparison candidates).
+ */
+export const updateRunInvalidates = runViews;
+
+export function updateRunMutation(qc: QueryClient) {
+  return {
     mutationFn: ({ id, ...body }: RunUpdate & { id: string }) => updateRun(id, body),
-    onSuccess: async (_run, vars) => {
-      await Promise.all([
-        qc.invalidateQueries({ queryKey: runQueries.detail(vars.id).queryKey }),
-        qc.invalidateQueries({ queryKey: runQueries.lists() }),
-        qc.invalidateQueries({ queryKey: stageQueries.all() }),
-      ]);
-    },
-  });
+    onSuccess: () => invalidateKeys(qc, updateRunInvalidates()),
+  };
+}
+
+/** Edit a run's stage, label, tags or note. */
+export function useUpdateRun() {
+  return useMutation(updateRunMutation(useQueryClient()));
 }

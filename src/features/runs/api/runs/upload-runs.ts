@@ -2,9 +2,8 @@ import { useCallback, useRef, useState } from 'react';
 import { useQueryClient, type QueryClient } from '@tanstack/react-query';
 import type { UploadResponse, UploadResult } from '@shared/schemas/run';
 import { ApiError, uploadWithProgress, type UploadProgress } from '@/lib/api-client';
-import { runQueries } from './run-queries';
-import { sessionQueries } from '../sessions/session-queries';
-import { stageQueries } from '../stages/stage-queries';
+import { invalidateKeys } from '@/lib/invalidate';
+import { runViews } from '../run-views';
 
 export interface UploadTarget {
   bikeId: string;
@@ -31,12 +30,11 @@ export async function uploadRunFile(file: File, target: UploadTarget, onProgress
   }
 }
 
+/** New runs show in every run view (lists, session, stages, gains by stage, comparison candidates, Today). */
+export const uploadRunsInvalidates = runViews;
+
 export function invalidateAfterUpload(qc: QueryClient) {
-  return Promise.all([
-    qc.invalidateQueries({ queryKey: runQueries.all() }),
-    qc.invalidateQueries({ queryKey: sessionQueries.all() }),
-    qc.invalidateQueries({ queryKey: stageQueries.all() }),
-  ]);
+  return invalidateKeys(qc, uploadRunsInvalidates());
 }
 
 export type UploadState = 'queued' | 'uploading' | 'analysing' | 'done';

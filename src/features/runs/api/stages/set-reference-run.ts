@@ -1,13 +1,19 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { useMutation, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
-import { stageQueries } from './stage-queries';
-import { runQueries } from '../runs/run-queries';
+import { invalidateKeys } from '@/lib/invalidate';
+import { runViews } from '../run-views';
+
+/** The reference run sets the stage's figures: gains by stage, candidates, finder and run pages change. */
+export const setReferenceRunInvalidates = runViews;
+
+export function setReferenceRunMutation(qc: QueryClient) {
+  return {
+    mutationFn: ({ stageId, runId }: { stageId: string; runId: string | null }) => api.post<unknown>(`/api/stages/${stageId}/reference-run`, { runId }),
+    onSuccess: () => invalidateKeys(qc, setReferenceRunInvalidates()),
+  };
+}
 
 /** Make a run the one that represents its stage (gains on the build timeline use it). */
 export function useSetReferenceRun() {
-  const qc = useQueryClient();
-  return useMutation({
-    mutationFn: ({ stageId, runId }: { stageId: string; runId: string | null }) => api.post<unknown>(`/api/stages/${stageId}/reference-run`, { runId }),
-    onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: stageQueries.all() }), qc.invalidateQueries({ queryKey: runQueries.all() })]),
-  });
+  return useMutation(setReferenceRunMutation(useQueryClient()));
 }
