@@ -4,6 +4,7 @@ import { useQuery } from '@tanstack/react-query';
 import type { RunSummaryDto } from '@shared/schemas/run';
 import { columnMappingInput } from '@shared/schemas/run';
 import { Button, CheckboxField, cn, Dialog, ErrorState, FormError, LoadingState, SelectField, TextField } from '@/components/ui';
+import type { ApiErrorCodeOnClient } from '@/lib/api-client';
 import { runQueries } from '../api/runs/run-queries';
 import { useApplyMapping, type ApplyMapping } from '../api/runs/apply-mapping';
 
@@ -61,7 +62,7 @@ type Issue = { code: string; message: string } | null | undefined;
  */
 export function mappingReason(error: Issue, needs: string[], rpmColumn: string | undefined): string {
   const rpm = rpmColumn ? `“${rpmColumn}”` : 'a column';
-  switch (error?.code) {
+  switch (error?.code as ApiErrorCodeOnClient | undefined) {
     case 'NO_RPM_COLUMN':
       return 'Pullbook found no engine-speed (rpm) column in this file. Choose it below, with the torque or power column.';
     case 'NO_POWER_OR_TORQUE':

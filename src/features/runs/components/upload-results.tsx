@@ -2,6 +2,7 @@ import { useState } from 'react';
 import { Link } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
 import type { RunSummaryDto, UploadResult } from '@shared/schemas/run';
+import type { ApiErrorCodeOnClient } from '@/lib/api-client';
 import { Button, Icon, ProgressBar, StatusBadge } from '@/components/ui';
 import { formatFileSize, formatHp, formatRpm, formatTorque } from '@shared/format';
 import { paths } from '@/config/paths';
@@ -44,11 +45,14 @@ function Warnings({ warnings }: { warnings: RunSummaryDto['warnings'] }) {
   );
 }
 
+/** Reader codes after which choosing columns by hand can help. */
+const MAPPING_CODES: ReadonlySet<string> = new Set(['NEEDS_MAPPING', 'MAPPING_INVALID', 'NO_RPM_COLUMN', 'TOO_MANY_COLUMNS'] satisfies ApiErrorCodeOnClient[]);
+
 /** A file the server kept but could not turn into a curve: mapping by hand, or failed for good. */
 function KeptFile({ item, runId, message, onMapped }: { item: UploadItem; runId: string; message: string; onMapped: (run: RunSummaryDto) => void }) {
   const run = useQuery(runQueries.detail(runId));
   const [open, setOpen] = useState(false);
-  const needsMapping = run.data?.status === 'needs-mapping' || /MAPPING|COLUMN|RPM/i.test(item.result && !item.result.ok ? item.result.error.code : '');
+  const needsMapping = run.data?.status === 'needs-mapping' || (item.result !== undefined && !item.result.ok && MAPPING_CODES.has(item.result.error.code));
   if (needsMapping) {
     return (
       <div className="space-y-2">
@@ -126,7 +130,7 @@ function ResultBody({ item, bikeId, onResult }: { item: UploadItem; bikeId: stri
   if (r.runId) return <KeptFile item={item} runId={r.runId} message={r.error.message} onMapped={(run) => onResult({ file: r.file, ok: true, run })} />;
   return (
     <div className="space-y-1">
-      <StatusBadge status="error">{r.error.code === 'ABORTED' ? 'Cancelled' : 'Upload failed'}</StatusBadge>
+      <StatusBadge status="error">{r.error.code === ('ABORTED' satisfies ApiErrorCodeOnClient) ? 'Cancelled' : 'Upload failed'}</StatusBadge>
       <p className="text-sm text-ink">{r.error.message}</p>
     </div>
   );

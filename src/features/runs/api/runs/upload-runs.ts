@@ -1,7 +1,7 @@
 import { useCallback, useRef, useState } from 'react';
 import { useQueryClient, type QueryClient } from '@tanstack/react-query';
 import type { UploadResponse, UploadResult } from '@shared/schemas/run';
-import { ApiError, uploadWithProgress, type UploadProgress } from '@/lib/api-client';
+import { ApiError, uploadWithProgress, type ApiErrorCodeOnClient, type UploadProgress } from '@/lib/api-client';
 import { invalidateKeys } from '@/lib/invalidate';
 import { runViews } from '../run-views';
 
@@ -23,7 +23,7 @@ export async function uploadRunFile(file: File, target: UploadTarget, onProgress
   form.append('files', file, file.name);
   try {
     const res = await uploadWithProgress<UploadResponse>('/api/runs', form, onProgress, signal);
-    return res.results[0] ?? { file: file.name, ok: false, error: { code: 'NO_RESULT', message: 'The server answered without a result for this file.' } };
+    return res.results[0] ?? { file: file.name, ok: false, error: { code: 'NO_RESULT' satisfies ApiErrorCodeOnClient, message: 'The server answered without a result for this file.' } };
   } catch (e) {
     const err = e instanceof ApiError ? e : new ApiError(0, 'UPLOAD', 'The upload failed.');
     return { file: file.name, ok: false, error: { code: err.code, message: err.message } };
