@@ -13,6 +13,7 @@ export { SelectField, type SelectFieldProps, type SelectOption } from './SelectF
 export { TextAreaField, type TextAreaFieldProps } from './TextAreaField';
 export { CheckboxField, type CheckboxFieldProps } from './CheckboxField';
 export { FormError, type FormErrorProps } from './FormError';
+export { DialogActions, FormDialog, SubmitRow, type DialogActionsProps, type FormDialogProps } from './FormDialog';
 
 export { Card, type CardProps } from './Card';
 export { PageHeader, type PageHeaderProps } from './PageHeader';

@@ -3,7 +3,7 @@ import type { z } from 'zod';
 import { useQuery } from '@tanstack/react-query';
 import type { RunSummaryDto } from '@shared/schemas/run';
 import { columnMappingInput } from '@shared/schemas/run';
-import { Button, CheckboxField, cn, Dialog, ErrorState, FormError, LoadingState, SelectField, TextField } from '@/components/ui';
+import { DialogActions, CheckboxField, cn, Dialog, ErrorState, FormError, LoadingState, SelectField, TextField } from '@/components/ui';
 import type { ApiErrorCodeOnClient } from '@/lib/api-client';
 import { runQueries } from '../api/runs/run-queries';
 import { useApplyMapping, type ApplyMapping } from '../api/runs/apply-mapping';
@@ -150,14 +150,15 @@ export function MappingDialog({ runId, fileName, open, onClose, onMapped, error 
         </>
       }
       footer={
-        <>
-          <Button variant="secondary" onClick={onClose} disabled={apply.isPending}>
-            Not now
-          </Button>
-          <Button variant="primary" onClick={submit} loading={apply.isPending} loadingText="Reading the file…" disabled={!preview.data}>
-            Read with these columns
-          </Button>
-        </>
+        <DialogActions
+          onCancel={onClose}
+          cancelLabel="Not now"
+          submitLabel="Read with these columns"
+          busyLabel="Reading the file…"
+          busy={apply.isPending}
+          submit={{ onClick: submit }}
+          submitDisabled={!preview.data}
+        />
       }
     >
       {preview.isLoading ? (
