@@ -40,6 +40,7 @@ export {
 } from './DataTable';
 export { Pagination, type PaginationProps } from './Pagination';
 export { Tabs, type TabItem, type TabsProps } from './Tabs';
+export { SimpleTable, type SimpleColumn, type SimpleTableProps } from './SimpleTable';
 export { DropZone, type DropZoneProps } from './DropZone';
 export { fileMatchesAccept, mergeFiles, type FileRejection, type FileRejectionReason } from './file-accept';
 export { SearchInput, type SearchInputProps } from './SearchInput';
