@@ -39,3 +39,48 @@ export function emailTaken<TValues extends FieldValues>(form: Pick<UseFormReturn
     return true;
   };
 }
+
+/**
+ * The submit of an invitation form (a colleague, or a customer's portal access): sends it, says
+ * where it went, marks the e-mail field when someone already signs in with it, then `afterSent`.
+ */
+export function useInvitationSubmit<TValues extends FieldValues, TOut extends { email: string }>(form: UseFormReturn<TValues, unknown, TOut>, send: (values: TOut) => Promise<unknown>, afterSent: () => void) {
+  const toast = useToast();
+  return useFormSubmit(
+    form,
+    async (values) => {
+      await send(values);
+      toast.success(`Invitation sent to ${values.email}`, { description: 'The link in it is valid for 7 days.' });
+      afterSent();
+    },
+    { failureToast: 'The invitation was not sent', onRefused: emailTaken(form) },
+  );
+}
+
+export interface SaveDialogOptions<TOut, TSaved> {
+  /** True when editing a record; false when the dialog adds a new one. */
+  editing: boolean;
+  create: (values: TOut) => Promise<TSaved>;
+  update: (values: TOut) => Promise<TSaved>;
+  /** "Bike", "Customer": the toasts say "Bike saved" and "The bike was not added". */
+  noun: string;
+  /** The toast after adding, e.g. "Ada Lovelace added". */
+  added: (saved: TSaved) => string;
+  onClose: () => void;
+  onSaved?: (saved: TSaved) => void;
+}
+
+/** The submit of an add-or-edit dialog: create or update, a toast, close, then hand the record back. */
+export function useSaveDialogSubmit<TValues extends FieldValues, TOut, TSaved>(form: UseFormReturn<TValues, unknown, TOut>, o: SaveDialogOptions<TOut, TSaved>) {
+  const toast = useToast();
+  return useFormSubmit(
+    form,
+    async (values) => {
+      const saved = o.editing ? await o.update(values) : await o.create(values);
+      toast.success(o.editing ? `${o.noun} saved` : o.added(saved));
+      o.onClose();
+      o.onSaved?.(saved);
+    },
+    { failureToast: o.editing ? 'The changes were not saved' : `The ${o.noun.toLowerCase()} was not added` },
+  );
+}

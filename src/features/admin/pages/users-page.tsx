@@ -8,7 +8,7 @@ import { z } from 'zod';
 import { inviteUserInput } from '@shared/schemas/auth';
 import { ROLE_LABELS, STAFF, type Role } from '@shared/roles';
 import { Button, Card, ConfirmDialog, DataTable, ErrorState, FormError, PageHeader, SelectField, StatusBadge, SubmitRow, TextField, useToast } from '@/components/ui';
-import { emailTaken, useFormSubmit } from '@/lib/use-form-submit';
+import { useInvitationSubmit } from '@/lib/use-form-submit';
 import { formatDateTime } from '@shared/format';
 import { useCurrentUser } from '@/lib/auth';
 import { paths } from '@/config/paths';
@@ -177,20 +177,11 @@ function UsersTable({ users, isLoading }: { users: UserDto[]; isLoading: boolean
 }
 
 function InviteCard() {
-  const toast = useToast();
   const invite = useInviteUser();
   const form = useForm<InviteValues, unknown, z.output<typeof staffInviteForm>>({ resolver: zodResolver(staffInviteForm), mode: 'onTouched', defaultValues: { name: '', email: '', role: 'tuner' } });
   const { errors } = form.formState;
 
-  const { onSubmit, alert } = useFormSubmit(
-    form,
-    async (values) => {
-      await invite.mutateAsync(values);
-      toast.success(`Invitation sent to ${values.email}`, { description: 'The link in it is valid for 7 days.' });
-      form.reset();
-    },
-    { failureToast: 'The invitation was not sent', onRefused: emailTaken(form) },
-  );
+  const { onSubmit, alert } = useInvitationSubmit(form, invite.mutateAsync, () => form.reset());
 
   return (
     <Card title="Invite a colleague" description="They get an e-mail with a link to choose a password.">

@@ -5,8 +5,8 @@ import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { bikeFormSchema, type BikeDto, type BikeFormValues } from '@shared/schemas/bike';
 import { cubicInchesToCc } from '@shared/displacement';
 import type { ShopDto } from '@shared/schemas/shop';
-import { FormDialog, NumberField, SearchInput, SelectField, TextAreaField, TextField, cn, useDebouncedValue, useToast } from '@/components/ui';
-import { useFormSubmit } from '@/lib/use-form-submit';
+import { FormDialog, NumberField, SearchInput, SelectField, TextAreaField, TextField, cn, useDebouncedValue } from '@/components/ui';
+import { useSaveDialogSubmit } from '@/lib/use-form-submit';
 import { shopQuery } from '@/lib/shop-query';
 import { bikeQueries } from '../api/bike-queries';
 import { useCreateBike, type BikeFormData } from '../api/create-bike';
@@ -30,7 +30,6 @@ export function BikeFormDialog(props: BikeFormDialogProps) {
 }
 
 function BikeFormDialogBody({ onClose, bike, customerId, onSaved }: BikeFormDialogProps) {
-  const toast = useToast();
   const qc = useQueryClient();
   const create = useCreateBike();
   const update = useUpdateBike(bike?.id ?? '');
@@ -57,16 +56,15 @@ function BikeFormDialogBody({ onClose, bike, customerId, onSaved }: BikeFormDial
   const families = useQuery(bikeQueries.engineFamilies());
   const listId = useId();
 
-  const { onSubmit, alert } = useFormSubmit(
-    form,
-    async (data) => {
-      const saved = bike ? await update.mutateAsync(data) : await create.mutateAsync(data);
-      toast.success(bike ? 'Bike saved' : `${[saved.make, saved.model].join(' ')} added`);
-      onClose();
-      onSaved?.(saved);
-    },
-    { failureToast: bike ? 'The changes were not saved' : 'The bike was not added' },
-  );
+  const { onSubmit, alert } = useSaveDialogSubmit(form, {
+    editing: Boolean(bike),
+    create: create.mutateAsync,
+    update: update.mutateAsync,
+    noun: 'Bike',
+    added: (saved) => `${[saved.make, saved.model].join(' ')} added`,
+    onClose,
+    onSaved,
+  });
 
   return (
     <FormDialog

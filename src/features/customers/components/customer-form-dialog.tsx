@@ -1,8 +1,8 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { customerInput, type CustomerDto, type CustomerInput } from '@shared/schemas/customer';
-import { FormDialog, TextAreaField, TextField, useToast } from '@/components/ui';
-import { useFormSubmit } from '@/lib/use-form-submit';
+import { FormDialog, TextAreaField, TextField } from '@/components/ui';
+import { useSaveDialogSubmit } from '@/lib/use-form-submit';
 import { useCreateCustomer, type CustomerData } from '../api/create-customer';
 import { useUpdateCustomer } from '../api/update-customer';
 
@@ -21,7 +21,6 @@ export function CustomerFormDialog(props: CustomerFormDialogProps) {
 }
 
 function CustomerFormDialogBody({ onClose, customer, onSaved }: CustomerFormDialogProps) {
-  const toast = useToast();
   const create = useCreateCustomer();
   const update = useUpdateCustomer(customer?.id ?? '');
   const saving = create.isPending || update.isPending;
@@ -32,16 +31,15 @@ function CustomerFormDialogBody({ onClose, customer, onSaved }: CustomerFormDial
   });
   const { errors } = form.formState;
 
-  const { onSubmit, alert } = useFormSubmit(
-    form,
-    async (data) => {
-      const saved = customer ? await update.mutateAsync(data) : await create.mutateAsync(data);
-      toast.success(customer ? 'Customer saved' : `${saved.name} added`);
-      onClose();
-      onSaved?.(saved);
-    },
-    { failureToast: customer ? 'The changes were not saved' : 'The customer was not added' },
-  );
+  const { onSubmit, alert } = useSaveDialogSubmit(form, {
+    editing: Boolean(customer),
+    create: create.mutateAsync,
+    update: update.mutateAsync,
+    noun: 'Customer',
+    added: (saved) => `${saved.name} added`,
+    onClose,
+    onSaved,
+  });
 
   return (
     <FormDialog

@@ -3,8 +3,8 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { inviteUserInput } from '@shared/schemas/auth';
 import type { CustomerDto } from '@shared/schemas/customer';
-import { FormDialog, TextField, useToast } from '@/components/ui';
-import { emailTaken, useFormSubmit } from '@/lib/use-form-submit';
+import { FormDialog, TextField } from '@/components/ui';
+import { useInvitationSubmit } from '@/lib/use-form-submit';
 import { useGivePortalAccess } from '../api/give-portal-access';
 
 const portalInviteForm = inviteUserInput.pick({ name: true, email: true });
@@ -17,7 +17,6 @@ export function PortalAccessDialog({ open, onClose, customer }: { open: boolean;
 }
 
 function PortalAccessDialogBody({ onClose, customer }: { onClose: () => void; customer: CustomerDto }) {
-  const toast = useToast();
   const invite = useGivePortalAccess(customer.id);
   const form = useForm<Values, unknown, z.output<typeof portalInviteForm>>({
     resolver: zodResolver(portalInviteForm),
@@ -26,15 +25,7 @@ function PortalAccessDialogBody({ onClose, customer }: { onClose: () => void; cu
   });
   const { errors } = form.formState;
 
-  const { onSubmit, alert } = useFormSubmit(
-    form,
-    async (values) => {
-      await invite.mutateAsync(values);
-      toast.success(`Invitation sent to ${values.email}`, { description: 'The link in it is valid for 7 days.' });
-      onClose();
-    },
-    { failureToast: 'The invitation was not sent', onRefused: emailTaken(form) },
-  );
+  const { onSubmit, alert } = useInvitationSubmit(form, invite.mutateAsync, onClose);
 
   return (
     <FormDialog

@@ -15,19 +15,20 @@ import { StageSelect } from './stages/stage-select';
 export function PeakFigures({ run }: { run: Pick<RunSummaryDto, 'peakPowerHp' | 'peakPowerRpm' | 'peakTorqueLbft' | 'peakTorqueRpm'> }) {
   return (
     <dl className="num flex flex-wrap gap-x-6 gap-y-1">
-      <div>
-        <dt className="text-sm text-ink-muted">Peak power</dt>
-        <dd className="text-lg font-semibold text-ink">
-          {formatHp(run.peakPowerHp)} <span className="text-sm font-normal text-ink-muted">at {formatRpm(run.peakPowerRpm)}</span>
-        </dd>
-      </div>
-      <div>
-        <dt className="text-sm text-ink-muted">Peak torque</dt>
-        <dd className="text-lg font-semibold text-ink">
-          {formatTorque(run.peakTorqueLbft)} <span className="text-sm font-normal text-ink-muted">at {formatRpm(run.peakTorqueRpm)}</span>
-        </dd>
-      </div>
+      <PeakFigure label="Peak power" value={formatHp(run.peakPowerHp)} rpm={run.peakPowerRpm} />
+      <PeakFigure label="Peak torque" value={formatTorque(run.peakTorqueLbft)} rpm={run.peakTorqueRpm} />
     </dl>
+  );
+}
+
+function PeakFigure({ label, value, rpm }: { label: string; value: string; rpm: number | null }) {
+  return (
+    <div>
+      <dt className="text-sm text-ink-muted">{label}</dt>
+      <dd className="text-lg font-semibold text-ink">
+        {value} <span className="text-sm font-normal text-ink-muted">at {formatRpm(rpm)}</span>
+      </dd>
+    </div>
   );
 }
 
