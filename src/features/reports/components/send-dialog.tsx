@@ -4,7 +4,7 @@ import type { z } from 'zod';
 import { sendInput } from '@shared/schemas/report';
 import { FormDialog, TextAreaField, TextField, useToast } from '@/components/ui';
 import { useFormSubmit } from '@/lib/use-form-submit';
-import { useSendReport } from '../api/report-mutations';
+import { useSendReport } from '../api/send-report';
 import type { ReportDetail } from '../api/types';
 
 type SendValues = z.input<typeof sendInput>;
