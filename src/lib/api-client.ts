@@ -2,6 +2,19 @@
  * The one way the client talks to the API: JSON in and out, cookies included, and every
  * failure turned into an ApiError carrying the server's stable code and field messages.
  */
+import type { ApiErrorBody, ApiErrorCode } from '@shared/errors';
+
+/**
+ * Codes the client makes itself, for failures the server never answered: no connection, a
+ * cancelled upload, an upload that ended without a result, or an error answer without a JSON body
+ * (a proxy's page), coded by its HTTP status ("HTTP_502").
+ */
+export const CLIENT_ERROR_CODES = ['NETWORK', 'ABORTED', 'UPLOAD', 'NO_RESULT'] as const;
+export type ClientErrorCode = (typeof CLIENT_ERROR_CODES)[number] | `HTTP_${number}`;
+
+/** Every code an ApiError may carry: the server's closed union or one the client made. */
+export type ApiErrorCodeOnClient = ApiErrorCode | ClientErrorCode;
+
 export interface FieldIssue {
   path: string;
   message: string;
@@ -10,7 +23,7 @@ export interface FieldIssue {
 export class ApiError extends Error {
   constructor(
     readonly status: number,
-    readonly code: string,
+    readonly code: ApiErrorCodeOnClient,
     message: string,
     readonly details?: { fields?: FieldIssue[]; [k: string]: unknown },
   ) {
@@ -38,8 +51,8 @@ export function withQuery(path: string, query?: Query): string {
 
 async function toApiError(res: Response): Promise<ApiError> {
   const body = await res.json().catch(() => null);
-  const e = body?.error;
-  if (e?.code) return new ApiError(res.status, e.code, e.message ?? res.statusText, e.details);
+  const e = (body as Partial<ApiErrorBody> | null)?.error;
+  if (e?.code) return new ApiError(res.status, e.code, e.message ?? res.statusText, e.details as ApiError['details']);
   return new ApiError(res.status, `HTTP_${res.status}`, res.status >= 500 ? 'The server had a problem; try again.' : res.statusText);
 }
 
@@ -88,8 +101,8 @@ export function uploadWithProgress<T>(path: string, form: FormData, onProgress: 
       const body = xhr.response;
       if (xhr.status >= 200 && xhr.status < 300) resolve(body as T);
       else {
-        const e = body?.error;
-        reject(new ApiError(xhr.status, e?.code ?? `HTTP_${xhr.status}`, e?.message ?? 'Upload failed', e?.details));
+        const e = (body as Partial<ApiErrorBody> | null)?.error;
+        reject(new ApiError(xhr.status, e?.code ?? `HTTP_${xhr.status}`, e?.message ?? 'Upload failed', e?.details as ApiError['details']));
       }
     };
     xhr.onerror = () => reject(new ApiError(0, 'NETWORK', 'The upload was interrupted; check the connection and try again.'));

@@ -3,6 +3,7 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { STAFF, type Role } from '@shared/roles';
 import type { SignedInUser } from '@shared/schemas/auth';
 import { api, ApiError } from './api-client';
+import { authKeys } from './query-keys';
 
 /** The user GET /api/auth/me answers with (the server's actor). */
 export type CurrentUser = SignedInUser;
@@ -16,7 +17,7 @@ interface AuthState {
 }
 
 const AuthContext = createContext<AuthState | null>(null);
-export const meQueryKey = ['auth', 'me'] as const;
+export const meQueryKey = authKeys.me();
 
 export function AuthProvider({ children }: { children: ReactNode }) {
   const qc = useQueryClient();

@@ -3,13 +3,13 @@ import { NavLink, Outlet, useNavigate } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
 import { ROLE_LABELS } from '@shared/roles';
 import { Button, cn } from '@/components/ui';
-import { api } from '@/lib/api-client';
+import { shopQuery } from '@/lib/shop-query';
 import { useCurrentUser, useAuth } from '@/lib/auth';
 import { paths } from '@/config/paths';
 import { ADMIN_NAV, NAV } from '../nav';
 
 function ShopName() {
-  const shop = useQuery({ queryKey: ['shop'], queryFn: () => api.get<{ name: string }>('/api/shop') });
+  const shop = useQuery(shopQuery());
   return <span className="truncate">{shop.data?.name ?? 'Pullbook'}</span>;
 }
 

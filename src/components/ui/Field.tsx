@@ -1,6 +1,6 @@
 import type { ReactNode } from 'react';
 import { cn } from './cn';
-import type { FieldErrorLike } from './field-utils';
+import { useFieldIds, type FieldErrorLike } from './field-utils';
 import { Icon } from './Icon';
 import { errorTextClass, hintClass, labelClass } from './styles';
 
@@ -69,4 +69,23 @@ export function FieldShell({
       )}
     </div>
   );
+}
+
+/** What every labelled control takes besides its own props: the shell's, and the attributes it ties to them. */
+export interface LabelledControlProps extends FieldBaseProps {
+  id?: string;
+  required?: boolean;
+  'aria-describedby'?: string;
+}
+
+/**
+ * The core every field shares: splits a field's props into the shell's (label, hint, error,
+ * layout) and the control's, the control getting its id, `required` and ARIA attributes first so
+ * the caller's own props (e.g. react-hook-form's `register`) still win.
+ */
+export function useLabelledControl<P extends LabelledControlProps>(props: P) {
+  const { label, hint, error, hideLabel, containerClassName, id, required, 'aria-describedby': describedBy, ...rest } = props;
+  const f = useFieldIds({ id, hint, error, describedBy });
+  const shell = { controlId: f.controlId, label, hint, hintId: f.hintId, message: f.message, errorId: f.errorId, required, hideLabel, className: containerClassName };
+  return { shell, control: { required, ...f.controlProps, ...rest } };
 }

@@ -1,7 +1,6 @@
 import type { ComponentProps } from 'react';
 import { cn } from './cn';
-import { FieldShell, type FieldBaseProps } from './Field';
-import { useFieldIds } from './field-utils';
+import { FieldShell, useLabelledControl, type FieldBaseProps } from './Field';
 import { controlClass } from './styles';
 import { AffixWrapper } from './TextField';
 
@@ -15,49 +14,18 @@ export interface NumberFieldProps extends FieldBaseProps, Omit<ComponentProps<'i
  * an empty box then gives NaN, which the zod schema should reject or map to undefined.
  * `step` defaults to "any" so decimals are accepted without browser complaints.
  */
-export function NumberField({
-  label,
-  hint,
-  error,
-  hideLabel,
-  containerClassName,
-  unit,
-  id,
-  className,
-  step = 'any',
-  inputMode = 'decimal',
-  required,
-  'aria-describedby': describedBy,
-  ...inputProps
-}: NumberFieldProps) {
-  const f = useFieldIds({ id, hint, error, describedBy });
+export function NumberField({ unit, className, step = 'any', inputMode = 'decimal', ...props }: NumberFieldProps) {
+  const label = (
+    <>
+      {props.label}
+      {unit && <span className="sr-only"> ({unit})</span>}
+    </>
+  );
+  const { shell, control } = useLabelledControl({ ...props, label });
   return (
-    <FieldShell
-      controlId={f.controlId}
-      label={
-        <>
-          {label}
-          {unit && <span className="sr-only"> ({unit})</span>}
-        </>
-      }
-      hint={hint}
-      hintId={f.hintId}
-      message={f.message}
-      errorId={f.errorId}
-      required={required}
-      hideLabel={hideLabel}
-      className={containerClassName}
-    >
+    <FieldShell {...shell}>
       <AffixWrapper suffix={unit}>
-        <input
-          type="number"
-          step={step}
-          inputMode={inputMode}
-          required={required}
-          className={cn(controlClass, 'num text-right', unit && 'pr-14', className)}
-          {...f.controlProps}
-          {...inputProps}
-        />
+        <input type="number" step={step} inputMode={inputMode} className={cn(controlClass, 'num text-right', unit && 'pr-14', className)} {...control} />
       </AffixWrapper>
     </FieldShell>
   );

@@ -1,7 +1,6 @@
 import type { ComponentProps } from 'react';
 import { cn } from './cn';
-import { FieldShell, type FieldBaseProps } from './Field';
-import { useFieldIds } from './field-utils';
+import { FieldShell, useLabelledControl, type FieldBaseProps } from './Field';
 import { Icon } from './Icon';
 import { controlClass } from './styles';
 
@@ -19,41 +18,12 @@ export interface SelectFieldProps extends FieldBaseProps, ComponentProps<'select
 }
 
 /** A labelled native select (native for keyboard, touch and screen-reader behaviour for free). */
-export function SelectField({
-  label,
-  hint,
-  error,
-  hideLabel,
-  containerClassName,
-  options,
-  placeholder,
-  id,
-  className,
-  required,
-  children,
-  'aria-describedby': describedBy,
-  ...selectProps
-}: SelectFieldProps) {
-  const f = useFieldIds({ id, hint, error, describedBy });
+export function SelectField({ options, placeholder, className, children, ...props }: SelectFieldProps) {
+  const { shell, control } = useLabelledControl(props);
   return (
-    <FieldShell
-      controlId={f.controlId}
-      label={label}
-      hint={hint}
-      hintId={f.hintId}
-      message={f.message}
-      errorId={f.errorId}
-      required={required}
-      hideLabel={hideLabel}
-      className={containerClassName}
-    >
+    <FieldShell {...shell}>
       <div className="relative">
-        <select
-          required={required}
-          className={cn(controlClass, 'appearance-none pr-10', className)}
-          {...f.controlProps}
-          {...selectProps}
-        >
+        <select className={cn(controlClass, 'appearance-none pr-10', className)} {...control}>
           {placeholder !== undefined && <option value="">{placeholder}</option>}
           {options?.map((option) => (
             <option key={option.value} value={option.value} disabled={option.disabled}>
@@ -62,11 +32,7 @@ export function SelectField({
           ))}
           {children}
         </select>
-        <Icon
-          name="chevron-down"
-          size={18}
-          className="pointer-events-none absolute right-3 top-1/2 -translate-y-1/2 text-ink-muted"
-        />
+        <Icon name="chevron-down" size={18} className="pointer-events-none absolute right-3 top-1/2 -translate-y-1/2 text-ink-muted" />
       </div>
     </FieldShell>
   );

@@ -1,45 +1,16 @@
 import type { ComponentProps } from 'react';
 import { cn } from './cn';
-import { FieldShell, type FieldBaseProps } from './Field';
-import { useFieldIds } from './field-utils';
+import { FieldShell, useLabelledControl, type FieldBaseProps } from './Field';
 import { controlClass } from './styles';
 
 export interface TextAreaFieldProps extends FieldBaseProps, Omit<ComponentProps<'textarea'>, 'children'> {}
 
 /** A labelled multi-line text input, e.g. a run note. */
-export function TextAreaField({
-  label,
-  hint,
-  error,
-  hideLabel,
-  containerClassName,
-  id,
-  className,
-  rows = 3,
-  required,
-  'aria-describedby': describedBy,
-  ...textareaProps
-}: TextAreaFieldProps) {
-  const f = useFieldIds({ id, hint, error, describedBy });
+export function TextAreaField({ className, rows = 3, ...props }: TextAreaFieldProps) {
+  const { shell, control } = useLabelledControl(props);
   return (
-    <FieldShell
-      controlId={f.controlId}
-      label={label}
-      hint={hint}
-      hintId={f.hintId}
-      message={f.message}
-      errorId={f.errorId}
-      required={required}
-      hideLabel={hideLabel}
-      className={containerClassName}
-    >
-      <textarea
-        rows={rows}
-        required={required}
-        className={cn(controlClass, 'resize-y leading-snug', className)}
-        {...f.controlProps}
-        {...textareaProps}
-      />
+    <FieldShell {...shell}>
+      <textarea rows={rows} className={cn(controlClass, 'resize-y leading-snug', className)} {...control} />
     </FieldShell>
   );
 }

@@ -1,7 +1,6 @@
 import type { ComponentProps, ReactNode } from 'react';
 import { cn } from './cn';
-import { FieldShell, type FieldBaseProps } from './Field';
-import { useFieldIds } from './field-utils';
+import { FieldShell, useLabelledControl, type FieldBaseProps } from './Field';
 import { controlClass } from './styles';
 
 export interface TextFieldProps extends FieldBaseProps, Omit<ComponentProps<'input'>, 'children' | 'prefix'> {
@@ -15,42 +14,12 @@ export interface TextFieldProps extends FieldBaseProps, Omit<ComponentProps<'inp
  * A labelled text input. Spread `register('name')` straight in: the ref reaches the input
  * (React 19 passes `ref` as a prop).
  */
-export function TextField({
-  label,
-  hint,
-  error,
-  hideLabel,
-  containerClassName,
-  prefix,
-  suffix,
-  id,
-  className,
-  type = 'text',
-  required,
-  'aria-describedby': describedBy,
-  ...inputProps
-}: TextFieldProps) {
-  const f = useFieldIds({ id, hint, error, describedBy });
+export function TextField({ prefix, suffix, className, type = 'text', ...props }: TextFieldProps) {
+  const { shell, control } = useLabelledControl(props);
   return (
-    <FieldShell
-      controlId={f.controlId}
-      label={label}
-      hint={hint}
-      hintId={f.hintId}
-      message={f.message}
-      errorId={f.errorId}
-      required={required}
-      hideLabel={hideLabel}
-      className={containerClassName}
-    >
+    <FieldShell {...shell}>
       <AffixWrapper prefix={prefix} suffix={suffix}>
-        <input
-          type={type}
-          required={required}
-          className={cn(controlClass, prefix != null && 'pl-9', suffix != null && 'pr-14', className)}
-          {...f.controlProps}
-          {...inputProps}
-        />
+        <input type={type} className={cn(controlClass, prefix != null && 'pl-9', suffix != null && 'pr-14', className)} {...control} />
       </AffixWrapper>
     </FieldShell>
   );

@@ -13,6 +13,7 @@ export { SelectField, type SelectFieldProps, type SelectOption } from './SelectF
 export { TextAreaField, type TextAreaFieldProps } from './TextAreaField';
 export { CheckboxField, type CheckboxFieldProps } from './CheckboxField';
 export { FormError, type FormErrorProps } from './FormError';
+export { DialogActions, FormDialog, SubmitRow, type DialogActionsProps, type FormDialogProps } from './FormDialog';
 
 export { Card, type CardProps } from './Card';
 export { PageHeader, type PageHeaderProps } from './PageHeader';
@@ -39,6 +40,7 @@ export {
 } from './DataTable';
 export { Pagination, type PaginationProps } from './Pagination';
 export { Tabs, type TabItem, type TabsProps } from './Tabs';
+export { SimpleTable, type SimpleColumn, type SimpleTableProps } from './SimpleTable';
 export { DropZone, type DropZoneProps } from './DropZone';
 export { fileMatchesAccept, mergeFiles, type FileRejection, type FileRejectionReason } from './file-accept';
 export { SearchInput, type SearchInputProps } from './SearchInput';

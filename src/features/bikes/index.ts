@@ -3,4 +3,3 @@ export { bikeRoutes } from './routes';
 export { bikeQueries } from './api/bike-queries';
 export { BikeDetailsCard } from './components/bike-details-card';
 export { BikeFormDialog, type BikeFormDialogProps } from './components/bike-form-dialog';
-export { formatCc, formatCubicInches } from './components/displacement';

@@ -1,6 +1,6 @@
 import { infiniteQueryOptions, keepPreviousData, queryOptions } from '@tanstack/react-query';
-import type { ShopDto } from '@shared/schemas/shop';
 import { api } from '@/lib/api-client';
+import { auditKeys, outboxKeys, userKeys } from '@/lib/query-keys';
 
 export type { UserDto, AuditEntryDto as AuditEntry } from '@shared/schemas/auth';
 import type { UserDto, AuditEntryDto as AuditEntry } from '@shared/schemas/auth';
@@ -18,15 +18,14 @@ export const AUDIT_PAGE = 100;
 
 /**
  * The owner's settings screens. Users live under ['users'] (the customers feature invalidates
- * that key when it invites a rider); the shop under ['shop'], shared with the app shell's header.
+ * that key when it invites a rider); the shop is the one shopQuery() of src/lib/shop-query.ts.
  */
 export const adminQueries = {
-  users: () => queryOptions({ queryKey: ['users'] as const, queryFn: () => api.get<UserDto[]>('/api/users') }),
-  shop: () => queryOptions({ queryKey: ['shop'] as const, queryFn: () => api.get<ShopDto>('/api/shop') }),
+  users: () => queryOptions({ queryKey: userKeys.all(), queryFn: () => api.get<UserDto[]>('/api/users') }),
   /** The audit log, optionally narrowed on the server to some kinds of action ("run", "user"…). */
   audit: (kinds: readonly string[] = []) =>
     infiniteQueryOptions({
-      queryKey: ['audit', kinds.join(',')] as const,
+      queryKey: auditKeys.list(kinds.join(',')),
       queryFn: ({ pageParam }) => api.get<AuditEntry[]>('/api/audit', { before: pageParam, limit: AUDIT_PAGE, kinds: kinds.length ? kinds.join(',') : undefined }),
       initialPageParam: undefined as string | undefined,
       // Keep the previous kind's rows on screen while the narrowed log loads.
@@ -34,10 +33,10 @@ export const adminQueries = {
       // The log is newest first; the next page is everything before the oldest entry shown.
       getNextPageParam: (last) => (last.length < AUDIT_PAGE ? undefined : last[last.length - 1].at),
     }),
-  outbox: () => queryOptions({ queryKey: ['outbox'] as const, queryFn: () => api.get<OutboxList>('/api/outbox') }),
+  outbox: () => queryOptions({ queryKey: outboxKeys.list(), queryFn: () => api.get<OutboxList>('/api/outbox') }),
   outboxMessage: (id: string) =>
     queryOptions({
-      queryKey: ['outbox', id] as const,
+      queryKey: outboxKeys.message(id),
       queryFn: () => api.get<OutboxItem & { html: string | null }>(`/api/outbox/${encodeURIComponent(id)}`),
       staleTime: Infinity,
     }),

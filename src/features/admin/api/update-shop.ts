@@ -2,7 +2,8 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { z } from 'zod';
 import type { ShopDto, shopSettingsInput } from '@shared/schemas/shop';
 import { api } from '@/lib/api-client';
-import { adminQueries } from './admin-queries';
+import { auditKeys } from '@/lib/query-keys';
+import { shopQuery } from '@/lib/shop-query';
 
 /** Saves the shop settings; the header's shop name reads the same ['shop'] entry, so it updates at once. */
 export function useUpdateShop() {
@@ -10,8 +11,8 @@ export function useUpdateShop() {
   return useMutation({
     mutationFn: (body: z.output<typeof shopSettingsInput>) => api.put<ShopDto>('/api/shop', body),
     onSuccess: (shop) => {
-      qc.setQueryData(adminQueries.shop().queryKey, shop);
-      return qc.invalidateQueries({ queryKey: ['audit'] });
+      qc.setQueryData(shopQuery().queryKey, shop);
+      return qc.invalidateQueries({ queryKey: auditKeys.all() });
     },
   });
 }

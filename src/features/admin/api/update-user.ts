@@ -1,6 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { Role } from '@shared/roles';
 import { api } from '@/lib/api-client';
+import { auditKeys } from '@/lib/query-keys';
 import { adminQueries, type UserDto } from './admin-queries';
 
 export interface UserPatch {
@@ -16,7 +17,7 @@ export function useUpdateUser() {
     mutationFn: ({ id, patch }: { id: string; patch: UserPatch }) => api.patch<UserDto>(`/api/users/${id}`, patch),
     onSuccess: (updated) => {
       qc.setQueryData(adminQueries.users().queryKey, (old) => old?.map((u) => (u.id === updated.id ? updated : u)));
-      return Promise.all([qc.invalidateQueries({ queryKey: adminQueries.users().queryKey }), qc.invalidateQueries({ queryKey: ['audit'] })]);
+      return Promise.all([qc.invalidateQueries({ queryKey: adminQueries.users().queryKey }), qc.invalidateQueries({ queryKey: auditKeys.all() })]);
     },
   });
 }

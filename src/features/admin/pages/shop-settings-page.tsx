@@ -4,9 +4,9 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useQuery } from '@tanstack/react-query';
 import type { z } from 'zod';
 import { shopSettingsInput, type CorrectionStandard, type ShopDto, type ShopSettingsValues } from '@shared/schemas/shop';
-import { Button, Card, ErrorState, FormError, LoadingState, PageHeader, SelectField, TextAreaField, TextField, useToast, fieldProblemsSummary } from '@/components/ui';
+import { Button, Card, ErrorState, FormError, LoadingState, PageHeader, SelectField, type SelectOption, TextAreaField, TextField, useToast, fieldProblemsSummary } from '@/components/ui';
 import { applyFieldErrors } from '@/lib/api-client';
-import { adminQueries } from '../api/admin-queries';
+import { shopQuery } from '@/lib/shop-query';
 import { useUpdateShop } from '../api/update-shop';
 
 const CORRECTION_LABELS: Record<CorrectionStandard, string> = {
@@ -18,9 +18,19 @@ const CORRECTION_LABELS: Record<CorrectionStandard, string> = {
   'sae-j607': 'SAE J607',
 };
 
+const UNIT_OPTIONS: SelectOption[] = [
+  { value: 'imperial', label: 'Imperial (hp, lb·ft)' },
+  { value: 'metric', label: 'Metric (kW, N·m)' },
+];
+const PAPER_OPTIONS: SelectOption[] = [
+  { value: 'letter', label: 'Letter (8.5 × 11 in)' },
+  { value: 'a4', label: 'A4 (210 × 297 mm)' },
+];
+const CORRECTION_SELECT: SelectOption[] = Object.entries(CORRECTION_LABELS).map(([value, label]) => ({ value, label }));
+
 /** Owner only: the guard is the settings layout route (../routes.tsx). */
 export default function ShopSettingsPage() {
-  const shop = useQuery(adminQueries.shop());
+  const shop = useQuery({ ...shopQuery(), staleTime: 0 });
   return (
     <>
       <PageHeader title="Shop settings" subtitle="How the shop appears on gain reports, and the defaults new work starts from." />
@@ -86,19 +96,13 @@ function ShopForm({ shop }: { shop: ShopDto }) {
           <SelectField
             label="Units"
             hint="Imperial: hp, lb·ft, °F, inHg. Metric: kW, N·m, °C, kPa."
-            options={[
-              { value: 'imperial', label: 'Imperial (hp, lb·ft)' },
-              { value: 'metric', label: 'Metric (kW, N·m)' },
-            ]}
+            options={UNIT_OPTIONS}
             error={errors.units}
             {...form.register('units')}
           />
           <SelectField
             label="Report paper size"
-            options={[
-              { value: 'letter', label: 'Letter (8.5 × 11 in)' },
-              { value: 'a4', label: 'A4 (210 × 297 mm)' },
-            ]}
+            options={PAPER_OPTIONS}
             error={errors.paperSize}
             {...form.register('paperSize')}
           />
@@ -110,7 +114,7 @@ function ShopForm({ shop }: { shop: ShopDto }) {
                 ISO 4106; shops choose the standard their customers expect.
               </>
             }
-            options={Object.entries(CORRECTION_LABELS).map(([value, label]) => ({ value, label }))}
+            options={CORRECTION_SELECT}
             error={errors.defaultCorrection}
             {...form.register('defaultCorrection')}
           />

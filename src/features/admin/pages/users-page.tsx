@@ -7,8 +7,8 @@ import { Link } from 'react-router-dom';
 import { z } from 'zod';
 import { inviteUserInput } from '@shared/schemas/auth';
 import { ROLE_LABELS, STAFF, type Role } from '@shared/roles';
-import { Button, Card, ConfirmDialog, DataTable, ErrorState, FormError, PageHeader, SelectField, StatusBadge, TextField, useToast, fieldProblemsSummary } from '@/components/ui';
-import { ApiError, applyFieldErrors } from '@/lib/api-client';
+import { Button, Card, ConfirmDialog, DataTable, ErrorState, FormError, PageHeader, SelectField, StatusBadge, SubmitRow, TextField, useToast } from '@/components/ui';
+import { useInvitationSubmit } from '@/lib/use-form-submit';
 import { formatDateTime } from '@shared/format';
 import { useCurrentUser } from '@/lib/auth';
 import { paths } from '@/config/paths';
@@ -177,39 +177,22 @@ function UsersTable({ users, isLoading }: { users: UserDto[]; isLoading: boolean
 }
 
 function InviteCard() {
-  const toast = useToast();
   const invite = useInviteUser();
-  const [formError, setFormError] = useState<string | null>(null);
   const form = useForm<InviteValues, unknown, z.output<typeof staffInviteForm>>({ resolver: zodResolver(staffInviteForm), mode: 'onTouched', defaultValues: { name: '', email: '', role: 'tuner' } });
-  const { errors, isSubmitted } = form.formState;
-  // After a submit, every field problem is also summed up in the form's alert, so it is announced.
-  const fieldProblems = fieldProblemsSummary(isSubmitted, errors);
+  const { errors } = form.formState;
 
-  const onSubmit = form.handleSubmit(async (values) => {
-    setFormError(null);
-    try {
-      await invite.mutateAsync(values);
-      toast.success(`Invitation sent to ${values.email}`, { description: 'The link in it is valid for 7 days.' });
-      form.reset();
-    } catch (err) {
-      if (err instanceof ApiError && err.code === 'EMAIL_TAKEN') form.setError('email', { message: 'Someone already signs in with this address' });
-      else if (!applyFieldErrors(err, form.setError)) setFormError(err instanceof Error ? err.message : 'Try again in a moment.');
-      toast.error('The invitation was not sent');
-    }
-  });
+  const { onSubmit, alert } = useInvitationSubmit(form, invite.mutateAsync, () => form.reset());
 
   return (
     <Card title="Invite a colleague" description="They get an e-mail with a link to choose a password.">
       <form onSubmit={onSubmit} noValidate className="space-y-4">
-        <FormError error={formError ?? fieldProblems} title="The invitation was not sent" />
+        <FormError error={alert} title="The invitation was not sent" />
         <TextField label="Name" required autoComplete="off" error={errors.name} {...form.register('name')} />
         <TextField label="E-mail" type="email" required autoComplete="off" error={errors.email} {...form.register('email')} />
         <SelectField label="Role" required options={staffOptions} error={errors.role} {...form.register('role')} />
-        <div className="flex justify-end">
-          <Button type="submit" variant="primary" loading={invite.isPending} loadingText="Sending…">
-            Send invitation
-          </Button>
-        </div>
+        <SubmitRow busy={invite.isPending} busyLabel="Sending…">
+          Send invitation
+        </SubmitRow>
       </form>
     </Card>
   );

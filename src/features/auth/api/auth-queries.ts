@@ -1,5 +1,6 @@
 import { queryOptions } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
+import { authKeys } from '@/lib/query-keys';
 
 /** What an invitation or reset link is for, and whose it is. */
 export interface TokenInfo {
@@ -9,10 +10,10 @@ export interface TokenInfo {
 }
 
 export const authQueries = {
-  all: () => ['auth'] as const,
+  all: authKeys.all,
   token: (token: string) =>
     queryOptions({
-      queryKey: ['auth', 'token', token] as const,
+      queryKey: authKeys.token(token),
       queryFn: () => api.get<TokenInfo>(`/api/auth/token/${encodeURIComponent(token)}`),
       // A link is either good or not; asking again will not change the answer.
       retry: false,

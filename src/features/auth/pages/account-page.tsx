@@ -1,11 +1,10 @@
-import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
 import { changePasswordInput } from '@shared/schemas/auth';
 import { ROLE_LABELS } from '@shared/roles';
-import { Button, Card, FormError, PageHeader, TextField, useToast, fieldProblemsSummary } from '@/components/ui';
-import { applyFieldErrors } from '@/lib/api-client';
+import { Card, FormError, PageHeader, SubmitRow, TextField, useToast } from '@/components/ui';
+import { useFormSubmit } from '@/lib/use-form-submit';
 import { useCurrentUser } from '@/lib/auth';
 import { useChangePassword } from '../api/change-password';
 
@@ -19,22 +18,16 @@ export default function AccountPage() {
   const toast = useToast();
   const change = useChangePassword();
   const form = useForm<Values>({ resolver: zodResolver(changePasswordForm), defaultValues: { currentPassword: '', newPassword: '', confirm: '' } });
-  const [formError, setFormError] = useState<string | null>(null);
-  const { errors, isSubmitted } = form.formState;
-  // After a submit, every field problem is also summed up in the form's alert, so it is announced.
-  const fieldProblems = fieldProblemsSummary(isSubmitted, errors);
-
-  const onSubmit = form.handleSubmit(async ({ currentPassword, newPassword }) => {
-    setFormError(null);
-    try {
+  const { errors } = form.formState;
+  const { onSubmit, alert } = useFormSubmit(
+    form,
+    async ({ currentPassword, newPassword }) => {
       await change.mutateAsync({ currentPassword, newPassword });
       form.reset();
       toast.success('Password changed');
-    } catch (err) {
-      if (!applyFieldErrors(err, form.setError)) setFormError(err instanceof Error ? err.message : 'Try again in a moment.');
-      toast.error('The password was not changed');
-    }
-  });
+    },
+    { failureToast: 'The password was not changed' },
+  );
 
   return (
     <>
@@ -52,16 +45,14 @@ export default function AccountPage() {
         </Card>
         <Card title="Change password">
           <form onSubmit={onSubmit} noValidate className="space-y-4">
-            <FormError error={formError ?? fieldProblems} title="The password was not changed" />
+            <FormError error={alert} title="The password was not changed" />
             <input type="text" name="username" autoComplete="username" value={user.email} readOnly hidden />
             <TextField label="Current password" type="password" autoComplete="current-password" error={errors.currentPassword} {...form.register('currentPassword')} />
             <TextField label="New password" type="password" autoComplete="new-password" hint="At least 10 characters." error={errors.newPassword} {...form.register('newPassword')} />
             <TextField label="Type the password again" type="password" autoComplete="new-password" error={errors.confirm} {...form.register('confirm')} />
-            <div className="flex justify-end">
-              <Button type="submit" variant="primary" loading={change.isPending} loadingText="Saving…">
-                Change password
-              </Button>
-            </div>
+            <SubmitRow busy={change.isPending} busyLabel="Saving…">
+              Change password
+            </SubmitRow>
           </form>
         </Card>
       </div>

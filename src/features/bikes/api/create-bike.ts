@@ -2,6 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { z } from 'zod';
 import type { BikeDto, bikeFormSchema } from '@shared/schemas/bike';
 import { api } from '@/lib/api-client';
+import { customerKeys } from '@/lib/query-keys';
 import { bikeQueries } from './bike-queries';
 
 /** What the form sends: displacement in the unit the user chose; the server stores cm³. */
@@ -20,7 +21,7 @@ export function useCreateBike() {
       return Promise.all([
         qc.invalidateQueries({ queryKey: bikeQueries.lists() }),
         qc.invalidateQueries({ queryKey: bikeQueries.engineFamilies().queryKey }),
-        qc.invalidateQueries({ queryKey: ['customers'] }),
+        qc.invalidateQueries({ queryKey: customerKeys.all() }),
       ]);
     },
   });

@@ -1,6 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { BikeDto } from '@shared/schemas/bike';
 import { api } from '@/lib/api-client';
+import { customerKeys } from '@/lib/query-keys';
 import { bikeQueries } from './bike-queries';
 import type { BikeFormData } from './create-bike';
 
@@ -14,7 +15,7 @@ export function useUpdateBike(id: string) {
       return Promise.all([
         qc.invalidateQueries({ queryKey: bikeQueries.lists() }),
         qc.invalidateQueries({ queryKey: bikeQueries.engineFamilies().queryKey }),
-        qc.invalidateQueries({ queryKey: ['customers'] }),
+        qc.invalidateQueries({ queryKey: customerKeys.all() }),
       ]);
     },
   });

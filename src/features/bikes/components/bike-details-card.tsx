@@ -4,7 +4,7 @@ import type { BikeDto } from '@shared/schemas/bike';
 import { Card } from '@/components/ui';
 import { formatDate, formatNumber } from '@shared/format';
 import { paths } from '@/config/paths';
-import { formatCc, formatCubicInches } from './displacement';
+import { formatCc, formatCubicInches } from '@shared/units-display';
 
 const missing = <span className="text-ink-subtle">Not recorded</span>;
 

@@ -5,12 +5,13 @@ import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { bikeFormSchema, type BikeDto, type BikeFormValues } from '@shared/schemas/bike';
 import { cubicInchesToCc } from '@shared/displacement';
 import type { ShopDto } from '@shared/schemas/shop';
-import { Button, Dialog, FormError, NumberField, SearchInput, SelectField, TextAreaField, TextField, cn, useDebouncedValue, useToast, fieldProblemsSummary } from '@/components/ui';
-import { applyFieldErrors } from '@/lib/api-client';
+import { FormDialog, NumberField, SearchInput, SelectField, TextAreaField, TextField, cn, useDebouncedValue } from '@/components/ui';
+import { useSaveDialogSubmit } from '@/lib/use-form-submit';
+import { shopQuery } from '@/lib/shop-query';
 import { bikeQueries } from '../api/bike-queries';
 import { useCreateBike, type BikeFormData } from '../api/create-bike';
 import { useUpdateBike } from '../api/update-bike';
-import { formatCc, formatCubicInches } from './displacement';
+import { formatCc, formatCubicInches } from '@shared/units-display';
 
 export interface BikeFormDialogProps {
   open: boolean;
@@ -29,14 +30,12 @@ export function BikeFormDialog(props: BikeFormDialogProps) {
 }
 
 function BikeFormDialogBody({ onClose, bike, customerId, onSaved }: BikeFormDialogProps) {
-  const toast = useToast();
   const qc = useQueryClient();
   const create = useCreateBike();
   const update = useUpdateBike(bike?.id ?? '');
   const saving = create.isPending || update.isPending;
-  const [formError, setFormError] = useState<string | null>(null);
   // New bikes start in the shop's preferred unit; an edit shows the stored cm³ exactly.
-  const [initialUnit] = useState<'cc' | 'ci'>(() => (!bike && qc.getQueryData<ShopDto>(bikeQueries.shop().queryKey)?.units === 'imperial' ? 'ci' : 'cc'));
+  const [initialUnit] = useState<'cc' | 'ci'>(() => (!bike && qc.getQueryData<ShopDto>(shopQuery().queryKey)?.units === 'imperial' ? 'ci' : 'cc'));
   const form = useForm<BikeFormValues, unknown, BikeFormData>({
     resolver: zodResolver(bikeFormSchema),
     mode: 'onTouched',
@@ -53,46 +52,34 @@ function BikeFormDialogBody({ onClose, bike, customerId, onSaved }: BikeFormDial
       notes: bike?.notes ?? '',
     },
   });
-  const { errors, isSubmitted } = form.formState;
-  // After a submit, every field problem is also summed up in the form's alert, so it is announced.
-  const fieldProblems = fieldProblemsSummary(isSubmitted, errors);
+  const { errors } = form.formState;
   const families = useQuery(bikeQueries.engineFamilies());
   const listId = useId();
 
-  const onSubmit = form.handleSubmit(async (data) => {
-    setFormError(null);
-    try {
-      const saved = bike ? await update.mutateAsync(data) : await create.mutateAsync(data);
-      toast.success(bike ? 'Bike saved' : `${[saved.make, saved.model].join(' ')} added`);
-      onClose();
-      onSaved?.(saved);
-    } catch (err) {
-      if (!applyFieldErrors(err, form.setError)) setFormError(err instanceof Error ? err.message : 'Try again in a moment.');
-      toast.error(bike ? 'The changes were not saved' : 'The bike was not added');
-    }
+  const { onSubmit, alert } = useSaveDialogSubmit(form, {
+    editing: Boolean(bike),
+    create: create.mutateAsync,
+    update: update.mutateAsync,
+    noun: 'Bike',
+    added: (saved) => `${[saved.make, saved.model].join(' ')} added`,
+    onClose,
+    onSaved,
   });
 
   return (
-    <Dialog
+    <FormDialog
       open
       onClose={onClose}
       busy={saving}
       size="lg"
       title={bike ? `Edit ${bike.make} ${bike.model}` : 'New bike'}
       description={bike ? undefined : 'Typed once here, so nobody retypes it at the dyno. Make, model and owner are required.'}
-      footer={
-        <>
-          <Button onClick={onClose} disabled={saving}>
-            Cancel
-          </Button>
-          <Button type="submit" form="bike-form" variant="primary" loading={saving} loadingText="Saving…">
-            {bike ? 'Save changes' : 'Add bike'}
-          </Button>
-        </>
-      }
+      formId="bike-form"
+      onSubmit={onSubmit}
+      submitLabel={bike ? 'Save changes' : 'Add bike'}
+      busyLabel="Saving…"
+      formError={alert}
     >
-      <form id="bike-form" onSubmit={onSubmit} noValidate className="space-y-4">
-        <FormError error={formError ?? fieldProblems} />
         <CustomerPicker control={form.control} register={form.register('customerId')} error={errors.customerId?.message} initialName={bike?.customerName} />
         <div className="grid gap-4 md:grid-cols-[1fr_1fr_8rem]">
           <TextField label="Make" required autoComplete="off" error={errors.make} {...form.register('make')} />
@@ -125,8 +112,7 @@ function BikeFormDialogBody({ onClose, bike, customerId, onSaved }: BikeFormDial
         </datalist>
         <DisplacementInput control={form.control} register={form.register} error={errors.displacement?.message} />
         <TextAreaField label="Notes" rows={3} error={errors.notes} {...form.register('notes')} />
-      </form>
-    </Dialog>
+    </FormDialog>
   );
 }
 

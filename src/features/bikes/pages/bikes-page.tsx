@@ -1,14 +1,13 @@
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { createColumnHelper } from '@tanstack/react-table';
 import type { BikeDto } from '@shared/schemas/bike';
-import { Button, DataTable, ErrorState, Icon, PageHeader, SearchInput } from '@/components/ui';
 import { formatNumber } from '@shared/format';
 import { hasRole, useCurrentUser } from '@/lib/auth';
-import { useServerTable } from '@/lib/use-server-table';
+import { ServerListPage, useNewDialogParam } from '@/lib/server-list-page';
 import { paths } from '@/config/paths';
 import { bikeQueries } from '../api/bike-queries';
 import { BikeFormDialog } from '../components/bike-form-dialog';
-import { formatCc, formatCubicInches } from '../components/displacement';
+import { formatCc, formatCubicInches } from '@shared/units-display';
 
 const col = createColumnHelper<BikeDto>();
 const dash = <span className="text-ink-subtle">—</span>;
@@ -59,57 +58,27 @@ export default function BikesPage() {
   const user = useCurrentUser();
   const canEdit = hasRole(user, ['owner', 'desk']);
   const navigate = useNavigate();
-  const [params, setParams] = useSearchParams();
-  const { search, onSearchChange, q, list, tableProps } = useServerTable({ defaultSort: [{ id: 'make', desc: false }], query: bikeQueries.list });
-  const creating = canEdit && params.get('new') === '1';
+  const [params] = useSearchParams();
+  const [newParam, setCreating] = useNewDialogParam(['customerId']);
+  const creating = canEdit && newParam;
   const presetCustomer = params.get('customerId') ?? undefined;
 
-  const setCreating = (open: boolean) =>
-    setParams(
-      (p) => {
-        if (open) p.set('new', '1');
-        else {
-          p.delete('new');
-          p.delete('customerId');
-        }
-        return p;
-      },
-      { replace: true },
-    );
-
   return (
-    <>
-      <PageHeader
-        title="Bikes"
-        subtitle={list.data ? `${formatNumber(list.data.total)} ${list.data.total === 1 ? 'bike' : 'bikes'}${q ? ` matching “${q}”` : ' on file'}` : 'Every bike the shop has worked on'}
-        action={
-          canEdit && (
-            <Button variant="primary" icon={<Icon name="plus" size={18} />} onClick={() => setCreating(true)}>
-              New bike
-            </Button>
-          )
-        }
-      />
-      <SearchInput
-        label="Search bikes"
-        placeholder="Make, model, VIN, engine family or owner"
-        value={search}
-        onValueChange={onSearchChange}
-        containerClassName="mb-4 max-w-md"
-      />
-      {list.isError && !list.data ? (
-        <ErrorState error={list.error} onRetry={() => list.refetch()} isRetrying={list.isFetching} />
-      ) : (
-        <DataTable
-          caption="Bikes"
-          columns={columns}
-          getRowId={(b) => b.id}
-          {...tableProps}
-          maxHeight={null}
-          emptyMessage={q ? <>No bike matches “{q}”.</> : canEdit ? <>No bikes yet. Add one with “New bike”, or from the customer’s page.</> : <>No bikes yet.</>}
-        />
-      )}
+    <ServerListPage
+      title="Bikes"
+      noun={['bike', 'bikes']}
+      unfilteredSuffix=" on file"
+      idleSubtitle="Every bike the shop has worked on"
+      newButton={canEdit ? { label: 'New bike', onClick: () => setCreating(true) } : undefined}
+      searchLabel="Search bikes"
+      searchPlaceholder="Make, model, VIN, engine family or owner"
+      columns={columns}
+      getRowId={(b) => b.id}
+      emptyMessage={(q) => (q ? <>No bike matches “{q}”.</> : canEdit ? <>No bikes yet. Add one with “New bike”, or from the customer’s page.</> : <>No bikes yet.</>)}
+      defaultSort={[{ id: 'make', desc: false }]}
+      query={bikeQueries.list}
+    >
       <BikeFormDialog open={creating} customerId={presetCustomer} onClose={() => setCreating(false)} onSaved={(b) => navigate(paths.bike(b.id))} />
-    </>
+    </ServerListPage>
   );
 }

@@ -10,26 +10,26 @@ import type {
   StageTimelineDto,
 } from '@shared/schemas/comparison';
 import { api, apiFetch } from '@/lib/api-client';
+import { bikeKeys, comparisonKeys } from '@/lib/query-keys';
 
 /** Query keys and fetchers of the comparisons feature; everything of its own lives under ['comparisons']. */
 export const comparisonQueries = {
-  all: () => ['comparisons'] as const,
-  lists: () => [...comparisonQueries.all(), 'list'] as const,
+  all: comparisonKeys.all,
+  lists: comparisonKeys.lists,
   list: (filters: { bikeId?: string } = {}) =>
     queryOptions({
-      queryKey: [...comparisonQueries.lists(), filters] as const,
+      queryKey: comparisonKeys.list(filters),
       queryFn: () => api.get<ComparisonDto[]>('/api/comparisons', { bikeId: filters.bikeId }),
     }),
-  details: () => [...comparisonQueries.all(), 'detail'] as const,
   detail: (id: string) =>
     queryOptions({
-      queryKey: [...comparisonQueries.details(), id] as const,
+      queryKey: comparisonKeys.detail(id),
       queryFn: () => api.get<ComparisonDetailDto>(`/api/comparisons/${id}`),
     }),
   /** Live figures for the builder; keeps the last preview on screen while the next one loads. */
   preview: (input: ComparisonPreviewInput) =>
     queryOptions({
-      queryKey: [...comparisonQueries.all(), 'preview', input] as const,
+      queryKey: comparisonKeys.preview(input),
       queryFn: ({ signal }) => apiFetch<ComparisonPreview>('POST', '/api/comparisons/preview', input, { signal }),
       placeholderData: keepPreviousData,
       staleTime: 30_000,
@@ -37,18 +37,18 @@ export const comparisonQueries = {
     }),
   timeline: (bikeId: string) =>
     queryOptions({
-      queryKey: [...comparisonQueries.all(), 'timeline', bikeId] as const,
+      queryKey: comparisonKeys.timeline(bikeId),
       queryFn: () => api.get<StageTimelineDto>('/api/comparisons/timeline', { bikeId }),
     }),
   candidates: (bikeId: string) =>
     queryOptions({
-      queryKey: [...comparisonQueries.all(), 'candidates', bikeId] as const,
+      queryKey: comparisonKeys.candidates(bikeId),
       queryFn: () => api.get<CandidatesDto>('/api/comparisons/candidates', { bikeId }),
     }),
   /** Bikes to add to the builder, searched on the server. */
   bikeOptions: (q: string) =>
     queryOptions({
-      queryKey: [...comparisonQueries.all(), 'bike-options', q] as const,
+      queryKey: bikeKeys.list({ q, pageSize: 10 }),
       queryFn: () => api.get<Page<BikeDto>>('/api/bikes', { q: q || undefined, pageSize: 10 }),
       placeholderData: keepPreviousData,
     }),

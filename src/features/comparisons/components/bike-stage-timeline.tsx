@@ -2,7 +2,7 @@ import { useQuery } from '@tanstack/react-query';
 import { Link } from 'react-router-dom';
 import { STAFF } from '@shared/roles';
 import type { TimelineGain, TimelineStage } from '@shared/schemas/comparison';
-import { Badge, Card, ErrorState, LoadingState } from '@/components/ui';
+import { Badge, Card, ErrorState, LoadingState, SimpleTable } from '@/components/ui';
 import { hasRole, useCurrentUser } from '@/lib/auth';
 import { formatMoney, formatNumber, formatRpm } from '@shared/format';
 import { paths } from '@/config/paths';
@@ -98,65 +98,49 @@ export function BikeStageTimeline({ bikeId }: { bikeId: string }) {
               ))}
             </ul>
           )}
-          <div className="overflow-x-auto">
-            <table className="w-full min-w-[56rem] text-sm">
-              <caption className="sr-only">Gains and cost per hp of each stage of this bike</caption>
-              <thead className="bg-paper-sunk text-left text-ink-muted">
-                <tr>
-                  <th scope="col" className="px-3 py-2 font-medium">Stage</th>
-                  <th scope="col" className="px-3 py-2 font-medium">Reference run</th>
-                  <th scope="col" className="px-3 py-2 font-medium">Gain over the previous stage</th>
-                  <th scope="col" className="px-3 py-2 font-medium">This stage’s cost per hp</th>
-                  <th scope="col" className="px-3 py-2 font-medium">Total gain since baseline</th>
-                  <th scope="col" className="px-3 py-2 font-medium">Total cost per hp since baseline</th>
-                  <th scope="col" className="px-3 py-2 font-medium">Spread</th>
+          <SimpleTable columns={['Stage', 'Reference run', 'Gain over the previous stage', 'This stage’s cost per hp', 'Total gain since baseline', 'Total cost per hp since baseline', 'Spread']} caption="Gains and cost per hp of each stage of this bike" className="overflow-x-auto" minWidth="min-w-[56rem]" bodyClassName="num align-top">
+            {q.data.stages.map((s: TimelineStage, i) => {
+              const span = spans[i];
+              return (
+                <tr key={s.stageId} className="border-t border-line">
+                  <th scope="row" className="px-3 py-2 text-left font-semibold">
+                    {s.name}
+                    {s.date && <span className="block text-xs font-normal text-ink-muted">{s.date}</span>}
+                    <span className="block text-xs font-normal text-ink-muted">work {money(s.costCents)}</span>
+                  </th>
+                  <td className="px-3 py-2">
+                    {s.reference ? (
+                      <>
+                        {formatNumber(s.reference.peakPowerHp, { decimals: 1 })} hp <span className="text-ink-muted">@ {formatRpm(s.reference.peakPowerRpm)}</span>
+                        <span className="block text-xs text-ink-muted">
+                          {formatNumber(s.reference.peakTorqueLbft, { decimals: 1 })} lb·ft @ {formatRpm(s.reference.peakTorqueRpm)}
+                        </span>
+                      </>
+                    ) : (
+                      <span className="text-ink-subtle">none chosen — its cost counts towards the next measured stage</span>
+                    )}
+                  </td>
+                  <td className="px-3 py-2">
+                    {s.vsPrevious && span.previousName ? <span className="block text-xs text-ink-muted">over {span.previousName}</span> : null}
+                    <Gain g={s.vsPrevious} />
+                  </td>
+                  <td className="px-3 py-2">
+                    <PerHp cents={span.previous?.cents ?? s.costCents} gain={s.vsPrevious} v={s.costPerHp} what={`cost of ${joinNames(span.previous?.names ?? [s.name])} ÷ gain over ${span.previousName ?? 'the previous stage'}`} />
+                  </td>
+                  <td className="px-3 py-2">
+                    {s.vsBaseline && span.baselineName ? <span className="block text-xs text-ink-muted">over {span.baselineName}</span> : null}
+                    <Gain g={s.vsBaseline} />
+                  </td>
+                  <td className="px-3 py-2">
+                    <PerHp cents={span.baseline?.cents ?? 0} gain={s.vsBaseline} v={s.cumulativeCostPerHp} what={`all cost since ${span.baselineName ?? 'the baseline'} ÷ total gain`} />
+                  </td>
+                  <td className="px-3 py-2">
+                    {s.repeatability ? `±${formatNumber(s.repeatability.peakPowerSpreadHp, { decimals: 1 })} hp (${s.repeatability.runs} runs)` : <span className="text-ink-subtle">one run</span>}
+                  </td>
                 </tr>
-              </thead>
-              <tbody className="num align-top">
-                {q.data.stages.map((s: TimelineStage, i) => {
-                  const span = spans[i];
-                  return (
-                    <tr key={s.stageId} className="border-t border-line">
-                      <th scope="row" className="px-3 py-2 text-left font-semibold">
-                        {s.name}
-                        {s.date && <span className="block text-xs font-normal text-ink-muted">{s.date}</span>}
-                        <span className="block text-xs font-normal text-ink-muted">work {money(s.costCents)}</span>
-                      </th>
-                      <td className="px-3 py-2">
-                        {s.reference ? (
-                          <>
-                            {formatNumber(s.reference.peakPowerHp, { decimals: 1 })} hp <span className="text-ink-muted">@ {formatRpm(s.reference.peakPowerRpm)}</span>
-                            <span className="block text-xs text-ink-muted">
-                              {formatNumber(s.reference.peakTorqueLbft, { decimals: 1 })} lb·ft @ {formatRpm(s.reference.peakTorqueRpm)}
-                            </span>
-                          </>
-                        ) : (
-                          <span className="text-ink-subtle">none chosen — its cost counts towards the next measured stage</span>
-                        )}
-                      </td>
-                      <td className="px-3 py-2">
-                        {s.vsPrevious && span.previousName ? <span className="block text-xs text-ink-muted">over {span.previousName}</span> : null}
-                        <Gain g={s.vsPrevious} />
-                      </td>
-                      <td className="px-3 py-2">
-                        <PerHp cents={span.previous?.cents ?? s.costCents} gain={s.vsPrevious} v={s.costPerHp} what={`cost of ${joinNames(span.previous?.names ?? [s.name])} ÷ gain over ${span.previousName ?? 'the previous stage'}`} />
-                      </td>
-                      <td className="px-3 py-2">
-                        {s.vsBaseline && span.baselineName ? <span className="block text-xs text-ink-muted">over {span.baselineName}</span> : null}
-                        <Gain g={s.vsBaseline} />
-                      </td>
-                      <td className="px-3 py-2">
-                        <PerHp cents={span.baseline?.cents ?? 0} gain={s.vsBaseline} v={s.cumulativeCostPerHp} what={`all cost since ${span.baselineName ?? 'the baseline'} ÷ total gain`} />
-                      </td>
-                      <td className="px-3 py-2">
-                        {s.repeatability ? `±${formatNumber(s.repeatability.peakPowerSpreadHp, { decimals: 1 })} hp (${s.repeatability.runs} runs)` : <span className="text-ink-subtle">one run</span>}
-                      </td>
-                    </tr>
-                  );
-                })}
-              </tbody>
-            </table>
-          </div>
+              );
+            })}
+          </SimpleTable>
         </>
       )}
     </Card>

@@ -6,7 +6,7 @@ import type { ComparisonPreview } from '@shared/schemas/comparison';
 import { CHART_COLORS, LINE_DASHARRAY, baseChartOption, deltaSeries, runColor, runSeries, whenChartFontReady } from '@/lib/chart-theme';
 import { formatNumber } from '@shared/format';
 import { niceStep, powerTorqueCrossRpm, sharedPowerTorqueRange } from '@shared/chart-scale';
-import type { DisplayUnits } from '../lib/display';
+import type { DisplayUnits } from '@shared/units-display';
 
 const escapeHtml = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
 const fmt = (v: number | null | undefined, d = 1) => (v === null || v === undefined ? '—' : formatNumber(v, { decimals: d }));

@@ -1,12 +1,13 @@
 import { useCallback, useMemo, useRef, useState } from 'react';
 import type { ComparisonPreview, ComparisonResult, ComparisonWarning } from '@shared/schemas/comparison';
-import { Badge, Button, Card, Caution, SelectField, Stat, cn, useToast } from '@/components/ui';
-import { CORRECTION_STANDARDS } from '@shared/analysis/correction';
+import { Badge, Button, Card, Caution, SelectField, Stat, cn, useToast, SimpleTable } from '@/components/ui';
+import { correctionLabel } from '@shared/labels-display';
 import { runColor } from '@/lib/chart-theme';
 import { formatNumber, formatRpm, formatRpmRange } from '@shared/format';
 import { type ChartHandle, DifferenceChart, OverlayChart, chartPng, chartSvg } from './comparison-charts';
-import { curvesCsv, displayUnits, download, fileSlug } from '../lib/display';
-import { formatAirTemperature, formatBarometric } from '@/lib/air-conditions';
+import { curvesCsv, download, fileSlug } from '../lib/display';
+import { displayUnits } from '@shared/units-display';
+import { formatAirTemperature, formatBarometric } from '@shared/units-display';
 import { useShopUnits } from '@/lib/shop-query';
 
 const signed = (v: number, d = 1) => formatNumber(v, { decimals: d, signed: true });
@@ -132,9 +133,7 @@ export function ComparisonView({ preview, name }: { preview: ComparisonPreview; 
   );
 }
 
-function labelOf(id: string) {
-  return id === 'none' ? 'uncorrected' : (CORRECTION_STANDARDS.find((c) => c.id === id)?.label ?? id);
-}
+const labelOf = (id: string) => correctionLabel(id, 'uncorrected');
 
 function Warnings({ warnings }: { warnings: ComparisonWarning[] }) {
   if (!warnings.length) return null;
@@ -193,31 +192,17 @@ function ResultCard({ result: r, name, colour, baselineName, units }: { result: 
           <li key={i}>{s}</li>
         ))}
       </ul>
-      <div className="mt-4 overflow-x-auto">
-        <table className="w-full min-w-[32rem] text-sm">
-          <caption className="sr-only">Average gain per rpm band, {name} against {baselineName}</caption>
-          <thead className="bg-paper-sunk text-left text-ink-muted">
-            <tr>
-              <th scope="col" className="px-3 py-2 font-medium">rpm band</th>
-              <th scope="col" className="px-3 py-2 text-right font-medium">Δ power ({units.power})</th>
-              <th scope="col" className="px-3 py-2 text-right font-medium">Δ torque ({units.torque})</th>
-              <th scope="col" className="px-3 py-2 text-right font-medium">Run-to-run spread</th>
-              <th scope="col" className="px-3 py-2 font-medium">Reading</th>
-            </tr>
-          </thead>
-          <tbody className="num">
-            {r.bands.map((b) => (
-              <tr key={b.from} className="border-t border-line">
-                <th scope="row" className="px-3 py-2 text-left font-medium">{formatRpmRange(b.from, b.to)}</th>
-                <td className={cn('px-3 py-2 text-right', b.averagePowerGainHp < 0 && 'text-loss')}>{signed(units.p(b.averagePowerGainHp))}</td>
-                <td className={cn('px-3 py-2 text-right', b.averageTorqueGainLbft < 0 && 'text-loss')}>{signed(units.t(b.averageTorqueGainLbft))}</td>
-                <td className="px-3 py-2 text-right">{b.spreadHp === null ? '—' : `±${formatNumber(units.p(b.spreadHp), { decimals: 1 })}`}</td>
-                <td className="px-3 py-2">{b.withinRepeatability === null ? 'spread unknown' : b.withinRepeatability ? 'within repeatability' : b.averagePowerGainHp >= 0 ? 'gain' : 'loss'}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </div>
+      <SimpleTable columns={['rpm band', { label: <>Δ power ({units.power})</>, numeric: true }, { label: <>Δ torque ({units.torque})</>, numeric: true }, { label: 'Run-to-run spread', numeric: true }, 'Reading']} caption={<>Average gain per rpm band, {name} against {baselineName}</>} className="mt-4 overflow-x-auto" minWidth="min-w-[32rem]">
+        {r.bands.map((b) => (
+          <tr key={b.from} className="border-t border-line">
+            <th scope="row" className="px-3 py-2 text-left font-medium">{formatRpmRange(b.from, b.to)}</th>
+            <td className={cn('px-3 py-2 text-right', b.averagePowerGainHp < 0 && 'text-loss')}>{signed(units.p(b.averagePowerGainHp))}</td>
+            <td className={cn('px-3 py-2 text-right', b.averageTorqueGainLbft < 0 && 'text-loss')}>{signed(units.t(b.averageTorqueGainLbft))}</td>
+            <td className="px-3 py-2 text-right">{b.spreadHp === null ? '—' : `±${formatNumber(units.p(b.spreadHp), { decimals: 1 })}`}</td>
+            <td className="px-3 py-2">{b.withinRepeatability === null ? 'spread unknown' : b.withinRepeatability ? 'within repeatability' : b.averagePowerGainHp >= 0 ? 'gain' : 'loss'}</td>
+          </tr>
+        ))}
+      </SimpleTable>
     </Card>
   );
 }
@@ -227,48 +212,34 @@ function RunsTable({ preview, units }: { preview: ComparisonPreview; units: Retu
   const airUnits = useShopUnits();
   return (
     <Card title="Runs in this comparison" flush>
-      <div className="overflow-x-auto">
-        <table className="w-full min-w-[40rem] text-sm">
-          <thead className="bg-paper-sunk text-left text-ink-muted">
-            <tr>
-              <th scope="col" className="px-3 py-2 font-medium">Run</th>
-              <th scope="col" className="px-3 py-2 text-right font-medium">Peak power</th>
-              <th scope="col" className="px-3 py-2 text-right font-medium">Peak torque</th>
-              <th scope="col" className="px-3 py-2 font-medium">Correction</th>
-              <th scope="col" className="px-3 py-2 font-medium">Air</th>
-              <th scope="col" className="px-3 py-2 font-medium">Dyno</th>
-            </tr>
-          </thead>
-          <tbody className="num">
-            {preview.runs.map((r, i) => (
-              <tr key={r.runId} className="border-t border-line">
-                <th scope="row" className="px-3 py-2 text-left font-medium">
-                  <span className="inline-flex items-center gap-2">
-                    <span aria-hidden="true" className="inline-block h-3 w-3 rounded-sm" style={{ background: runColor(r.colorIndex ?? i) }} />
-                    {r.name}
-                    {r.runId === preview.baseline.runId && <Badge tone="neutral">baseline</Badge>}
-                  </span>
-                  <span className="block text-xs font-normal text-ink-muted">{r.bikeLabel}</span>
-                </th>
-                <td className="px-3 py-2 text-right">
-                  {formatNumber(units.p(r.peakPower.hp), { decimals: 1 })} {units.power} <span className="text-ink-muted">@ {formatNumber(r.peakPower.rpm)}</span>
-                </td>
-                <td className="px-3 py-2 text-right">
-                  {formatNumber(units.t(r.peakTorque.lbft), { decimals: 1 })} {units.torque} <span className="text-ink-muted">@ {formatNumber(r.peakTorque.rpm)}</span>
-                </td>
-                <td className="px-3 py-2">
-                  {labelOf(r.correction.standard)} × {r.correction.factor.toFixed(3)}
-                  {r.correction.source === 'fallback' && <span className="block text-xs text-warn">stored factor kept (conditions missing)</span>}
-                </td>
-                <td className="px-3 py-2">
-                  {formatAirTemperature(r.conditions.temperatureC, airUnits, '—')} · {formatBarometric(r.conditions.baroKpa, airUnits, '—')}
-                </td>
-                <td className="px-3 py-2">{r.dynoName ?? '—'}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </div>
+      <SimpleTable columns={['Run', { label: 'Peak power', numeric: true }, { label: 'Peak torque', numeric: true }, 'Correction', 'Air', 'Dyno']} className="overflow-x-auto" minWidth="min-w-[40rem]">
+        {preview.runs.map((r, i) => (
+          <tr key={r.runId} className="border-t border-line">
+            <th scope="row" className="px-3 py-2 text-left font-medium">
+              <span className="inline-flex items-center gap-2">
+                <span aria-hidden="true" className="inline-block h-3 w-3 rounded-sm" style={{ background: runColor(r.colorIndex ?? i) }} />
+                {r.name}
+                {r.runId === preview.baseline.runId && <Badge tone="neutral">baseline</Badge>}
+              </span>
+              <span className="block text-xs font-normal text-ink-muted">{r.bikeLabel}</span>
+            </th>
+            <td className="px-3 py-2 text-right">
+              {formatNumber(units.p(r.peakPower.hp), { decimals: 1 })} {units.power} <span className="text-ink-muted">@ {formatNumber(r.peakPower.rpm)}</span>
+            </td>
+            <td className="px-3 py-2 text-right">
+              {formatNumber(units.t(r.peakTorque.lbft), { decimals: 1 })} {units.torque} <span className="text-ink-muted">@ {formatNumber(r.peakTorque.rpm)}</span>
+            </td>
+            <td className="px-3 py-2">
+              {labelOf(r.correction.standard)} × {r.correction.factor.toFixed(3)}
+              {r.correction.source === 'fallback' && <span className="block text-xs text-warn">stored factor kept (conditions missing)</span>}
+            </td>
+            <td className="px-3 py-2">
+              {formatAirTemperature(r.conditions.temperatureC, airUnits, '—')} · {formatBarometric(r.conditions.baroKpa, airUnits, '—')}
+            </td>
+            <td className="px-3 py-2">{r.dynoName ?? '—'}</td>
+          </tr>
+        ))}
+      </SimpleTable>
     </Card>
   );
 }
@@ -279,32 +250,19 @@ function RepeatabilityTable({ preview }: { preview: ComparisonPreview }) {
       {preview.repeatability.length === 0 ? (
         <p className="px-4 py-3 text-ink-muted md:px-5">No stage here has two or more runs yet, so the spread is unknown. Make a second pull of each stage to know what is real.</p>
       ) : (
-        <div className="overflow-x-auto">
-          <table className="w-full min-w-[32rem] text-sm">
-            <thead className="bg-paper-sunk text-left text-ink-muted">
-              <tr>
-                <th scope="col" className="px-3 py-2 font-medium">Stage</th>
-                <th scope="col" className="px-3 py-2 text-right font-medium">Runs</th>
-                <th scope="col" className="px-3 py-2 text-right font-medium">Peak power spread</th>
-                <th scope="col" className="px-3 py-2 text-right font-medium">Peak torque spread</th>
-                <th scope="col" className="px-3 py-2 text-right font-medium">Largest deviation</th>
-              </tr>
-            </thead>
-            <tbody className="num">
-              {preview.repeatability.map((s) => (
-                <tr key={s.stageId} className="border-t border-line">
-                  <th scope="row" className="px-3 py-2 text-left font-medium">{s.stageName}</th>
-                  <td className="px-3 py-2 text-right">{s.runs}</td>
-                  <td className="px-3 py-2 text-right">{formatNumber(s.peakPowerSpreadHp, { decimals: 1 })} hp</td>
-                  <td className="px-3 py-2 text-right">{formatNumber(s.peakTorqueSpreadLbft, { decimals: 1 })} lb·ft</td>
-                  <td className="px-3 py-2 text-right">
-                    {formatNumber(s.largestDeviationHp, { decimals: 1 })} hp at {formatRpm(s.largestDeviationRpm)}
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
+        <SimpleTable columns={['Stage', { label: 'Runs', numeric: true }, { label: 'Peak power spread', numeric: true }, { label: 'Peak torque spread', numeric: true }, { label: 'Largest deviation', numeric: true }]} className="overflow-x-auto" minWidth="min-w-[32rem]">
+          {preview.repeatability.map((s) => (
+            <tr key={s.stageId} className="border-t border-line">
+              <th scope="row" className="px-3 py-2 text-left font-medium">{s.stageName}</th>
+              <td className="px-3 py-2 text-right">{s.runs}</td>
+              <td className="px-3 py-2 text-right">{formatNumber(s.peakPowerSpreadHp, { decimals: 1 })} hp</td>
+              <td className="px-3 py-2 text-right">{formatNumber(s.peakTorqueSpreadLbft, { decimals: 1 })} lb·ft</td>
+              <td className="px-3 py-2 text-right">
+                {formatNumber(s.largestDeviationHp, { decimals: 1 })} hp at {formatRpm(s.largestDeviationRpm)}
+              </td>
+            </tr>
+          ))}
+        </SimpleTable>
       )}
     </Card>
   );

@@ -1,6 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
 import { MAX_COMPARISON_RUNS } from '@shared/schemas/comparison';
-import { Badge, Button, ErrorState, LoadingState, cn } from '@/components/ui';
+import { Badge, Button, ErrorState, LoadingState, cn, SimpleTable } from '@/components/ui';
 import { formatDate, formatNumber } from '@shared/format';
 import { comparisonQueries } from '../api/comparison-queries';
 
@@ -36,65 +36,51 @@ export function RunPicker({ bikeId, selected, baselineRunId, onToggle, onBaselin
       {runs.length === 0 ? (
         <p className="px-4 py-3 text-ink-muted">No runs on file for this bike yet.</p>
       ) : (
-        <div className="max-h-80 overflow-auto">
-          <table className="w-full min-w-[36rem] text-sm">
-            <thead className="sticky top-0 bg-paper-sunk text-left text-ink-muted">
-              <tr>
-                <th scope="col" className="w-20 px-3 py-2 font-medium">Compare</th>
-                <th scope="col" className="w-20 px-3 py-2 font-medium">Baseline</th>
-                <th scope="col" className="px-3 py-2 font-medium">Run</th>
-                <th scope="col" className="px-3 py-2 font-medium">Stage</th>
-                <th scope="col" className="px-3 py-2 text-right font-medium">Peak power</th>
-                <th scope="col" className="px-3 py-2 font-medium">Date</th>
+        <SimpleTable columns={[{ label: 'Compare', className: 'w-20' }, { label: 'Baseline', className: 'w-20' }, 'Run', 'Stage', { label: 'Peak power', numeric: true }, 'Date']} className="max-h-80 overflow-auto" minWidth="min-w-[36rem]" stickyHead>
+          {runs.map((r) => {
+            const on = selected.includes(r.id);
+            const ready = r.status === 'ready';
+            const colour = colourOf(r.id);
+            return (
+              <tr key={r.id} className={cn('border-t border-line', on && 'bg-accent-soft/40', !ready && 'text-ink-subtle')}>
+                <td className="px-3 py-2">
+                  <input
+                    type="checkbox"
+                    className="focus-ring h-5 w-5 accent-accent"
+                    aria-label={`Compare ${r.name}`}
+                    checked={on}
+                    disabled={!ready || (!on && full)}
+                    onChange={(e) => onToggle(r.id, e.target.checked)}
+                  />
+                </td>
+                <td className="px-3 py-2">
+                  <input
+                    type="radio"
+                    name="baseline-run"
+                    className="focus-ring h-5 w-5 accent-accent"
+                    aria-label={`Use ${r.name} as the baseline`}
+                    checked={baselineRunId === r.id}
+                    disabled={!on}
+                    onChange={() => onBaseline(r.id)}
+                  />
+                </td>
+                <th scope="row" className="px-3 py-2 text-left font-medium">
+                  <span className="inline-flex items-center gap-2">
+                    {colour && <span aria-hidden="true" className="inline-block h-3 w-3 rounded-sm" style={{ background: colour }} />}
+                    {r.name}
+                  </span>
+                  {!ready && <span className="block text-xs font-normal">not ready ({r.status})</span>}
+                  {r.identityStatus === 'mismatch' && <span className="block text-xs font-normal text-warn">cross-check failed</span>}
+                </th>
+                <td className="px-3 py-2">
+                  {r.stageName ?? <span className="text-ink-subtle">unstaged</span>} {r.isReference && <Badge tone="info">reference</Badge>}
+                </td>
+                <td className="px-3 py-2 text-right">{r.peakPowerHp === null ? '—' : `${formatNumber(r.peakPowerHp, { decimals: 1 })} hp`}</td>
+                <td className="px-3 py-2">{formatDate(r.recordedAt)}</td>
               </tr>
-            </thead>
-            <tbody className="num">
-              {runs.map((r) => {
-                const on = selected.includes(r.id);
-                const ready = r.status === 'ready';
-                const colour = colourOf(r.id);
-                return (
-                  <tr key={r.id} className={cn('border-t border-line', on && 'bg-accent-soft/40', !ready && 'text-ink-subtle')}>
-                    <td className="px-3 py-2">
-                      <input
-                        type="checkbox"
-                        className="focus-ring h-5 w-5 accent-accent"
-                        aria-label={`Compare ${r.name}`}
-                        checked={on}
-                        disabled={!ready || (!on && full)}
-                        onChange={(e) => onToggle(r.id, e.target.checked)}
-                      />
-                    </td>
-                    <td className="px-3 py-2">
-                      <input
-                        type="radio"
-                        name="baseline-run"
-                        className="focus-ring h-5 w-5 accent-accent"
-                        aria-label={`Use ${r.name} as the baseline`}
-                        checked={baselineRunId === r.id}
-                        disabled={!on}
-                        onChange={() => onBaseline(r.id)}
-                      />
-                    </td>
-                    <th scope="row" className="px-3 py-2 text-left font-medium">
-                      <span className="inline-flex items-center gap-2">
-                        {colour && <span aria-hidden="true" className="inline-block h-3 w-3 rounded-sm" style={{ background: colour }} />}
-                        {r.name}
-                      </span>
-                      {!ready && <span className="block text-xs font-normal">not ready ({r.status})</span>}
-                      {r.identityStatus === 'mismatch' && <span className="block text-xs font-normal text-warn">cross-check failed</span>}
-                    </th>
-                    <td className="px-3 py-2">
-                      {r.stageName ?? <span className="text-ink-subtle">unstaged</span>} {r.isReference && <Badge tone="info">reference</Badge>}
-                    </td>
-                    <td className="px-3 py-2 text-right">{r.peakPowerHp === null ? '—' : `${formatNumber(r.peakPowerHp, { decimals: 1 })} hp`}</td>
-                    <td className="px-3 py-2">{formatDate(r.recordedAt)}</td>
-                  </tr>
-                );
-              })}
-            </tbody>
-          </table>
-        </div>
+            );
+          })}
+        </SimpleTable>
       )}
     </fieldset>
   );

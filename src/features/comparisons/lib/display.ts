@@ -1,22 +1,9 @@
 /**
- * Display helpers of the comparisons feature: unit conversion of the API's hp / lb·ft figures
- * (with the analysis module's NIST SP 811 factors), the aligned-curves CSV and file downloads.
+ * Display helpers of the comparisons feature: the aligned-curves CSV and file downloads. Unit
+ * conversion is the shared one (src/shared/units-display.ts).
  */
-import type { ComparisonPreview, ComparisonUnits } from '@shared/schemas/comparison';
-import { hpTo, lbftTo } from '@shared/analysis/units';
-
-export interface DisplayUnits {
-  power: 'hp' | 'kW';
-  torque: 'lb·ft' | 'N·m';
-  p: (hp: number) => number;
-  t: (lbft: number) => number;
-}
-
-export function displayUnits(units: ComparisonUnits | undefined): DisplayUnits {
-  return units === 'kw-nm'
-    ? { power: 'kW', torque: 'N·m', p: (v) => hpTo(v, 'kw'), t: (v) => lbftTo(v, 'nm') }
-    : { power: 'hp', torque: 'lb·ft', p: (v) => v, t: (v) => v };
-}
+import type { ComparisonPreview } from '@shared/schemas/comparison';
+import type { DisplayUnits } from '@shared/units-display';
 
 /** A CSV cell: quoted, and a leading = + - @ neutralised so spreadsheets do not run it as a formula. */
 function cell(v: string | number | null): string {

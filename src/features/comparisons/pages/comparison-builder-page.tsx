@@ -4,6 +4,7 @@ import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { COMPARISON_UNITS, MAX_COMPARISON_RUNS, type ComparisonOptions, type ComparisonPreviewInput, type ComparisonUnits } from '@shared/schemas/comparison';
 import type { CorrectionId } from '@shared/schemas/run';
 import { CORRECTION_STANDARDS } from '@shared/analysis/correction';
+import { correctionOptions } from '@shared/labels-display';
 import { Button, Card, EmptyState, ErrorState, Icon, LoadingState, NumberField, PageHeader, SearchInput, SelectField, useDebouncedValue } from '@/components/ui';
 import { runColor } from '@/lib/chart-theme';
 import { paths } from '@/config/paths';
@@ -173,7 +174,7 @@ export default function ComparisonBuilderPage() {
               hint="Each run is re-corrected from its uncorrected curve and its air conditions."
               value={correction}
               onChange={(e) => setCorrection(e.target.value as CorrectionId | '')}
-              options={[{ value: '', label: 'Each run’s own (as uploaded)' }, ...CORRECTION_STANDARDS.map((s) => ({ value: s.id, label: s.label }))]}
+              options={[{ value: '', label: 'Each run’s own (as uploaded)' }, ...correctionOptions(CORRECTION_STANDARDS.map((s) => s.id))]}
             />
             <NumberField label="Extra smoothing" unit="points" hint="0 = as stored; odd windows of 3–51 points." min={0} max={51} step={2} value={smooth ?? ''} onChange={(e) => setSmooth(e.target.value === '' ? null : Number(e.target.value))} />
             <SelectField label="Units" value={units} onChange={(e) => setUnits(e.target.value as ComparisonUnits)} options={COMPARISON_UNITS.map((u) => ({ value: u, label: UNIT_LABELS[u] }))} />

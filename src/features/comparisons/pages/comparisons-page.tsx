@@ -1,6 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
 import { Link, useSearchParams } from 'react-router-dom';
-import { EmptyState, ErrorState, Icon, LoadingState, PageHeader } from '@/components/ui';
+import { EmptyState, ErrorState, Icon, LoadingState, PageHeader, SimpleTable } from '@/components/ui';
 import { formatDate } from '@shared/format';
 import { paths } from '@/config/paths';
 import { comparisonQueries } from '../api/comparison-queries';
@@ -29,40 +29,27 @@ export default function ComparisonsPage() {
       ) : q.data.length === 0 ? (
         <EmptyState title="No saved comparisons yet" message="Build one from a bike’s runs: the previous stage against the latest is suggested." action={<Link className="text-accent underline" to={newLink}>New comparison</Link>} icon="inbox" />
       ) : (
-        <div className="overflow-x-auto rounded-card border border-line bg-paper-raised shadow-card">
-          <table className="w-full min-w-[36rem] text-sm">
-            <caption className="sr-only">Saved comparisons</caption>
-            <thead className="bg-paper-sunk text-left text-ink-muted">
-              <tr>
-                <th scope="col" className="px-4 py-2 font-medium">Name</th>
-                <th scope="col" className="px-4 py-2 font-medium">Bike</th>
-                <th scope="col" className="px-4 py-2 text-right font-medium">Runs</th>
-                <th scope="col" className="px-4 py-2 font-medium">Saved</th>
-              </tr>
-            </thead>
-            <tbody className="num">
-              {q.data.map((c) => (
-                <tr key={c.id} className="border-t border-line hover:bg-paper-sunk/60">
-                  <th scope="row" className="px-4 py-2 text-left">
-                    <Link to={paths.comparison(c.id)} className="focus-ring rounded-control font-semibold text-accent underline-offset-2 hover:underline">
-                      {c.name}
-                    </Link>
-                  </th>
-                  <td className="px-4 py-2">
-                    <Link to={paths.bike(c.bikeId)} className="focus-ring rounded-control underline-offset-2 hover:underline">
-                      {c.bikeLabel}
-                    </Link>
-                  </td>
-                  <td className="px-4 py-2 text-right">{c.runIds.length}</td>
-                  <td className="px-4 py-2">
-                    {formatDate(c.createdAt)}
-                    {c.createdByName ? <span className="text-ink-muted"> · {c.createdByName}</span> : null}
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
+        <SimpleTable columns={['Name', 'Bike', { label: 'Runs', numeric: true }, 'Saved']} caption="Saved comparisons" className="overflow-x-auto rounded-card border border-line bg-paper-raised shadow-card" minWidth="min-w-[36rem]" pad="px-4">
+          {q.data.map((c) => (
+            <tr key={c.id} className="border-t border-line hover:bg-paper-sunk/60">
+              <th scope="row" className="px-4 py-2 text-left">
+                <Link to={paths.comparison(c.id)} className="focus-ring rounded-control font-semibold text-accent underline-offset-2 hover:underline">
+                  {c.name}
+                </Link>
+              </th>
+              <td className="px-4 py-2">
+                <Link to={paths.bike(c.bikeId)} className="focus-ring rounded-control underline-offset-2 hover:underline">
+                  {c.bikeLabel}
+                </Link>
+              </td>
+              <td className="px-4 py-2 text-right">{c.runIds.length}</td>
+              <td className="px-4 py-2">
+                {formatDate(c.createdAt)}
+                {c.createdByName ? <span className="text-ink-muted"> · {c.createdByName}</span> : null}
+              </td>
+            </tr>
+          ))}
+        </SimpleTable>
       )}
     </>
   );

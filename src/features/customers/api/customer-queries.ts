@@ -3,6 +3,7 @@ import type { Page } from '@shared/schemas/common';
 import type { CustomerDto } from '@shared/schemas/customer';
 import type { BikeDto } from '@shared/schemas/bike';
 import { api } from '@/lib/api-client';
+import { customerKeys } from '@/lib/query-keys';
 
 /** A page of the customer table as the server sorts and filters it. `sort` is "name" or "-name". */
 export interface CustomerListFilters {
@@ -17,25 +18,24 @@ export interface CustomerListFilters {
  * mutation can invalidate the whole feature with `customerQueries.all()`.
  */
 export const customerQueries = {
-  all: () => ['customers'] as const,
-  lists: () => [...customerQueries.all(), 'list'] as const,
+  all: customerKeys.all,
+  lists: customerKeys.lists,
   list: (filters: CustomerListFilters) =>
     queryOptions({
-      queryKey: [...customerQueries.lists(), filters] as const,
+      queryKey: customerKeys.list(filters),
       queryFn: () => api.get<Page<CustomerDto>>('/api/customers', { ...filters }),
       // Keep the old page on screen while the next one loads, so the table does not jump.
       placeholderData: keepPreviousData,
     }),
-  details: () => [...customerQueries.all(), 'detail'] as const,
   detail: (id: string) =>
     queryOptions({
-      queryKey: [...customerQueries.details(), id] as const,
+      queryKey: customerKeys.detail(id),
       queryFn: () => api.get<CustomerDto>(`/api/customers/${id}`),
     }),
   /** The customer's bikes. Under the customer's key: bike changes invalidate ['customers'] too, as bike counts change. */
   bikes: (id: string) =>
     queryOptions({
-      queryKey: [...customerQueries.details(), id, 'bikes'] as const,
+      queryKey: customerKeys.bikes(id),
       queryFn: () => api.get<Page<BikeDto>>('/api/bikes', { customerId: id, sort: 'make', pageSize: 200 }),
     }),
 };

@@ -1,5 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
+import { userKeys } from '@/lib/query-keys';
 import { customerQueries } from './customer-queries';
 
 export interface PortalInvite {
@@ -20,7 +21,7 @@ export function useGivePortalAccess(customerId: string) {
         qc.invalidateQueries({ queryKey: customerQueries.detail(customerId).queryKey }),
         qc.invalidateQueries({ queryKey: customerQueries.lists() }),
         // The admin feature lists users under ['users'].
-        qc.invalidateQueries({ queryKey: ['users'] }),
+        qc.invalidateQueries({ queryKey: userKeys.all() }),
       ]),
   });
 }

@@ -1,10 +1,10 @@
-import { Link, useNavigate, useSearchParams } from 'react-router-dom';
+import { Link, useNavigate } from 'react-router-dom';
 import { createColumnHelper } from '@tanstack/react-table';
 import type { CustomerDto } from '@shared/schemas/customer';
-import { Button, DataTable, ErrorState, Icon, PageHeader, SearchInput, StatusBadge } from '@/components/ui';
+import { StatusBadge } from '@/components/ui';
 import { formatDate, formatNumber } from '@shared/format';
 import { hasRole, useCurrentUser } from '@/lib/auth';
-import { useServerTable } from '@/lib/use-server-table';
+import { ServerListPage, useNewDialogParam } from '@/lib/server-list-page';
 import { paths } from '@/config/paths';
 import { customerQueries } from '../api/customer-queries';
 import { CustomerFormDialog } from '../components/customer-form-dialog';
@@ -34,61 +34,32 @@ export default function CustomersPage() {
   const user = useCurrentUser();
   const canEdit = hasRole(user, ['owner', 'desk']);
   const navigate = useNavigate();
-  const [params, setParams] = useSearchParams();
-  const { search, onSearchChange, q, list, tableProps } = useServerTable({ defaultSort: [{ id: 'name', desc: false }], query: customerQueries.list });
-  const creating = canEdit && params.get('new') === '1';
-
-  const setCreating = (open: boolean) =>
-    setParams(
-      (p) => {
-        if (open) p.set('new', '1');
-        else p.delete('new');
-        return p;
-      },
-      { replace: true },
-    );
+  const [newParam, setCreating] = useNewDialogParam();
+  const creating = canEdit && newParam;
 
   return (
-    <>
-      <PageHeader
-        title="Customers"
-        subtitle={list.data ? `${formatNumber(list.data.total)} ${list.data.total === 1 ? 'customer' : 'customers'}${q ? ` matching “${q}”` : ''}` : 'Riders and their bikes'}
-        action={
-          canEdit && (
-            <Button variant="primary" icon={<Icon name="plus" size={18} />} onClick={() => setCreating(true)}>
-              New customer
-            </Button>
-          )
-        }
-      />
-      <SearchInput
-        label="Search customers"
-        placeholder="Search by name, e-mail or phone"
-        value={search}
-        onValueChange={onSearchChange}
-        containerClassName="mb-4 max-w-md"
-      />
-      {list.isError && !list.data ? (
-        <ErrorState error={list.error} onRetry={() => list.refetch()} isRetrying={list.isFetching} />
-      ) : (
-        <DataTable
-          caption="Customers"
-          columns={columns}
-          getRowId={(c) => c.id}
-          {...tableProps}
-          maxHeight={null}
-          emptyMessage={
-            q ? (
-              <>No customer matches “{q}”. Check the spelling, or search by phone number.</>
-            ) : canEdit ? (
-              <>No customers yet. Add the first one with “New customer”.</>
-            ) : (
-              <>No customers yet.</>
-            )
-          }
-        />
-      )}
+    <ServerListPage
+      title="Customers"
+      noun={['customer', 'customers']}
+      idleSubtitle="Riders and their bikes"
+      newButton={canEdit ? { label: 'New customer', onClick: () => setCreating(true) } : undefined}
+      searchLabel="Search customers"
+      searchPlaceholder="Search by name, e-mail or phone"
+      columns={columns}
+      getRowId={(c) => c.id}
+      emptyMessage={(q) =>
+        q ? (
+          <>No customer matches “{q}”. Check the spelling, or search by phone number.</>
+        ) : canEdit ? (
+          <>No customers yet. Add the first one with “New customer”.</>
+        ) : (
+          <>No customers yet.</>
+        )
+      }
+      defaultSort={[{ id: 'name', desc: false }]}
+      query={customerQueries.list}
+    >
       <CustomerFormDialog open={creating} onClose={() => setCreating(false)} onSaved={(c) => navigate(paths.customer(c.id))} />
-    </>
+    </ServerListPage>
   );
 }

@@ -1,12 +1,13 @@
 import { queryOptions } from '@tanstack/react-query';
 import type { DynoDto } from '@shared/schemas/run';
 import { api } from '@/lib/api-client';
+import { dynoKeys } from '@/lib/query-keys';
 
 export const dynoQueries = {
-  all: () => ['dynos'] as const,
+  all: dynoKeys.all,
   list: () =>
     queryOptions({
-      queryKey: [...dynoQueries.all(), 'list'] as const,
+      queryKey: dynoKeys.list(),
       queryFn: async () => {
         const r = await api.get<DynoDto[] | { items: DynoDto[] }>('/api/dynos');
         return Array.isArray(r) ? r : r.items;

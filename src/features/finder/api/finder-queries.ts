@@ -1,5 +1,6 @@
 import { infiniteQueryOptions, queryOptions } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
+import { buildKeys } from '@/lib/query-keys';
 import type { BuildSearchPage, SimilarBuildsDto, TypicalOutcomeDto } from '@shared/schemas/builds';
 
 export type { BuildItemDto, BuildSearchPage, SimilarBuildDto, SimilarBuildsDto, TypicalOutcomeDto } from '@shared/schemas/builds';
@@ -9,22 +10,21 @@ export type FinderFilters = Record<string, string>;
 
 /** Query keys and fetchers of the build finder. */
 export const finderQueries = {
-  all: ['finder'] as const,
   search: (filters: FinderFilters) =>
     infiniteQueryOptions({
-      queryKey: [...finderQueries.all, 'search', filters] as const,
+      queryKey: buildKeys.search(filters),
       queryFn: ({ pageParam }) => api.get<BuildSearchPage>('/api/builds/search', { ...filters, cursor: pageParam ?? undefined }),
       initialPageParam: null as string | null,
       getNextPageParam: (last) => last.next,
     }),
   similar: (bikeId: string) =>
     queryOptions({
-      queryKey: [...finderQueries.all, 'similar', bikeId] as const,
+      queryKey: buildKeys.similar(bikeId),
       queryFn: () => api.get<SimilarBuildsDto>(`/api/bikes/${bikeId}/similar`),
     }),
   typical: (bikeId: string, category: string, level?: string) =>
     queryOptions({
-      queryKey: [...finderQueries.all, 'typical', bikeId, category, level ?? ''] as const,
+      queryKey: buildKeys.typical(bikeId, category, level ?? ''),
       queryFn: () => api.get<TypicalOutcomeDto>('/api/builds/typical', { bikeId, category, level }),
     }),
 };

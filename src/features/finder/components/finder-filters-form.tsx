@@ -53,6 +53,11 @@ function toFilters(v: BuildSearchFormValues, sort: string | undefined): FinderFi
 
 const EMPTY = toFormValues({});
 
+const DISPLACEMENT_UNITS = [
+  { value: 'cc', label: 'cm³' },
+  { value: 'ci', label: 'in³' },
+];
+
 /**
  * The finder's filters (react-hook-form + the shared `buildSearchForm` schema): Enter submits
  * from any field, every control is labelled, a wrong value is marked at its field and summed up
@@ -83,10 +88,7 @@ export function FinderFiltersForm({ initial, onSearch, busy }: FinderFiltersForm
           <SelectField
             label="Unit"
             containerClassName="min-w-24"
-            options={[
-              { value: 'cc', label: 'cm³' },
-              { value: 'ci', label: 'in³' },
-            ]}
+            options={DISPLACEMENT_UNITS}
             error={errors.unit}
             {...form.register('unit')}
           />

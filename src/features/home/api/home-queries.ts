@@ -3,8 +3,10 @@ import type { BikeDto } from '@shared/schemas/bike';
 import type { Page } from '@shared/schemas/common';
 import type { CustomerDto } from '@shared/schemas/customer';
 import { api } from '@/lib/api-client';
+import { bikeKeys, customerKeys } from '@/lib/query-keys';
 
 const RECENT = { sort: '-createdAt', page: 1, pageSize: 5 };
+const MINE = { sort: 'make', page: 1, pageSize: 200 };
 
 /**
  * The start page's reads. Their keys name the API resource and its query, exactly as the
@@ -12,22 +14,20 @@ const RECENT = { sort: '-createdAt', page: 1, pageSize: 5 };
  * ['customers', 'list'] and ['bikes', 'list']) refresh this page too without importing it.
  */
 export const homeQueries = {
-  all: () => ['home'] as const,
   recentCustomers: () =>
     queryOptions({
-      queryKey: ['customers', 'list', RECENT] as const,
+      queryKey: customerKeys.list(RECENT),
       queryFn: () => api.get<Page<CustomerDto>>('/api/customers', RECENT),
     }),
   recentBikes: () =>
     queryOptions({
-      queryKey: ['bikes', 'list', RECENT] as const,
+      queryKey: bikeKeys.list(RECENT),
       queryFn: () => api.get<Page<BikeDto>>('/api/bikes', RECENT),
     }),
   /** A customer's own bikes; the server answers only theirs. */
   myBikes: () =>
     queryOptions({
-      queryKey: ['bikes', 'list', { sort: 'make', page: 1, pageSize: 200 }] as const,
-      queryFn: () => api.get<Page<BikeDto>>('/api/bikes', { sort: 'make', page: 1, pageSize: 200 }),
+      queryKey: bikeKeys.list(MINE),
+      queryFn: () => api.get<Page<BikeDto>>('/api/bikes', MINE),
     }),
-  shop: () => queryOptions({ queryKey: ['shop'] as const, queryFn: () => api.get<{ name: string }>('/api/shop'), staleTime: 5 * 60_000 }),
 };

@@ -1,10 +1,10 @@
 import { useQuery } from '@tanstack/react-query';
 import { Link } from 'react-router-dom';
-import { ccToCubicInches } from '@shared/displacement';
 import { EmptyState, ErrorState, Icon, LoadingState, PageHeader } from '@/components/ui';
-import { formatNumber } from '@shared/format';
+import { formatCc, formatCubicInches } from '@shared/units-display';
 import { useCurrentUser } from '@/lib/auth';
 import { paths } from '@/config/paths';
+import { shopQuery } from '@/lib/shop-query';
 import { homeQueries } from '../api/home-queries';
 import { FiguresNotice } from '../components/cautions';
 import { bikeTitle } from '../components/bike-title';
@@ -13,7 +13,7 @@ import { bikeTitle } from '../components/bike-title';
 export default function MyBikesPage() {
   const user = useCurrentUser();
   const bikes = useQuery(homeQueries.myBikes());
-  const shop = useQuery(homeQueries.shop());
+  const shop = useQuery(shopQuery());
 
   return (
     <>
@@ -37,7 +37,7 @@ export default function MyBikesPage() {
                   <p className="num mt-1 text-ink-muted">
                     {[
                       b.engineFamily,
-                      b.displacementCc !== null ? `${formatNumber(b.displacementCc)} cm³ · ${formatNumber(ccToCubicInches(b.displacementCc), { decimals: 1 })} in³` : null,
+                      b.displacementCc !== null ? `${formatCc(b.displacementCc)} · ${formatCubicInches(b.displacementCc)}` : null,
                       b.cylinders !== null ? `${b.cylinders} cyl.` : null,
                     ]
                       .filter(Boolean)

@@ -6,7 +6,7 @@ import { paths } from '@/config/paths';
 import { hasRole, useAuth } from '@/lib/auth';
 import { formatDate } from '@shared/format';
 import { reportQueries } from '../api/report-queries';
-import { useCreateReport } from '../api/report-mutations';
+import { useCreateReport } from '../api/create-report';
 
 /** "Make gain report" for a saved comparison: optional technician's note, then the report page. */
 export function ComparisonReportActions({ comparisonId }: { comparisonId: string }) {

@@ -1,6 +1,6 @@
 import { formatRpm } from '@shared/format';
 import type { ReportGainView, ReportRunView } from '../api/types';
-import { pctChange, powerGain, powerValue, torqueGain, torqueValue, type DisplayUnits } from '../lib/units';
+import { pctChange, powerGain, powerValue, torqueGain, torqueValue, type DisplayUnits } from '@shared/units-display';
 
 /** Headline figures of the last run against the baseline, large and tabular. */
 export function HeadlineFigures({ gain, run, units }: { gain: ReportGainView; run?: ReportRunView; units: DisplayUnits }) {

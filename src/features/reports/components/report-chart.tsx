@@ -3,7 +3,7 @@ import ReactECharts from 'echarts-for-react';
 import type { EChartsOption, LineSeriesOption } from 'echarts';
 import { LINE_DASHARRAY, baseChartOption, runSeries, whenChartFontReady } from '@/lib/chart-theme';
 import type { ReportCurveView, ReportRunView } from '../api/types';
-import type { DisplayUnits } from '../lib/units';
+import type { DisplayUnits } from '@shared/units-display';
 import { niceStep, sharedPowerTorqueRange } from '@shared/chart-scale';
 
 /** The report's overlay chart on screen: the same curves, colours and line styles as the PDF. */

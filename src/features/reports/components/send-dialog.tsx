@@ -1,11 +1,10 @@
-import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { sendInput } from '@shared/schemas/report';
-import { Button, Dialog, FormError, TextAreaField, TextField, useToast, fieldProblemsSummary } from '@/components/ui';
-import { applyFieldErrors } from '@/lib/api-client';
-import { useSendReport } from '../api/report-mutations';
+import { FormDialog, TextAreaField, TextField, useToast } from '@/components/ui';
+import { useFormSubmit } from '@/lib/use-form-submit';
+import { useSendReport } from '../api/send-report';
 import type { ReportDetail } from '../api/types';
 
 type SendValues = z.input<typeof sendInput>;
@@ -23,50 +22,37 @@ function prefilledMessage(r: ReportDetail) {
 export function SendReportDialog({ report, open, onClose }: { report: ReportDetail; open: boolean; onClose: () => void }) {
   const send = useSendReport(report.id);
   const toast = useToast();
-  const [formError, setFormError] = useState<string | null>(null);
   const form = useForm<SendValues, unknown, z.output<typeof sendInput>>({
     resolver: zodResolver(sendInput),
     mode: 'onTouched',
     defaultValues: { to: report.customer.email ?? '', message: prefilledMessage(report) },
   });
-  const { errors, isSubmitted } = form.formState;
-  const fieldProblems = fieldProblemsSummary(isSubmitted, errors);
+  const { errors } = form.formState;
 
-  const onSubmit = form.handleSubmit(async (values) => {
-    setFormError(null);
-    try {
-      await send.mutateAsync(values);
-      toast.success(`Report sent to ${values.to}`);
-      onClose();
-    } catch (err) {
-      if (!applyFieldErrors(err, form.setError)) setFormError(err instanceof Error ? err.message : 'Try again in a moment.');
-    }
+  const { onSubmit, alert } = useFormSubmit(form, async (values) => {
+    await send.mutateAsync(values);
+    toast.success(`Report sent to ${values.to}`);
+    onClose();
   });
 
   return (
-    <Dialog
+    <FormDialog
       open={open}
       onClose={onClose}
       busy={send.isPending}
       title="Send the report to the customer"
       description={`Version ${report.version} of ${report.number} goes as a PDF attachment, with a share link valid for 30 days.`}
       size="lg"
-      footer={
-        <>
-          <Button variant="ghost" onClick={onClose} disabled={send.isPending}>
-            Cancel
-          </Button>
-          <Button variant="primary" type="submit" form="send-report-form" loading={send.isPending} loadingText="Sending…">
-            Send report
-          </Button>
-        </>
-      }
+      formId="send-report-form"
+      onSubmit={onSubmit}
+      submitLabel="Send report"
+      busyLabel="Sending…"
+      cancelVariant="ghost"
+      formError={alert}
+      formErrorTitle="The report was not sent"
     >
-      <form id="send-report-form" onSubmit={onSubmit} className="space-y-4" noValidate>
-        <FormError error={formError ?? fieldProblems} title="The report was not sent" />
         <TextField label="To" type="email" autoComplete="email" required error={errors.to} hint={report.customer.email ? undefined : 'This customer has no e-mail address on file.'} {...form.register('to')} />
         <TextAreaField label="Message" rows={9} required error={errors.message} {...form.register('message')} />
-      </form>
-    </Dialog>
+    </FormDialog>
   );
 }

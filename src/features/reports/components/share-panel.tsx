@@ -3,7 +3,8 @@ import { useQuery } from '@tanstack/react-query';
 import { Badge, Button, Card, ConfirmDialog, EmptyState, ErrorState, LoadingState, SelectField, useToast } from '@/components/ui';
 import { formatCount, formatDate, formatDateTime } from '@shared/format';
 import { reportQueries } from '../api/report-queries';
-import { useCreateShare, useRevokeShare } from '../api/report-mutations';
+import { useCreateShare } from '../api/create-share';
+import { useRevokeShare } from '../api/revoke-share';
 import type { ShareLinkView } from '../api/types';
 
 const EXPIRY_OPTIONS = [

@@ -11,7 +11,7 @@ import { HeadlineFigures } from '../components/gain-figures';
 import { SendReportDialog } from '../components/send-dialog';
 import { SharePanel } from '../components/share-panel';
 import { DeliveryLog } from '../components/delivery-log';
-import { displayUnits, powerGain, type DisplayUnits } from '../lib/units';
+import { displayUnits, powerGain, type DisplayUnits } from '@shared/units-display';
 import { costCoverage, type ReportCost } from '@shared/schemas/report';
 import { formatMoney } from '@shared/format';
 

@@ -6,7 +6,7 @@ import { formatDate, formatRpm } from '@shared/format';
 import { reportQueries } from '../api/report-queries';
 import { ReportChart } from '../components/report-chart';
 import { HeadlineFigures } from '../components/gain-figures';
-import { powerValue, torqueValue, displayUnits } from '../lib/units';
+import { powerValue, torqueValue, displayUnits } from '@shared/units-display';
 
 function NotValid({ rateLimited }: { rateLimited: boolean }) {
   return (

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import type { BikeDto } from '@shared/schemas/bike';
 import { Button, ErrorState, LoadingState, SearchInput, useDebouncedValue } from '@/components/ui';
-import { bikeLabel, lookupQueries } from '../api/run-queries';
+import { bikeLabel, lookupQueries } from '../api/runs/run-queries';
 
 /** Search the shop's bikes by make, model, VIN or owner and pick one. */
 export function BikePicker({ onPick }: { onPick: (bike: BikeDto) => void }) {

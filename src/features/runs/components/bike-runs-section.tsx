@@ -5,8 +5,8 @@ import { Card, DataTable, ErrorState, Icon } from '@/components/ui';
 import { formatDate, formatDateTime, formatHp, formatRpm, formatTorque } from '@shared/format';
 import { useCurrentUser } from '@/lib/auth';
 import { paths } from '@/config/paths';
-import { runQueries } from '../api/run-queries';
-import { sessionQueries } from '../api/session-queries';
+import { runQueries } from '../api/runs/run-queries';
+import { sessionQueries } from '../api/sessions/session-queries';
 import { RunStatusBadge } from './run-status';
 import { runColumn, runNameColumn } from './run-columns';
 

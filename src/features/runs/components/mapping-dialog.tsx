@@ -3,9 +3,10 @@ import type { z } from 'zod';
 import { useQuery } from '@tanstack/react-query';
 import type { RunSummaryDto } from '@shared/schemas/run';
 import { columnMappingInput } from '@shared/schemas/run';
-import { Button, CheckboxField, cn, Dialog, ErrorState, FormError, LoadingState, SelectField, TextField } from '@/components/ui';
-import { runQueries } from '../api/run-queries';
-import { useApplyMapping, type ApplyMapping } from '../api/apply-mapping';
+import { DialogActions, CheckboxField, cn, Dialog, ErrorState, FormError, LoadingState, SelectField, TextField } from '@/components/ui';
+import type { ApiErrorCodeOnClient } from '@/lib/api-client';
+import { runQueries } from '../api/runs/run-queries';
+import { useApplyMapping, type ApplyMapping } from '../api/runs/apply-mapping';
 
 const TORQUE_UNITS = [
   { value: 'lbft', label: 'lb·ft' },
@@ -61,7 +62,7 @@ type Issue = { code: string; message: string } | null | undefined;
  */
 export function mappingReason(error: Issue, needs: string[], rpmColumn: string | undefined): string {
   const rpm = rpmColumn ? `“${rpmColumn}”` : 'a column';
-  switch (error?.code) {
+  switch (error?.code as ApiErrorCodeOnClient | undefined) {
     case 'NO_RPM_COLUMN':
       return 'Pullbook found no engine-speed (rpm) column in this file. Choose it below, with the torque or power column.';
     case 'NO_POWER_OR_TORQUE':
@@ -149,14 +150,15 @@ export function MappingDialog({ runId, fileName, open, onClose, onMapped, error 
         </>
       }
       footer={
-        <>
-          <Button variant="secondary" onClick={onClose} disabled={apply.isPending}>
-            Not now
-          </Button>
-          <Button variant="primary" onClick={submit} loading={apply.isPending} loadingText="Reading the file…" disabled={!preview.data}>
-            Read with these columns
-          </Button>
-        </>
+        <DialogActions
+          onCancel={onClose}
+          cancelLabel="Not now"
+          submitLabel="Read with these columns"
+          busyLabel="Reading the file…"
+          busy={apply.isPending}
+          submit={{ onClick: submit }}
+          submitDisabled={!preview.data}
+        />
       }
     >
       {preview.isLoading ? (

@@ -6,8 +6,8 @@ import { useQuery } from '@tanstack/react-query';
 import { runUpdateInput, type RunDetailDto } from '@shared/schemas/run';
 import { Button, SelectField, TextAreaField, TextField, useToast } from '@/components/ui';
 import { applyFieldErrors } from '@/lib/api-client';
-import { stageQueries } from '../api/stage-queries';
-import { useUpdateRun } from '../api/update-run';
+import { stageQueries } from '../api/stages/stage-queries';
+import { useUpdateRun } from '../api/runs/update-run';
 
 export function parseTags(text: string): string[] {
   return [...new Set(text.split(',').map((t) => t.trim()).filter(Boolean))];

@@ -2,31 +2,33 @@ import { useState } from 'react';
 import { Link } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
 import type { RunSummaryDto, UploadResult } from '@shared/schemas/run';
+import type { ApiErrorCodeOnClient } from '@/lib/api-client';
 import { Button, Icon, ProgressBar, StatusBadge } from '@/components/ui';
 import { formatFileSize, formatHp, formatRpm, formatTorque } from '@shared/format';
 import { paths } from '@/config/paths';
-import { runQueries } from '../api/run-queries';
-import type { UploadItem } from '../api/upload-runs';
+import { runQueries } from '../api/runs/run-queries';
+import type { UploadItem } from '../api/runs/upload-runs';
 import { CrossCheckBadge } from './run-status';
 import { MappingDialog } from './mapping-dialog';
-import { StageSelect } from './stage-select';
+import { StageSelect } from './stages/stage-select';
 
 export function PeakFigures({ run }: { run: Pick<RunSummaryDto, 'peakPowerHp' | 'peakPowerRpm' | 'peakTorqueLbft' | 'peakTorqueRpm'> }) {
   return (
     <dl className="num flex flex-wrap gap-x-6 gap-y-1">
-      <div>
-        <dt className="text-sm text-ink-muted">Peak power</dt>
-        <dd className="text-lg font-semibold text-ink">
-          {formatHp(run.peakPowerHp)} <span className="text-sm font-normal text-ink-muted">at {formatRpm(run.peakPowerRpm)}</span>
-        </dd>
-      </div>
-      <div>
-        <dt className="text-sm text-ink-muted">Peak torque</dt>
-        <dd className="text-lg font-semibold text-ink">
-          {formatTorque(run.peakTorqueLbft)} <span className="text-sm font-normal text-ink-muted">at {formatRpm(run.peakTorqueRpm)}</span>
-        </dd>
-      </div>
+      <PeakFigure label="Peak power" value={formatHp(run.peakPowerHp)} rpm={run.peakPowerRpm} />
+      <PeakFigure label="Peak torque" value={formatTorque(run.peakTorqueLbft)} rpm={run.peakTorqueRpm} />
     </dl>
+  );
+}
+
+function PeakFigure({ label, value, rpm }: { label: string; value: string; rpm: number | null }) {
+  return (
+    <div>
+      <dt className="text-sm text-ink-muted">{label}</dt>
+      <dd className="text-lg font-semibold text-ink">
+        {value} <span className="text-sm font-normal text-ink-muted">at {formatRpm(rpm)}</span>
+      </dd>
+    </div>
   );
 }
 
@@ -44,11 +46,14 @@ function Warnings({ warnings }: { warnings: RunSummaryDto['warnings'] }) {
   );
 }
 
+/** Reader codes after which choosing columns by hand can help. */
+const MAPPING_CODES: ReadonlySet<string> = new Set(['NEEDS_MAPPING', 'MAPPING_INVALID', 'NO_RPM_COLUMN', 'TOO_MANY_COLUMNS'] satisfies ApiErrorCodeOnClient[]);
+
 /** A file the server kept but could not turn into a curve: mapping by hand, or failed for good. */
 function KeptFile({ item, runId, message, onMapped }: { item: UploadItem; runId: string; message: string; onMapped: (run: RunSummaryDto) => void }) {
   const run = useQuery(runQueries.detail(runId));
   const [open, setOpen] = useState(false);
-  const needsMapping = run.data?.status === 'needs-mapping' || /MAPPING|COLUMN|RPM/i.test(item.result && !item.result.ok ? item.result.error.code : '');
+  const needsMapping = run.data?.status === 'needs-mapping' || (item.result !== undefined && !item.result.ok && MAPPING_CODES.has(item.result.error.code));
   if (needsMapping) {
     return (
       <div className="space-y-2">
@@ -126,7 +131,7 @@ function ResultBody({ item, bikeId, onResult }: { item: UploadItem; bikeId: stri
   if (r.runId) return <KeptFile item={item} runId={r.runId} message={r.error.message} onMapped={(run) => onResult({ file: r.file, ok: true, run })} />;
   return (
     <div className="space-y-1">
-      <StatusBadge status="error">{r.error.code === 'ABORTED' ? 'Cancelled' : 'Upload failed'}</StatusBadge>
+      <StatusBadge status="error">{r.error.code === ('ABORTED' satisfies ApiErrorCodeOnClient) ? 'Cancelled' : 'Upload failed'}</StatusBadge>
       <p className="text-sm text-ink">{r.error.message}</p>
     </div>
   );

@@ -7,8 +7,8 @@ import { Button, Caution, DataTable, ErrorState, Icon, PageHeader, SelectField, 
 import { formatDate } from '@shared/format';
 import { useCurrentUser } from '@/lib/auth';
 import { paths } from '@/config/paths';
-import { bikeLabel, lookupQueries, runQueries, type RunFilters } from '../api/run-queries';
-import { stageQueries } from '../api/stage-queries';
+import { bikeLabel, lookupQueries, runQueries, type RunFilters } from '../api/runs/run-queries';
+import { stageQueries } from '../api/stages/stage-queries';
 import { RUN_STATUS_LABELS, RunStatusBadge } from '../components/run-status';
 import { peakPowerColumn, peakTorqueColumn, runColumn, runName } from '../components/run-columns';
 

@@ -9,11 +9,11 @@ import { formatDateTime, formatFileSize, formatNumber, formatRpmRange, MISSING }
 import { useCurrentUser } from '@/lib/auth';
 import { ApiError } from '@/lib/api-client';
 import { paths } from '@/config/paths';
-import { formatAirTemperature, formatBarometric } from '@/lib/air-conditions';
+import { formatAirTemperature, formatBarometric } from '@shared/units-display';
 import { useShopUnits } from '@/lib/shop-query';
-import { runQueries } from '../api/run-queries';
-import { useDeleteRun } from '../api/delete-run';
-import { useRestoreRun } from '../api/restore-run';
+import { runQueries } from '../api/runs/run-queries';
+import { useDeleteRun } from '../api/runs/delete-run';
+import { useRestoreRun } from '../api/runs/restore-run';
 import { displayCurve, mixtureChannels, POWER_LABEL, TORQUE_LABEL, type MixtureChoice, type PowerChoice, type TorqueChoice } from '../lib/display-curve';
 import { AfrChart, RunChart } from '../components/run-chart';
 import { CORRECTION_HINT, CORRECTION_OPTIONS } from '../lib/correction';

@@ -7,16 +7,16 @@ import { Button, Card, DataTable, ErrorState, Icon, LoadingState, PageHeader, St
 import { formatDateTime, formatNumber } from '@shared/format';
 import { useCurrentUser } from '@/lib/auth';
 import { paths } from '@/config/paths';
-import { formatAirTemperature, formatBarometric } from '@/lib/air-conditions';
+import { formatAirTemperature, formatBarometric } from '@shared/units-display';
 import { useShopUnits } from '@/lib/shop-query';
-import { bikeLabel, lookupQueries, runQueries } from '../api/run-queries';
-import { sessionQueries } from '../api/session-queries';
-import { stageQueries } from '../api/stage-queries';
-import { useSetReferenceRun } from '../api/set-reference-run';
+import { bikeLabel, lookupQueries, runQueries } from '../api/runs/run-queries';
+import { sessionQueries } from '../api/sessions/session-queries';
+import { stageQueries } from '../api/stages/stage-queries';
+import { useSetReferenceRun } from '../api/stages/set-reference-run';
 import { RunStatusBadge } from '../components/run-status';
 import { peakPowerColumn, peakTorqueColumn, runColumn, runNameColumn } from '../components/run-columns';
-import { StageSelect } from '../components/stage-select';
-import { SafetyChecklist } from '../components/safety-checklist';
+import { StageSelect } from '../components/stages/stage-select';
+import { SafetyChecklist } from '../components/sessions/safety-checklist';
 import { CORRECTION_OPTIONS } from '../lib/correction';
 
 const col = runColumn;
