@@ -5,17 +5,23 @@
  * still come from 'echarts' as `import type`.
  */
 import * as echarts from 'echarts/core';
-import { BarChart, BoxplotChart, LineChart, ScatterChart } from 'echarts/charts';
+import { LineChart } from 'echarts/charts';
 import { AriaComponent, DataZoomComponent, GridComponent, LegendComponent, MarkLineComponent, TooltipComponent } from 'echarts/components';
 import { CanvasRenderer, SVGRenderer } from 'echarts/renderers';
 import ReactEChartsCore from 'echarts-for-react/lib/core';
-import { createElement, type ComponentProps } from 'react';
+import type { EChartsReactProps } from 'echarts-for-react/lib/types';
 
-echarts.use([LineChart, BarChart, ScatterChart, BoxplotChart, GridComponent, TooltipComponent, LegendComponent, DataZoomComponent, MarkLineComponent, AriaComponent, CanvasRenderer, SVGRenderer]);
+echarts.use([LineChart, GridComponent, TooltipComponent, LegendComponent, DataZoomComponent, MarkLineComponent, AriaComponent, CanvasRenderer, SVGRenderer]);
 
 export { echarts };
 
-/** `echarts-for-react` bound to the trimmed core above; same props minus `echarts`. */
-export function ReactECharts(props: Omit<ComponentProps<typeof ReactEChartsCore>, 'echarts'>) {
-  return createElement(ReactEChartsCore, { ...props, echarts });
+/**
+ * `echarts-for-react` bound to the trimmed core above (what its default export does with the whole
+ * library). A class, so `useRef<ReactECharts>` and `getEchartsInstance()` work as before.
+ */
+export class ReactECharts extends ReactEChartsCore {
+  constructor(props: EChartsReactProps) {
+    super(props);
+    this.echarts = echarts;
+  }
 }

@@ -1,7 +1,6 @@
 import { useEffect, useMemo, useRef } from 'react';
-import ReactECharts from 'echarts-for-react';
-import * as echarts from 'echarts';
-import type { EChartsOption, LineSeriesOption } from 'echarts';
+import type { EChartsOption, LineSeriesOption, ECharts } from 'echarts';
+import { echarts, ReactECharts } from '@/lib/echarts';
 import type { ComparisonPreview } from '@shared/schemas/comparison';
 import { CHART_COLORS, LINE_DASHARRAY, baseChartOption, deltaSeries, runColor, runSeries, whenChartFontReady } from '@/lib/chart-theme';
 import { formatNumber } from '@shared/format';
@@ -13,7 +12,7 @@ const fmt = (v: number | null | undefined, d = 1) => (v === null || v === undefi
 
 /** Handle the charts hand to their parent for exports. */
 export interface ChartHandle {
-  instance: () => echarts.ECharts | undefined;
+  instance: () => ECharts | undefined;
   option: EChartsOption;
   height: number;
 }

@@ -1,5 +1,5 @@
 import { useEffect, useMemo, useRef } from 'react';
-import ReactECharts from 'echarts-for-react';
+import { ReactECharts } from '@/lib/echarts';
 import type { EChartsOption, LineSeriesOption } from 'echarts';
 import { LINE_DASHARRAY, baseChartOption, runSeries, whenChartFontReady } from '@/lib/chart-theme';
 import type { ReportCurveView, ReportRunView } from '../api/types';

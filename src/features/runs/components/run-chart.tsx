@@ -1,5 +1,5 @@
 import { useEffect, useMemo, useRef } from 'react';
-import ReactECharts from 'echarts-for-react';
+import { ReactECharts } from '@/lib/echarts';
 import type { EChartsOption, LineSeriesOption } from 'echarts';
 import { baseChartOption, runColor, runSeries, whenChartFontReady } from '@/lib/chart-theme';
 import { formatNumber, formatRpm } from '@shared/format';
