@@ -43,6 +43,7 @@ export class SyncAgent {
   private readonly queue: string[] = [];
   private readonly queued = new Set<string>();
   private running = false;
+  private draining: Promise<void> = Promise.resolve();
   private stopped = false;
   private wake?: () => void;
   private readonly journal: Journal;
@@ -82,10 +83,12 @@ export class SyncAgent {
     await new Promise<void>((resolve) => this.watcher!.once('ready', () => resolve()));
   }
 
+  /** Stops watching; an upload already on its way is finished (and journalled) first. */
   async stop(): Promise<void> {
     this.stopped = true;
     this.wake?.();
     await this.watcher?.close();
+    await this.draining;
     this.finish({ tokenRefused: false });
   }
 
@@ -98,11 +101,10 @@ export class SyncAgent {
     if (this.stopped || !isRunFileName(absPath) || this.queued.has(absPath)) return;
     this.queued.add(absPath);
     this.queue.push(absPath);
-    void this.drain();
+    if (!this.running) this.draining = this.drain();
   }
 
   private async drain() {
-    if (this.running) return;
     this.running = true;
     try {
       while (!this.stopped && this.queue.length) {
