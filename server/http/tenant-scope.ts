@@ -30,7 +30,8 @@ export function tenantScope<T>(actor: Actor, customerPath?: string, extra: Recor
     const keys = customerPath.split('.');
     let node = where;
     for (const key of keys.slice(0, -1)) {
-      const next = (node[key] as Record<string, unknown> | undefined) ?? {};
+      // Copy each level so a nested filter passed in `extra` is never changed in place.
+      const next = { ...((node[key] as Record<string, unknown> | undefined) ?? {}) };
       node[key] = next;
       node = next;
     }

@@ -3,6 +3,8 @@ import type { FilterQuery } from '@mikro-orm/core';
 import type { z } from 'zod';
 import type { Actor } from '../../http/actor';
 import { notFound } from '../../lib/errors';
+import { customerFilterOf, tenantScope } from '../../http/tenant-scope';
+import { containsPattern } from '../../db/sql-text';
 import { parseSort, type Page } from '@shared/schemas/common';
 import type { BikeDto, BikeInput, bikeListQuery } from '@shared/schemas/bike';
 import { Bike } from './bike.entity';
@@ -27,18 +29,11 @@ export const toBikeDto = (b: Bike): BikeDto => ({
   createdAt: b.createdAt.toISOString(),
 });
 
-/** Shop scope plus, for customers, their own bikes only. Every bike query starts here. */
-export function bikeScope(actor: Actor): FilterQuery<Bike> {
-  return actor.role === 'customer' ? { shop: actor.shopId, customer: actor.customerId ?? '00000000-0000-0000-0000-000000000000' } : { shop: actor.shopId };
-}
-
-const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
-
 export async function listBikes(em: EntityManager, actor: Actor, query: ListQuery): Promise<Page<BikeDto>> {
-  const where: FilterQuery<Bike> = { ...(bikeScope(actor) as object) };
-  if (query.customerId) Object.assign(where, { customer: actor.role === 'customer' ? actor.customerId : query.customerId });
+  const where = tenantScope<Bike>(actor, 'customer') as FilterQuery<Bike> & Record<string, unknown>;
+  if (query.customerId) Object.assign(where, { customer: customerFilterOf(actor) ?? query.customerId });
   if (query.q) {
-    const like = `%${escapeLike(query.q)}%`;
+    const like = containsPattern(query.q);
     where.$or = [
       { make: { $ilike: like } },
       { model: { $ilike: like } },
@@ -60,7 +55,7 @@ export async function listBikes(em: EntityManager, actor: Actor, query: ListQuer
 
 /** Load a bike the actor may see, or 404 (never 403: do not confirm it exists elsewhere). */
 export async function getBikeEntity(em: EntityManager, actor: Actor, id: string): Promise<Bike> {
-  const bike = await em.findOne(Bike, { ...(bikeScope(actor) as object), id }, { populate: ['customer'] });
+  const bike = await em.findOne(Bike, tenantScope<Bike>(actor, 'customer', { id }), { populate: ['customer'] });
   if (!bike) throw notFound('Bike');
   return bike;
 }

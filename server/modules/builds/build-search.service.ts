@@ -5,7 +5,8 @@ import type { Actor } from '../../http/actor';
 import { AppError } from '../../lib/errors';
 import type { BuildSearchQuery } from '@shared/schemas/builds';
 import type { BuildSearchPage } from '@shared/schemas/builds';
-import { BUILD_INDEX_COLUMNS, Sql, escapeLike, toBuildItem, type BuildIndexRow } from './build-sql';
+import { containsPattern } from '../../db/sql-text';
+import { BUILD_INDEX_COLUMNS, Sql, toBuildItem, type BuildIndexRow } from './build-sql';
 
 /**
  * Build finder search. A "build" is one stage of one bike that has measured gains against that
@@ -76,11 +77,11 @@ export function searchSql(actor: Actor, query: BuildSearchQuery): { sql: string;
     ? `with fam as materialized (
         select f.engine_family, coalesce(word_similarity(${cq.p(query.engine)}, f.engine_family), 0)::float8 as score
           from build_family f
-         where f.shop_id = ${cq.p(actor.shopId)} and (${cq.p(query.engine)} <% f.engine_family or f.engine_family ilike ${cq.p(`%${escapeLike(query.engine)}%`)}))`
+         where f.shop_id = ${cq.p(actor.shopId)} and (${cq.p(query.engine)} <% f.engine_family or f.engine_family ilike ${cq.p(containsPattern(query.engine))}))`
     : '';
   const scoreExpr = query.engine ? 'fam.score' : '0::float8';
-  if (query.make) where.push(`bi.make ilike ${q.p(`%${escapeLike(query.make)}%`)}`);
-  if (query.model) where.push(`bi.model ilike ${q.p(`%${escapeLike(query.model)}%`)}`);
+  if (query.make) where.push(`bi.make ilike ${q.p(containsPattern(query.make))}`);
+  if (query.model) where.push(`bi.model ilike ${q.p(containsPattern(query.model))}`);
 
   const mins = [query.ccMin, query.ciMin !== undefined ? query.ciMin * CC_PER_CUBIC_INCH : undefined].filter((v): v is number => v !== undefined);
   const maxs = [query.ccMax, query.ciMax !== undefined ? query.ciMax * CC_PER_CUBIC_INCH : undefined].filter((v): v is number => v !== undefined);
@@ -103,7 +104,7 @@ export function searchSql(actor: Actor, query: BuildSearchQuery): { sql: string;
     where.push(`bi.part_keys && array[${q.list(levels.map((l) => `cylinder-heads:${l}`))}]::text[]`);
   }
   // parts_text has one description a line, so a substring never spans two parts.
-  if (query.partText) where.push(`bi.parts_text ilike ${q.p(`%${escapeLike(query.partText)}%`)}`);
+  if (query.partText) where.push(`bi.parts_text ilike ${q.p(containsPattern(query.partText))}`);
   if (query.tag.length) where.push(`bi.run_tags @> array[${q.list(query.tag)}]::text[]`);
   // websearch_to_tsquery(regconfig, text) is immutable: it folds to a constant the GIN index can use.
   if (query.q) where.push(`bi.search_tsv @@ websearch_to_tsquery('english', ${q.p(query.q)})`);

@@ -1,8 +1,8 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
-import type { FilterQuery } from '@mikro-orm/core';
 import type { z } from 'zod';
 import type { Actor } from '../../http/actor';
 import { notFound } from '../../lib/errors';
+import { tenantScope } from '../../http/tenant-scope';
 import type { CorrectionId, RunSummaryDto, SessionDto, safetyCheckInput, sessionInput, sessionUpdateInput } from '@shared/schemas/run';
 import { DynoSession } from './dyno-session.entity';
 import { Dyno } from '../dynos/dyno.entity';
@@ -16,12 +16,6 @@ import { RUN_POPULATE, toRunSummaries } from '../runs/run.service';
 type SessionInput = z.output<typeof sessionInput>;
 type SessionUpdateInput = z.output<typeof sessionUpdateInput>;
 type SafetyCheckInput = z.output<typeof safetyCheckInput>;
-
-const NO_CUSTOMER = '00000000-0000-0000-0000-000000000000';
-
-function sessionScope(actor: Actor): FilterQuery<DynoSession> {
-  return actor.role === 'customer' ? { shop: actor.shopId, bike: { customer: actor.customerId ?? NO_CUSTOMER } } : { shop: actor.shopId };
-}
 
 export function toSessionDto(s: DynoSession, runCount: number): SessionDto {
   return {
@@ -54,7 +48,7 @@ async function runCounts(em: EntityManager, ids: string[]): Promise<Map<string, 
 const POPULATE = ['dyno', 'operator', 'safetyConfirmedBy'] as const;
 
 export async function listSessions(em: EntityManager, actor: Actor, query: { bikeId?: string }): Promise<SessionDto[]> {
-  const where = { ...(sessionScope(actor) as object), ...(query.bikeId ? { bike: query.bikeId } : {}) } as FilterQuery<DynoSession>;
+  const where = tenantScope<DynoSession>(actor, 'bike.customer', query.bikeId ? { bike: { id: query.bikeId } } : {});
   if (query.bikeId && actor.role === 'customer') await getBikeEntity(em, actor, query.bikeId);
   const rows = await em.find(DynoSession, where, { populate: POPULATE as never, orderBy: { startedAt: 'desc', id: 'asc' }, limit: 500 });
   const counts = await runCounts(em, rows.map((r) => r.id));
@@ -62,7 +56,7 @@ export async function listSessions(em: EntityManager, actor: Actor, query: { bik
 }
 
 export async function getSessionEntity(em: EntityManager, actor: Actor, id: string): Promise<DynoSession> {
-  const s = await em.findOne(DynoSession, { ...(sessionScope(actor) as object), id } as FilterQuery<DynoSession>, { populate: POPULATE as never });
+  const s = await em.findOne(DynoSession, tenantScope<DynoSession>(actor, 'bike.customer', { id }), { populate: POPULATE as never });
   if (!s) throw notFound('Session');
   return s;
 }

@@ -2,6 +2,7 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import type { z } from 'zod';
 import type { Actor } from '../../http/actor';
 import { AppError, notFound } from '../../lib/errors';
+import { tenantScope } from '../../http/tenant-scope';
 import type { PartDto, StageDto, partInput, stageInput, stageUpdateInput } from '@shared/schemas/run';
 import { Part, Stage } from './stage.entity';
 import { Shop } from '../shops/shop.entity';
@@ -82,8 +83,7 @@ async function stageDto(em: EntityManager, stage: Stage): Promise<StageDto> {
 
 /** A stage of the actor's shop (customers: of their own bikes), or 404. */
 export async function getStageEntity(em: EntityManager, actor: Actor, id: string): Promise<Stage> {
-  const where = actor.role === 'customer' ? { id, shop: actor.shopId, bike: { customer: actor.customerId ?? '00000000-0000-0000-0000-000000000000' } } : { id, shop: actor.shopId };
-  const stage = await em.findOne(Stage, where);
+  const stage = await em.findOne(Stage, tenantScope<Stage>(actor, 'bike.customer', { id }));
   if (!stage) throw notFound('Stage');
   return stage;
 }
