@@ -23,7 +23,8 @@ export function customerFilterOf(actor: Actor): string | null {
  * entity to its customer; leave it out for records customers never read through this query.
  */
 export function tenantScope<T>(actor: Actor, customerPath?: string, extra: Record<string, unknown> = {}): FilterQuery<T> {
-  const where: Record<string, unknown> = { shop: actor.shopId, ...extra };
+  // The actor's shop always wins over a `shop` in extra.
+  const where: Record<string, unknown> = { ...extra, shop: actor.shopId };
   const customer = customerFilterOf(actor);
   if (customer !== null && customerPath) {
     // Build { bike: { customer: id } } from 'bike.customer', merging into any filter already there.
