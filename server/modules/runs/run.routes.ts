@@ -8,7 +8,6 @@ import { removeUploadedFiles, runFilesUpload, uploadedFiles } from '../../middle
 import { deleteLayout, deleteRun, listLayouts, listRuns, restoreRun, runDetail, updateRun } from './run.service';
 import { ingestFiles } from './run-ingest';
 import { applyMapping, rawFile, reprocessRunById, runPreview } from './run-actions';
-import './orphan-reconcile';
 
 const blankToUndefined = (v: unknown) => (v === '' || v === null ? undefined : v);
 /** Text fields of the multipart upload. */
