@@ -3,9 +3,9 @@ import type { FilterQuery } from '@mikro-orm/core';
 import type { z } from 'zod';
 import type { Actor } from '../../http/actor';
 import { notFound } from '../../lib/errors';
-import { customerFilterOf, tenantScope } from '../../http/tenant-scope';
+import { customerFilterOf, tenantParams, tenantScope } from '../../http/tenant-scope';
 import { containsPattern } from '../../db/sql-text';
-import { parseSort, type Page } from '@shared/schemas/common';
+import { parseSort, wholePage, type Page } from '@shared/schemas/common';
 import type { BikeDto, BikeInput, bikeListQuery } from '@shared/schemas/bike';
 import { Bike } from './bike.entity';
 import { Customer } from '../customers/customer.entity';
@@ -68,28 +68,32 @@ async function customerOfShop(em: EntityManager, actor: Actor, customerId: strin
 
 export async function createBike(em: EntityManager, actor: Actor, input: BikeInput): Promise<BikeDto> {
   const { customerId, ...data } = input;
-  const customer = await customerOfShop(em, actor, customerId);
-  const bike = em.create(Bike, { ...data, customer, shop: em.getReference(Shop, actor.shopId) } as Bike);
-  await em.flush();
-  await recordAudit(em, actor, 'bike.create', 'bike', bike.id, { make: bike.make, model: bike.model });
+  const bike = await em.transactional(async (tx) => {
+    const customer = await customerOfShop(tx, actor, customerId);
+    const created = tx.create(Bike, { ...data, customer, shop: tx.getReference(Shop, actor.shopId) } as Bike);
+    await recordAudit(tx, actor, 'bike.create', 'bike', created.id, { make: created.make, model: created.model });
+    return created;
+  });
   return toBikeDto(bike);
 }
 
 export async function updateBike(em: EntityManager, actor: Actor, id: string, input: BikeInput): Promise<BikeDto> {
-  const bike = await getBikeEntity(em, actor, id);
   const { customerId, ...data } = input;
-  if (customerId !== bike.customer.id) bike.customer = await customerOfShop(em, actor, customerId);
-  em.assign(bike, data);
-  await em.flush();
-  await recordAudit(em, actor, 'bike.update', 'bike', bike.id, data);
+  const bike = await em.transactional(async (tx) => {
+    const found = await getBikeEntity(tx, actor, id);
+    if (customerId !== found.customer.id) found.customer = await customerOfShop(tx, actor, customerId);
+    tx.assign(found, data);
+    await recordAudit(tx, actor, 'bike.update', 'bike', found.id, data);
+    return found;
+  });
   return toBikeDto(bike);
 }
 
 /** Engine families already used in this shop, most common first, for the form's suggestions. */
-export async function engineFamilies(em: EntityManager, actor: Actor): Promise<string[]> {
+export async function engineFamilies(em: EntityManager, actor: Actor): Promise<Page<string>> {
   const rows = (await em.getConnection().execute(
     `select engine_family, count(*) as n from bike where shop_id = ? and engine_family is not null group by engine_family order by n desc, engine_family limit 100`,
-    [actor.shopId],
+    [tenantParams(actor).shopId],
   )) as { engine_family: string }[];
-  return rows.map((r) => r.engine_family);
+  return wholePage(rows.map((r) => r.engine_family));
 }

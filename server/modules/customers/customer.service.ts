@@ -69,26 +69,32 @@ export async function getCustomer(em: EntityManager, actor: Actor, id: string): 
 }
 
 export async function createCustomer(em: EntityManager, actor: Actor, data: CustomerData): Promise<CustomerDto> {
-  const customer = em.create(Customer, { ...data, shop: em.getReference(Shop, actor.shopId) } as Customer);
-  await em.flush();
-  await recordAudit(em, actor, 'customer.create', 'customer', customer.id, { name: customer.name });
+  const customer = await em.transactional(async (tx) => {
+    const created = tx.create(Customer, { ...data, shop: tx.getReference(Shop, actor.shopId) } as Customer);
+    await recordAudit(tx, actor, 'customer.create', 'customer', created.id, { name: created.name });
+    return created;
+  });
   return (await decorate(em, [customer]))[0];
 }
 
 export async function updateCustomer(em: EntityManager, actor: Actor, id: string, data: CustomerData): Promise<CustomerDto> {
-  const customer = await getCustomerEntity(em, actor, id);
-  em.assign(customer, data);
-  await em.flush();
-  await recordAudit(em, actor, 'customer.update', 'customer', customer.id, data);
+  const customer = await em.transactional(async (tx) => {
+    const found = await getCustomerEntity(tx, actor, id);
+    tx.assign(found, data);
+    await recordAudit(tx, actor, 'customer.update', 'customer', found.id, data);
+    return found;
+  });
   return (await decorate(em, [customer]))[0];
 }
 
 export async function deleteCustomer(em: EntityManager, actor: Actor, id: string): Promise<void> {
-  const customer = await getCustomerEntity(em, actor, id);
-  const bikes = await em.count(Bike, { customer });
-  if (bikes > 0) {
-    throw new AppError('CUSTOMER_HAS_BIKES', `This customer still has ${bikes} bike(s); move or remove them first`, 409);
-  }
-  await em.removeAndFlush(customer);
-  await recordAudit(em, actor, 'customer.delete', 'customer', id, { name: customer.name });
+  await em.transactional(async (tx) => {
+    const customer = await getCustomerEntity(tx, actor, id);
+    const bikes = await tx.count(Bike, { customer });
+    if (bikes > 0) {
+      throw new AppError('CUSTOMER_HAS_BIKES', `This customer still has ${bikes} bike(s); move or remove them first`, 409);
+    }
+    tx.remove(customer);
+    await recordAudit(tx, actor, 'customer.delete', 'customer', id, { name: customer.name });
+  });
 }
