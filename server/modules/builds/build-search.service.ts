@@ -62,8 +62,11 @@ function decodeCursor(raw: string, sort: Sort): Cursor {
   }
 }
 
-/** The search statement and its parameters (also used by the EXPLAIN test). */
-export function searchSql(actor: Actor, query: BuildSearchQuery): { sql: string; params: unknown[]; sort: Sort } {
+/**
+ * The search statement and its parameters (also used by the EXPLAIN test), and the statement that
+ * counts every match (the same filters without the cursor and the limit).
+ */
+export function searchSql(actor: Actor, query: BuildSearchQuery): { sql: string; params: unknown[]; sort: Sort; countSql: string; countParams: unknown[] } {
   const sort: Sort = query.sort ?? (query.engine ? 'similarity' : 'gain');
   // Placeholders are positional: each part of the statement collects its own values, joined in text order.
   const cq = new Sql(); // the engine family CTE
@@ -109,6 +112,12 @@ export function searchSql(actor: Actor, query: BuildSearchQuery): { sql: string;
   // websearch_to_tsquery(regconfig, text) is immutable: it folds to a constant the GIN index can use.
   if (query.q) where.push(`bi.search_tsv @@ websearch_to_tsquery('english', ${q.p(query.q)})`);
 
+  const countSql = `${fam}
+  select count(*)::int as n
+    from build_index bi${query.engine ? ' join fam on fam.engine_family = bi.engine_family' : ''}
+   where ${where.join('\n     and ')}`;
+  const countParams = [...cq.params, ...q.params];
+
   const keyExpr = sort === 'similarity' ? 'score' : sort === 'gain' ? 'bi.gain_peak_power_hp' : 'bi.stage_date';
   if (query.cursor) {
     const c = decodeCursor(query.cursor, sort);
@@ -143,18 +152,21 @@ export function searchSql(actor: Actor, query: BuildSearchQuery): { sql: string;
   select f.*, c.name as customer_name from (${inner}) f
     join customer c on c.id = f.customer_id
    order by f.${outerKey} desc, f.stage_id desc`;
-  return { sql, params: [...cq.params, ...q.params, ...oq.params], sort };
+  return { sql, params: [...cq.params, ...q.params, ...oq.params], sort, countSql, countParams };
 }
 
 export async function searchBuilds(em: EntityManager, actor: Actor, query: BuildSearchQuery): Promise<BuildSearchPage> {
-  const { sql, params, sort } = searchSql(actor, query);
+  const { sql, params, sort, countSql, countParams } = searchSql(actor, query);
   const limit = query.limit;
-  const rows = (await em.getConnection().execute(sql, params)) as BuildIndexRow[];
+  const [rows, counted] = await Promise.all([
+    em.getConnection().execute(sql, params) as Promise<BuildIndexRow[]>,
+    em.getConnection().execute(countSql, countParams) as Promise<{ n: number }[]>,
+  ]);
   const page = rows.slice(0, limit);
   const last = page[page.length - 1];
-  const next =
+  const nextCursor =
     rows.length > limit && last
       ? encodeCursor({ s: sort, k: sort === 'similarity' ? Number(last.score) : sort === 'gain' ? Number(last.gain_peak_power_hp) : last.stage_date, id: last.stage_id })
       : null;
-  return { items: page.map((r) => toBuildItem(r, r.parts)), next, sort };
+  return { items: page.map((r) => toBuildItem(r, r.parts)), total: Number(counted[0]?.n ?? 0), page: 1, pageSize: limit, nextCursor, sort };
 }
