@@ -61,7 +61,7 @@ export async function getBikeEntity(em: EntityManager, actor: Actor, id: string)
 }
 
 async function customerOfShop(em: EntityManager, actor: Actor, customerId: string) {
-  const customer = await em.findOne(Customer, { id: customerId, shop: actor.shopId });
+  const customer = await em.findOne(Customer, tenantScope<Customer>(actor, undefined, { id: customerId }));
   if (!customer) throw notFound('Customer');
   return customer;
 }

@@ -67,13 +67,13 @@ export async function getSessionEntity(em: EntityManager, actor: Actor, id: stri
 
 export async function sessionWithRuns(em: EntityManager, actor: Actor, id: string): Promise<SessionDetailDto> {
   const s = await getSessionEntity(em, actor, id);
-  const runs = await em.find(Run, { session: s.id, shop: actor.shopId, deletedAt: null }, { populate: RUN_POPULATE as never, orderBy: { sequence: 'asc', createdAt: 'asc' } });
+  const runs = await em.find(Run, tenantScope<Run>(actor, undefined, { session: s.id, deletedAt: null }), { populate: RUN_POPULATE as never, orderBy: { sequence: 'asc', createdAt: 'asc' } });
   return { ...toSessionDto(s, runs.length), runs: await toRunSummaries(em, runs) };
 }
 
 async function dynoOfShop(em: EntityManager, actor: Actor, dynoId: string | null | undefined): Promise<Dyno | null> {
   if (!dynoId) return null;
-  const dyno = await em.findOne(Dyno, { id: dynoId, shop: actor.shopId });
+  const dyno = await em.findOne(Dyno, tenantScope<Dyno>(actor, undefined, { id: dynoId }));
   if (!dyno) throw notFound('Dyno');
   return dyno;
 }

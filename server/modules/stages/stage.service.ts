@@ -164,7 +164,7 @@ export async function setReferenceRun(em: EntityManager, actor: Actor, id: strin
   const stage = await em.transactional(async (tx) => {
     const found = await getStageEntity(tx, actor, id);
     if (runId) {
-      const run = await tx.findOne(Run, { id: runId, shop: actor.shopId, bike: found.bike.id, deletedAt: null });
+      const run = await tx.findOne(Run, tenantScope<Run>(actor, undefined, { id: runId, bike: found.bike.id, deletedAt: null }));
       if (!run) throw notFound('Run');
       if (run.status !== 'ready') throw new AppError('RUN_NOT_READY', 'Only a run with a usable curve can represent a stage; map or re-process it first', 409);
       // A run represents one stage at most.
@@ -195,7 +195,7 @@ export async function addPart(em: EntityManager, actor: Actor, stageId: string, 
 
 async function partOf(em: EntityManager, actor: Actor, stageId: string, partId: string) {
   const stage = await getStageEntity(em, actor, stageId);
-  const part = await em.findOne(Part, { id: partId, stage: stage.id, shop: actor.shopId });
+  const part = await em.findOne(Part, tenantScope<Part>(actor, undefined, { id: partId, stage: stage.id }));
   if (!part) throw notFound('Part');
   return { stage, part };
 }

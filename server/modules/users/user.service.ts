@@ -50,7 +50,7 @@ export async function inviteUser(em: EntityManager, mailer: Mailer, publicUrl: s
   let customer: Customer | null = null;
   if (input.role === 'customer') {
     if (!input.customerId) throw new AppError('CUSTOMER_REQUIRED', 'Choose which customer record this sign-in belongs to', 400, { fields: [{ path: 'customerId', message: 'Required for customers' }] });
-    customer = await em.findOne(Customer, { id: input.customerId, shop: actor.shopId });
+    customer = await em.findOne(Customer, tenantScope<Customer>(actor, undefined, { id: input.customerId }));
     if (!customer) throw notFound('Customer');
   }
   const shop = await em.findOneOrFail(Shop, actor.shopId);
@@ -65,7 +65,7 @@ export async function inviteUser(em: EntityManager, mailer: Mailer, publicUrl: s
 }
 
 export async function resendInvite(em: EntityManager, mailer: Mailer, publicUrl: string, actor: Actor, id: string) {
-  const user = await em.findOne(User, { id, shop: actor.shopId }, { populate: ['shop'] });
+  const user = await em.findOne(User, tenantScope<User>(actor, undefined, { id }), { populate: ['shop'] });
   if (!user) throw notFound('User');
   if (user.passwordHash) throw conflict('ALREADY_ACTIVE', 'This user has already set a password');
   const token = await em.transactional(async (tx) => {
@@ -78,7 +78,7 @@ export async function resendInvite(em: EntityManager, mailer: Mailer, publicUrl:
 
 export async function updateUser(em: EntityManager, actor: Actor, id: string, patch: { name?: string; role?: Role; disabled?: boolean }): Promise<UserDto> {
   const user = await em.transactional(async (tx) => {
-    const found = await tx.findOne(User, { id, shop: actor.shopId });
+    const found = await tx.findOne(User, tenantScope<User>(actor, undefined, { id }));
     if (!found) throw notFound('User');
     if (found.id === actor.id && (patch.disabled || (patch.role && patch.role !== 'owner'))) {
       throw new AppError('CANNOT_DEMOTE_SELF', 'You cannot disable yourself or give up the owner role; ask another owner', 400);
