@@ -7,6 +7,7 @@ import { createSmtpMailer } from './lib/mail/mailer';
 import { createOutbox } from './lib/mail/outbox';
 import { createApp } from './app';
 import { runStartupTasks } from './startup';
+import { STARTUP_TASKS } from './startup-tasks';
 import { useNamedStatements } from './db/prepared-query';
 
 /** Connect to the database, object storage and mail relay named by the config. */
@@ -43,7 +44,7 @@ export async function startServer(config: AppConfig, opts: { clientDir?: string;
     const applied = await migrateToLatest(deps.orm);
     if (applied.length) console.log(`[pullbook] applied migrations: ${applied.join(', ')}`);
   }
-  await runStartupTasks(deps);
+  await runStartupTasks(deps, STARTUP_TASKS);
   const created = createApp(deps, { clientDir: opts.clientDir });
   if (opts.beforeListen) await opts.beforeListen(deps, created.app);
   const server = http.createServer(created.app);

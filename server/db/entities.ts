@@ -1,5 +1,6 @@
 /** Every entity schema, in one list for the ORM config. Add new schemas here. */
 import { ShopSchema } from '../modules/shops/shop.entity';
+import { ShopOwnedSchema } from './base-entity';
 import { UserSchema, AuthTokenSchema } from '../modules/users/user.entity';
 import { CustomerSchema } from '../modules/customers/customer.entity';
 import { BikeSchema } from '../modules/bikes/bike.entity';
@@ -14,6 +15,7 @@ import { OrphanObjectSchema } from '../lib/storage/orphan-object.entity';
 
 export const entities = [
   ShopSchema,
+  ShopOwnedSchema,
   UserSchema,
   AuthTokenSchema,
   CustomerSchema,

@@ -23,14 +23,16 @@ export function customerFilterOf(actor: Actor): string | null {
  * entity to its customer; leave it out for records customers never read through this query.
  */
 export function tenantScope<T>(actor: Actor, customerPath?: string, extra: Record<string, unknown> = {}): FilterQuery<T> {
-  const where: Record<string, unknown> = { shop: actor.shopId, ...extra };
+  // The actor's shop always wins over a `shop` in extra.
+  const where: Record<string, unknown> = { ...extra, shop: actor.shopId };
   const customer = customerFilterOf(actor);
   if (customer !== null && customerPath) {
     // Build { bike: { customer: id } } from 'bike.customer', merging into any filter already there.
     const keys = customerPath.split('.');
     let node = where;
     for (const key of keys.slice(0, -1)) {
-      const next = (node[key] as Record<string, unknown> | undefined) ?? {};
+      // Copy each level so a nested filter passed in `extra` is never changed in place.
+      const next = { ...((node[key] as Record<string, unknown> | undefined) ?? {}) };
       node[key] = next;
       node = next;
     }

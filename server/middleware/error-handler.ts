@@ -1,6 +1,7 @@
 import type express from 'express';
 import { NotFoundError } from '@mikro-orm/core';
 import multer from 'multer';
+import type { ApiErrorBody, ApiErrorCode } from '@shared/errors';
 import { AppError } from '../lib/errors';
 
 /** Turns every failure into `{ error: { code, message, details } }`; internals never leak. */
@@ -17,7 +18,7 @@ export function errorHandler(): express.ErrorRequestHandler {
           : err.code === 'LIMIT_FILE_COUNT'
             ? `Too many files in one upload${res.locals.uploadCountText ? ` (at most ${res.locals.uploadCountText})` : ''}; nothing was saved`
             : `Upload refused: ${err.message}`;
-      const code = err.code === 'LIMIT_FILE_SIZE' ? 'FILE_TOO_LARGE' : err.code === 'LIMIT_FILE_COUNT' ? 'TOO_MANY_FILES' : tooBig ? 'BODY_TOO_LARGE' : 'UPLOAD_REFUSED';
+      const code: ApiErrorCode = err.code === 'LIMIT_FILE_SIZE' ? 'FILE_TOO_LARGE' : err.code === 'LIMIT_FILE_COUNT' ? 'TOO_MANY_FILES' : tooBig ? 'BODY_TOO_LARGE' : 'UPLOAD_REFUSED';
       appError = new AppError(code, message, tooBig ? 413 : 400, { reason: err.code });
     } else if ((err as { type?: string }).type === 'entity.too.large') {
       appError = new AppError('BODY_TOO_LARGE', 'Request body is too large', 413);
@@ -31,6 +32,7 @@ export function errorHandler(): express.ErrorRequestHandler {
       res.set('Retry-After', String((appError.details as { retryAfterSeconds: number }).retryAfterSeconds));
     }
     if (res.headersSent) return res.end();
-    res.status(appError.status).json({ error: { code: appError.code, message: appError.message, details: appError.details } });
+    const body: ApiErrorBody = { error: { code: appError.code, message: appError.message, details: appError.details } };
+    res.status(appError.status).json(body);
   };
 }

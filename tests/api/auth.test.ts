@@ -145,7 +145,7 @@ describe('invitations', () => {
     expect(set.status).toBe(200);
     expect(set.body.user.role).toBe('tuner');
     const list = await owner.get('/api/users');
-    expect(list.body.find((u: { email: string }) => u.email === 'new.tuner@invite-shop.test').invitePending).toBe(false);
+    expect(list.body.items.find((u: { email: string }) => u.email === 'new.tuner@invite-shop.test').invitePending).toBe(false);
   });
 
   it('lets the owner change a role, and the change applies at once', async () => {
@@ -156,12 +156,12 @@ describe('invitations', () => {
     expect((await owner.patch(`/api/users/${s.users.desk.id}`).send({ role: 'owner' })).status).toBe(200);
     expect((await desk.get('/api/users')).status).toBe(200);
     const audit = await owner.get('/api/audit');
-    const entry = audit.body.find((e: { action: string; entityId: string }) => e.action === 'user.update' && e.entityId === s.users.desk.id);
+    const entry = audit.body.items.find((e: { action: string; entityId: string }) => e.action === 'user.update' && e.entityId === s.users.desk.id);
     expect(entry.details).toEqual({ before: expect.objectContaining({ role: 'desk' }), after: expect.objectContaining({ role: 'owner' }) });
     const onlyUsers = await owner.get('/api/audit').query({ kinds: 'user' });
-    expect(onlyUsers.body.length).toBeGreaterThan(0);
-    expect(onlyUsers.body.every((e: { action: string }) => e.action.startsWith('user.'))).toBe(true);
-    expect((await owner.get('/api/audit').query({ kinds: 'customer' })).body.some((e: { action: string }) => e.action.startsWith('user.'))).toBe(false);
+    expect(onlyUsers.body.items.length).toBeGreaterThan(0);
+    expect(onlyUsers.body.items.every((e: { action: string }) => e.action.startsWith('user.'))).toBe(true);
+    expect((await owner.get('/api/audit').query({ kinds: 'customer' })).body.items.some((e: { action: string }) => e.action.startsWith('user.'))).toBe(false);
   });
 
   it('stops an owner from demoting themselves', async () => {

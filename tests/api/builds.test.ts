@@ -108,7 +108,7 @@ async function search(query: Record<string, string | number>, as = a.users.owner
   const agent = await t.signIn(as);
   const res = await agent.get('/api/builds/search').query(query);
   expect(res.status, JSON.stringify(res.body)).toBe(200);
-  return res.body as { items: Item[]; next: string | null };
+  return res.body as { items: Item[]; nextCursor: string | null; total: number };
 }
 const keys = async (query: Record<string, string | number>) => (await search({ limit: 100, sort: 'gain', ...query })).items.map(stageKey).sort();
 
@@ -171,7 +171,9 @@ describe('build search filters (known answers)', () => {
     do {
       const res = await search({ sort: 'gain', limit: 2, ...(cursor ? { cursor } : {}) });
       seen.push(...res.items.map((i) => i.peakPowerGainHp));
-      cursor = res.next;
+      // Every page counts all six matching builds, not just its own rows.
+      expect(res.total).toBe(6);
+      cursor = res.nextCursor;
       pages += 1;
     } while (cursor && pages < 10);
     expect(seen).toEqual([27, 20, 18, 12, 8, 5]);
@@ -188,7 +190,7 @@ describe('build search filters (known answers)', () => {
       do {
         const res = await search({ engine: 'vantor', sort, limit: 2, ...(cursor ? { cursor } : {}) });
         paged.push(...res.items.map((i) => i.stageId));
-        cursor = res.next;
+        cursor = res.nextCursor;
       } while (cursor && paged.length < 50);
       expect(paged).toEqual(all);
       expect(all.length).toBe(5);

@@ -100,7 +100,7 @@ describe('bikes', () => {
   it('suggests engine families already used in the shop', async () => {
     const desk = await t.signIn(a.users.desk);
     const res = await desk.get('/api/bikes/engine-families');
-    expect(res.body).toContain('TM-100');
+    expect(res.body.items).toContain('TM-100');
   });
 });
 

@@ -333,9 +333,9 @@ describe('list, edit, delete, roles and tenants', () => {
     expect((await desk.get(`/api/runs/${id}`)).status).toBe(200);
 
     const audit = await owner.get('/api/audit').query({ limit: 500 });
-    const actions = audit.body.filter((e: { entityId: string }) => e.entityId === id).map((e: { action: string }) => e.action);
+    const actions = audit.body.items.filter((e: { entityId: string }) => e.entityId === id).map((e: { action: string }) => e.action);
     expect(actions).toEqual(expect.arrayContaining(['run.upload', 'run.update', 'run.delete', 'run.restore']));
-    expect(audit.body.some((e: { action: string }) => e.action === 'column-layout.create')).toBe(true);
+    expect(audit.body.items.some((e: { action: string }) => e.action === 'column-layout.create')).toBe(true);
   });
 
   it('hides deleted runs from staff when includeDeleted=false (the text "false" means false)', async () => {

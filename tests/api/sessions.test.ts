@@ -25,9 +25,9 @@ describe('dynos', () => {
     expect((await owner.post('/api/dynos').send({ name: 'x', kind: 'water-brake' })).status).toBe(400);
     const edited = await owner.put(`/api/dynos/${created.body.id}`).send({ name: 'Bay 1 roller', kind: 'eddy-current' });
     expect(edited.body.kind).toBe('eddy-current');
-    expect((await tuner.get('/api/dynos')).body.map((d: { id: string }) => d.id)).toEqual([created.body.id]);
+    expect((await tuner.get('/api/dynos')).body.items.map((d: { id: string }) => d.id)).toEqual([created.body.id]);
     const bOwner = await t.signIn(b.users.owner);
-    expect((await bOwner.get('/api/dynos')).body).toEqual([]);
+    expect((await bOwner.get('/api/dynos')).body.items).toEqual([]);
     expect((await bOwner.put(`/api/dynos/${created.body.id}`).send({ name: 'x', kind: 'other' })).status).toBe(404);
     expect((await bOwner.delete(`/api/dynos/${created.body.id}`)).status).toBe(404);
     const customer = await t.signIn(a.users.customer);
@@ -56,9 +56,9 @@ describe('sessions', () => {
     expect(Date.now() - Date.parse(confirmed.body.safetyConfirmedAt)).toBeLessThan(60_000);
 
     const list = await desk.get('/api/sessions').query({ bikeId: a.bike.id });
-    expect(list.body.map((s: { id: string }) => s.id)).toEqual([res.body.id]);
+    expect(list.body.items.map((s: { id: string }) => s.id)).toEqual([res.body.id]);
     const audit = await owner.get('/api/audit');
-    expect(audit.body.map((e: { action: string }) => e.action)).toEqual(expect.arrayContaining(['session.create', 'session.update', 'session.safety-check']));
+    expect(audit.body.items.map((e: { action: string }) => e.action)).toEqual(expect.arrayContaining(['session.create', 'session.update', 'session.safety-check']));
   });
 
   it('shows a customer only their own bikes’ sessions and keeps shops apart', async () => {
@@ -67,7 +67,7 @@ describe('sessions', () => {
     const other = await tuner.post('/api/sessions').send({ bikeId: a.otherBike.id });
     const customer = await t.signIn(a.users.customer);
     const seen = await customer.get('/api/sessions');
-    expect(seen.body.every((s: { bikeId: string }) => s.bikeId === a.bike.id)).toBe(true);
+    expect(seen.body.items.every((s: { bikeId: string }) => s.bikeId === a.bike.id)).toBe(true);
     expect((await customer.get(`/api/sessions/${own.body.id}`)).status).toBe(200);
     expect((await customer.get(`/api/sessions/${other.body.id}`)).status).toBe(404);
     expect((await customer.get('/api/sessions').query({ bikeId: a.otherBike.id })).status).toBe(404);
@@ -78,7 +78,7 @@ describe('sessions', () => {
     expect((await bTuner.patch(`/api/sessions/${own.body.id}`).send({ notes: 'x' })).status).toBe(404);
     expect((await bTuner.post(`/api/sessions/${own.body.id}/safety-check`).send({ checks: SAFETY_CHECKS.map((c) => c.id) })).status).toBe(404);
     expect((await bTuner.post('/api/sessions').send({ bikeId: a.bike.id })).status).toBe(404);
-    expect((await bTuner.get('/api/sessions')).body).toEqual([]);
+    expect((await bTuner.get('/api/sessions')).body.items).toEqual([]);
     // A session of one bike does not take another bike's uploads.
     const wrong = await tuner.post('/api/runs').field('bikeId', a.otherBike.id).field('sessionId', own.body.id).attach('files', Buffer.from('x'), { filename: 'x.csv' });
     expect(wrong.status).toBe(400);

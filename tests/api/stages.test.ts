@@ -103,16 +103,16 @@ describe('stages and parts', () => {
     expect(run.body).toMatchObject({ stageId: stage1.body.id, isReference: true });
 
     const list = await desk.get('/api/stages').query({ bikeId: a.bike.id });
-    expect(list.body.map((s: { name: string }) => s.name)).toEqual(['Baseline', 'Exhaust + tune']);
-    expect(list.body[1].runCount).toBe(1);
-    expect(list.body[1].totalCostCents).toBe(105000);
+    expect(list.body.items.map((s: { name: string }) => s.name)).toEqual(['Baseline', 'Exhaust + tune']);
+    expect(list.body.items[1].runCount).toBe(1);
+    expect(list.body.items[1].totalCostCents).toBe(105000);
 
     // Reordered, the other stage becomes the baseline and the gain changes sign.
     const reordered = await tuner.post('/api/stages/reorder').send({ bikeId: a.bike.id, stageIds: [stage1.body.id, baseline.body.id] });
     expect(reordered.status).toBe(200);
-    expect(reordered.body.map((s: { name: string }) => s.name)).toEqual(['Exhaust + tune', 'Baseline']);
-    expect(reordered.body[0].gainPeakPowerHp).toBeNull();
-    expect(reordered.body[1].gainPeakPowerHp).toBeLessThan(-0.05 * truth);
+    expect(reordered.body.items.map((s: { name: string }) => s.name)).toEqual(['Exhaust + tune', 'Baseline']);
+    expect(reordered.body.items[0].gainPeakPowerHp).toBeNull();
+    expect(reordered.body.items[1].gainPeakPowerHp).toBeLessThan(-0.05 * truth);
     expect((await tuner.post('/api/stages/reorder').send({ bikeId: a.bike.id, stageIds: [stage1.body.id] })).status).toBe(400);
     await tuner.post('/api/stages/reorder').send({ bikeId: a.bike.id, stageIds: [baseline.body.id, stage1.body.id] });
 
@@ -142,7 +142,7 @@ describe('stages and parts', () => {
     expect(kept.deletedAt).toBeNull();
 
     const audit = await owner.get('/api/audit').query({ limit: 500 });
-    const actions = new Set(audit.body.map((e: { action: string }) => e.action));
+    const actions = new Set(audit.body.items.map((e: { action: string }) => e.action));
     for (const a of ['stage.create', 'stage.reference-run', 'stage.reorder', 'stage.delete']) expect(actions.has(a), a).toBe(true);
   });
 
@@ -150,14 +150,14 @@ describe('stages and parts', () => {
     const customer = await t.signIn(a.users.customer);
     const own = await customer.get('/api/stages').query({ bikeId: a.bike.id });
     expect(own.status).toBe(200);
-    expect(own.body.map((s: { name: string }) => s.name)).toEqual(['Baseline']);
+    expect(own.body.items.map((s: { name: string }) => s.name)).toEqual(['Baseline']);
     const otherStage = await tuner.post('/api/stages').send({ bikeId: a.otherBike.id, name: 'Other baseline' });
     expect((await customer.get('/api/stages').query({ bikeId: a.otherBike.id })).status).toBe(404);
     expect((await customer.get(`/api/stages/${otherStage.body.id}`)).status).toBe(404);
-    expect((await customer.post(`/api/stages/${own.body[0].id}/parts`).send({ category: 'other', description: 'x' })).status).toBe(403);
+    expect((await customer.post(`/api/stages/${own.body.items[0].id}/parts`).send({ category: 'other', description: 'x' })).status).toBe(403);
 
     const bTuner = await t.signIn(b.users.tuner);
-    const id = own.body[0].id;
+    const id = own.body.items[0].id;
     expect((await bTuner.get('/api/stages').query({ bikeId: a.bike.id })).status).toBe(404);
     expect((await bTuner.get(`/api/stages/${id}`)).status).toBe(404);
     expect((await bTuner.put(`/api/stages/${id}`).send({ name: 'x' })).status).toBe(404);

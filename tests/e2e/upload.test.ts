@@ -116,7 +116,7 @@ describe('uploading a dyno session', () => {
     await form.getByRole('button', { name: 'Create session' }).click();
     await visible(page, 'Safety checks for this session');
     // Stored in the API's units, converted from what was typed.
-    const created = (await (await h.t.signIn(shop.users.tuner)).get('/api/sessions').query({ bikeId: shop.bike.id })).body[0];
+    const created = (await (await h.t.signIn(shop.users.tuner)).get('/api/sessions').query({ bikeId: shop.bike.id })).body.items[0];
     expect(created.ambientTempC).toBeCloseTo(AIR.temperatureC, 6);
     expect(created.baroKpa).toBeCloseTo(AIR.baroKpa, 6);
     // Shown back in the shop's units, as typed.
@@ -280,8 +280,8 @@ describe('uploading a dyno session', () => {
     const page = await h.signInPage(shop.users.tuner.email);
     const tuner = await h.t.signIn(shop.users.tuner);
     const sessions = await tuner.get('/api/sessions').query({ bikeId: shop.bike.id });
-    expect(sessions.body.length).toBe(1);
-    await page.goto(`${h.baseUrl}/sessions/${sessions.body[0].id}`);
+    expect(sessions.body.items.length).toBe(1);
+    await page.goto(`${h.baseUrl}/sessions/${sessions.body.items[0].id}`);
     const table = page.getByRole('table', { name: 'Runs of this session' });
     await expect.poll(() => table.locator('tbody tr').count()).toBe(3);
     expect(await page.getByText('Safety checks confirmed').first().isVisible()).toBe(true);
@@ -290,7 +290,7 @@ describe('uploading a dyno session', () => {
     await h.screenshot(page, 'upload-07-session-page');
     const stages = await tuner.get('/api/stages').query({ bikeId: shop.bike.id });
     const pull01 = (await tuner.get('/api/runs').query({ bikeId: shop.bike.id })).body.items.find((r: { originalName: string }) => r.originalName === 'pull-01.csv');
-    expect(stages.body[0].referenceRunId).toBe(pull01.id);
+    expect(stages.body.items[0].referenceRunId).toBe(pull01.id);
 
     // Sorted by peak power, highest first: the three invented runs were scaled ×1, ×1.01, ×1.02.
     await page.goto(`${h.baseUrl}/runs?bikeId=${shop.bike.id}&sort=-peakPowerHp`);
@@ -318,7 +318,7 @@ describe('uploading a dyno session', () => {
   it('a customer who opens staff pages by URL gets a plain page, not failing screens', async () => {
     const page = await h.signInPage(shop.users.customer.email);
     const tuner = await h.t.signIn(shop.users.tuner);
-    const sessionId = (await tuner.get('/api/sessions').query({ bikeId: shop.bike.id })).body[0].id;
+    const sessionId = (await tuner.get('/api/sessions').query({ bikeId: shop.bike.id })).body.items[0].id;
     for (const url of ['/runs', '/upload', `/sessions/${sessionId}`, '/settings/dynos']) {
       await page.goto(`${h.baseUrl}${url}`);
       await visible(page, 'Not available for your role');

@@ -4,7 +4,8 @@ import { ApiRouter, reply } from '../../http/api-router';
 import { SESSION_COOKIE } from '../../http/session';
 import type { AppDeps } from '../../app-deps';
 import { AppError } from '../../lib/errors';
-import { changePasswordInput, forgotPasswordInput, loginInput, setPasswordInput } from '@shared/schemas/auth';
+import { changePasswordInput, forgotPasswordInput, loginInput, setPasswordInput, type ForgotPasswordDto, type SignedInUser, type SignInDto, type TokenInfoDto } from '@shared/schemas/auth';
+import type { OkDto } from '@shared/schemas/common';
 import { changePassword, consumeToken, peekToken, requestPasswordReset, toActor } from './auth.service';
 import type { Actor } from '../../http/actor';
 import type { User } from '../users/user.entity';
@@ -42,7 +43,7 @@ export function authRoutes(deps: AppDeps) {
     summary: 'Sign in with e-mail and password',
     body: loginInput,
     before: [checkPassword],
-    handler: async ({ req }) => {
+    handler: async ({ req }): Promise<SignInDto> => {
       const user = (req as SignInRequest).signInUser;
       if (!user) throw new AppError('BAD_CREDENTIALS', 'E-mail or password is not right', 401);
       return { user: await logIn(req, user) };
@@ -55,9 +56,10 @@ export function authRoutes(deps: AppDeps) {
     access: 'public',
     summary: 'Sign out',
     handler: async ({ req }) => {
+      const body: OkDto = { ok: true };
       await new Promise<void>((resolve, reject) => req.logout((err) => (err ? reject(err) : resolve())));
       await new Promise<void>((resolve) => req.session.destroy(() => resolve()));
-      return reply({ ok: true }, { clearCookies: [SESSION_COOKIE] });
+      return reply(body, { clearCookies: [SESSION_COOKIE] });
     },
   });
 
@@ -66,7 +68,7 @@ export function authRoutes(deps: AppDeps) {
     path: '/me',
     access: 'signed-in',
     summary: 'The signed-in user',
-    handler: async ({ actor }) => actor,
+    handler: async ({ actor }): Promise<SignedInUser> => actor,
   });
 
   api.route({
@@ -75,7 +77,7 @@ export function authRoutes(deps: AppDeps) {
     access: 'signed-in',
     summary: 'Change own password',
     body: changePasswordInput,
-    handler: async ({ em, actor, body }) => {
+    handler: async ({ em, actor, body }): Promise<OkDto> => {
       await changePassword(em, actor, body.currentPassword, body.newPassword, deps.config.BCRYPT_ROUNDS);
       return { ok: true };
     },
@@ -88,7 +90,7 @@ export function authRoutes(deps: AppDeps) {
     summary: 'E-mail a password reset link',
     body: forgotPasswordInput,
     status: 202,
-    handler: async ({ em, body, req }) => {
+    handler: async ({ em, body, req }): Promise<ForgotPasswordDto> => {
       await requestPasswordReset(em, deps.mailer, deps.config.PUBLIC_URL, body.email, req.ip ?? 'unknown');
       return { ok: true, message: 'If that address has an account, a reset link is on its way.' };
     },
@@ -100,7 +102,7 @@ export function authRoutes(deps: AppDeps) {
     access: 'public',
     summary: 'Check an invitation or reset link',
     params: z.object({ token: z.string().min(20).max(200) }),
-    handler: async ({ em, params }) => {
+    handler: async ({ em, params }): Promise<TokenInfoDto> => {
       const row = await peekToken(em, params.token);
       return { purpose: row.purpose, email: row.user.email, name: row.user.name };
     },
@@ -112,7 +114,7 @@ export function authRoutes(deps: AppDeps) {
     access: 'public',
     summary: 'Set a password from an invitation or reset link, then sign in',
     body: setPasswordInput,
-    handler: async ({ em, body, req }) => {
+    handler: async ({ em, body, req }): Promise<SignInDto> => {
       const user = await consumeToken(em, body.token, body.password, deps.config.BCRYPT_ROUNDS, body.name);
       return { user: await logIn(req, user) };
     },

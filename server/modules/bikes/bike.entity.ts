@@ -1,12 +1,9 @@
 import { EntitySchema } from '@mikro-orm/core';
-import { randomUUID } from 'node:crypto';
-import { Shop } from '../shops/shop.entity';
+import { ShopOwnedEntity, ShopOwnedSchema } from '../../db/base-entity';
 import { Customer } from '../customers/customer.entity';
 
 /** A customer's motorcycle. Displacement is stored in cm³ whatever unit it was entered in. */
-export class Bike {
-  id: string = randomUUID();
-  shop!: Shop;
+export class Bike extends ShopOwnedEntity {
   customer!: Customer;
   make!: string;
   model!: string;
@@ -16,17 +13,15 @@ export class Bike {
   displacementCc: number | null = null;
   cylinders: number | null = null;
   notes: string | null = null;
-  createdAt: Date = new Date();
   updatedAt: Date = new Date();
 }
 
-export const BikeSchema = new EntitySchema<Bike>({
+export const BikeSchema = new EntitySchema<Bike, ShopOwnedEntity>({
   class: Bike,
+  extends: ShopOwnedSchema,
   tableName: 'bike',
   indexes: [{ properties: ['shop', 'customer'] }, { properties: ['shop', 'make', 'model'] }],
   properties: {
-    id: { type: 'uuid', primary: true },
-    shop: { kind: 'm:1', entity: () => Shop, deleteRule: 'cascade' },
     customer: { kind: 'm:1', entity: () => Customer, deleteRule: 'cascade' },
     make: { type: 'string', length: 100 },
     model: { type: 'string', length: 100 },
@@ -36,7 +31,6 @@ export const BikeSchema = new EntitySchema<Bike>({
     displacementCc: { type: 'double', nullable: true },
     cylinders: { type: 'integer', nullable: true },
     notes: { type: 'text', nullable: true },
-    createdAt: { type: 'datetime', columnType: 'timestamptz' },
     updatedAt: { type: 'datetime', columnType: 'timestamptz', onUpdate: () => new Date() },
   },
 });

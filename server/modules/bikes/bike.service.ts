@@ -3,7 +3,9 @@ import type { FilterQuery } from '@mikro-orm/core';
 import type { z } from 'zod';
 import type { Actor } from '../../http/actor';
 import { notFound } from '../../lib/errors';
-import { parseSort, type Page } from '@shared/schemas/common';
+import { customerFilterOf, tenantParams, tenantScope } from '../../http/tenant-scope';
+import { containsPattern } from '../../db/sql-text';
+import { parseSort, wholePage, type Page } from '@shared/schemas/common';
 import type { BikeDto, BikeInput, bikeListQuery } from '@shared/schemas/bike';
 import { Bike } from './bike.entity';
 import { Customer } from '../customers/customer.entity';
@@ -27,18 +29,11 @@ export const toBikeDto = (b: Bike): BikeDto => ({
   createdAt: b.createdAt.toISOString(),
 });
 
-/** Shop scope plus, for customers, their own bikes only. Every bike query starts here. */
-export function bikeScope(actor: Actor): FilterQuery<Bike> {
-  return actor.role === 'customer' ? { shop: actor.shopId, customer: actor.customerId ?? '00000000-0000-0000-0000-000000000000' } : { shop: actor.shopId };
-}
-
-const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
-
 export async function listBikes(em: EntityManager, actor: Actor, query: ListQuery): Promise<Page<BikeDto>> {
-  const where: FilterQuery<Bike> = { ...(bikeScope(actor) as object) };
-  if (query.customerId) Object.assign(where, { customer: actor.role === 'customer' ? actor.customerId : query.customerId });
+  const where = tenantScope<Bike>(actor, 'customer') as FilterQuery<Bike> & Record<string, unknown>;
+  if (query.customerId) Object.assign(where, { customer: customerFilterOf(actor) ?? query.customerId });
   if (query.q) {
-    const like = `%${escapeLike(query.q)}%`;
+    const like = containsPattern(query.q);
     where.$or = [
       { make: { $ilike: like } },
       { model: { $ilike: like } },
@@ -60,41 +55,45 @@ export async function listBikes(em: EntityManager, actor: Actor, query: ListQuer
 
 /** Load a bike the actor may see, or 404 (never 403: do not confirm it exists elsewhere). */
 export async function getBikeEntity(em: EntityManager, actor: Actor, id: string): Promise<Bike> {
-  const bike = await em.findOne(Bike, { ...(bikeScope(actor) as object), id }, { populate: ['customer'] });
+  const bike = await em.findOne(Bike, tenantScope<Bike>(actor, 'customer', { id }), { populate: ['customer'] });
   if (!bike) throw notFound('Bike');
   return bike;
 }
 
 async function customerOfShop(em: EntityManager, actor: Actor, customerId: string) {
-  const customer = await em.findOne(Customer, { id: customerId, shop: actor.shopId });
+  const customer = await em.findOne(Customer, tenantScope<Customer>(actor, undefined, { id: customerId }));
   if (!customer) throw notFound('Customer');
   return customer;
 }
 
 export async function createBike(em: EntityManager, actor: Actor, input: BikeInput): Promise<BikeDto> {
   const { customerId, ...data } = input;
-  const customer = await customerOfShop(em, actor, customerId);
-  const bike = em.create(Bike, { ...data, customer, shop: em.getReference(Shop, actor.shopId) } as Bike);
-  await em.flush();
-  await recordAudit(em, actor, 'bike.create', 'bike', bike.id, { make: bike.make, model: bike.model });
+  const bike = await em.transactional(async (tx) => {
+    const customer = await customerOfShop(tx, actor, customerId);
+    const created = tx.create(Bike, { ...data, customer, shop: tx.getReference(Shop, actor.shopId) } as Bike);
+    await recordAudit(tx, actor, 'bike.create', 'bike', created.id, { make: created.make, model: created.model });
+    return created;
+  });
   return toBikeDto(bike);
 }
 
 export async function updateBike(em: EntityManager, actor: Actor, id: string, input: BikeInput): Promise<BikeDto> {
-  const bike = await getBikeEntity(em, actor, id);
   const { customerId, ...data } = input;
-  if (customerId !== bike.customer.id) bike.customer = await customerOfShop(em, actor, customerId);
-  em.assign(bike, data);
-  await em.flush();
-  await recordAudit(em, actor, 'bike.update', 'bike', bike.id, data);
+  const bike = await em.transactional(async (tx) => {
+    const found = await getBikeEntity(tx, actor, id);
+    if (customerId !== found.customer.id) found.customer = await customerOfShop(tx, actor, customerId);
+    tx.assign(found, data);
+    await recordAudit(tx, actor, 'bike.update', 'bike', found.id, data);
+    return found;
+  });
   return toBikeDto(bike);
 }
 
 /** Engine families already used in this shop, most common first, for the form's suggestions. */
-export async function engineFamilies(em: EntityManager, actor: Actor): Promise<string[]> {
+export async function engineFamilies(em: EntityManager, actor: Actor): Promise<Page<string>> {
   const rows = (await em.getConnection().execute(
     `select engine_family, count(*) as n from bike where shop_id = ? and engine_family is not null group by engine_family order by n desc, engine_family limit 100`,
-    [actor.shopId],
+    [tenantParams(actor).shopId],
   )) as { engine_family: string }[];
-  return rows.map((r) => r.engine_family);
+  return wholePage(rows.map((r) => r.engine_family));
 }

@@ -5,7 +5,8 @@ import type { Actor } from '../../http/actor';
 import { AppError } from '../../lib/errors';
 import type { BuildSearchQuery } from '@shared/schemas/builds';
 import type { BuildSearchPage } from '@shared/schemas/builds';
-import { BUILD_INDEX_COLUMNS, Sql, escapeLike, toBuildItem, type BuildIndexRow } from './build-sql';
+import { containsPattern } from '../../db/sql-text';
+import { BUILD_INDEX_COLUMNS, Sql, toBuildItem, type BuildIndexRow } from './build-sql';
 
 /**
  * Build finder search. A "build" is one stage of one bike that has measured gains against that
@@ -61,8 +62,11 @@ function decodeCursor(raw: string, sort: Sort): Cursor {
   }
 }
 
-/** The search statement and its parameters (also used by the EXPLAIN test). */
-export function searchSql(actor: Actor, query: BuildSearchQuery): { sql: string; params: unknown[]; sort: Sort } {
+/**
+ * The search statement and its parameters (also used by the EXPLAIN test), and the statement that
+ * counts every match (the same filters without the cursor and the limit).
+ */
+export function searchSql(actor: Actor, query: BuildSearchQuery): { sql: string; params: unknown[]; sort: Sort; countSql: string; countParams: unknown[] } {
   const sort: Sort = query.sort ?? (query.engine ? 'similarity' : 'gain');
   // Placeholders are positional: each part of the statement collects its own values, joined in text order.
   const cq = new Sql(); // the engine family CTE
@@ -76,11 +80,11 @@ export function searchSql(actor: Actor, query: BuildSearchQuery): { sql: string;
     ? `with fam as materialized (
         select f.engine_family, coalesce(word_similarity(${cq.p(query.engine)}, f.engine_family), 0)::float8 as score
           from build_family f
-         where f.shop_id = ${cq.p(actor.shopId)} and (${cq.p(query.engine)} <% f.engine_family or f.engine_family ilike ${cq.p(`%${escapeLike(query.engine)}%`)}))`
+         where f.shop_id = ${cq.p(actor.shopId)} and (${cq.p(query.engine)} <% f.engine_family or f.engine_family ilike ${cq.p(containsPattern(query.engine))}))`
     : '';
   const scoreExpr = query.engine ? 'fam.score' : '0::float8';
-  if (query.make) where.push(`bi.make ilike ${q.p(`%${escapeLike(query.make)}%`)}`);
-  if (query.model) where.push(`bi.model ilike ${q.p(`%${escapeLike(query.model)}%`)}`);
+  if (query.make) where.push(`bi.make ilike ${q.p(containsPattern(query.make))}`);
+  if (query.model) where.push(`bi.model ilike ${q.p(containsPattern(query.model))}`);
 
   const mins = [query.ccMin, query.ciMin !== undefined ? query.ciMin * CC_PER_CUBIC_INCH : undefined].filter((v): v is number => v !== undefined);
   const maxs = [query.ccMax, query.ciMax !== undefined ? query.ciMax * CC_PER_CUBIC_INCH : undefined].filter((v): v is number => v !== undefined);
@@ -103,10 +107,16 @@ export function searchSql(actor: Actor, query: BuildSearchQuery): { sql: string;
     where.push(`bi.part_keys && array[${q.list(levels.map((l) => `cylinder-heads:${l}`))}]::text[]`);
   }
   // parts_text has one description a line, so a substring never spans two parts.
-  if (query.partText) where.push(`bi.parts_text ilike ${q.p(`%${escapeLike(query.partText)}%`)}`);
+  if (query.partText) where.push(`bi.parts_text ilike ${q.p(containsPattern(query.partText))}`);
   if (query.tag.length) where.push(`bi.run_tags @> array[${q.list(query.tag)}]::text[]`);
   // websearch_to_tsquery(regconfig, text) is immutable: it folds to a constant the GIN index can use.
   if (query.q) where.push(`bi.search_tsv @@ websearch_to_tsquery('english', ${q.p(query.q)})`);
+
+  const countSql = `${fam}
+  select count(*)::int as n
+    from build_index bi${query.engine ? ' join fam on fam.engine_family = bi.engine_family' : ''}
+   where ${where.join('\n     and ')}`;
+  const countParams = [...cq.params, ...q.params];
 
   const keyExpr = sort === 'similarity' ? 'score' : sort === 'gain' ? 'bi.gain_peak_power_hp' : 'bi.stage_date';
   if (query.cursor) {
@@ -142,18 +152,21 @@ export function searchSql(actor: Actor, query: BuildSearchQuery): { sql: string;
   select f.*, c.name as customer_name from (${inner}) f
     join customer c on c.id = f.customer_id
    order by f.${outerKey} desc, f.stage_id desc`;
-  return { sql, params: [...cq.params, ...q.params, ...oq.params], sort };
+  return { sql, params: [...cq.params, ...q.params, ...oq.params], sort, countSql, countParams };
 }
 
 export async function searchBuilds(em: EntityManager, actor: Actor, query: BuildSearchQuery): Promise<BuildSearchPage> {
-  const { sql, params, sort } = searchSql(actor, query);
+  const { sql, params, sort, countSql, countParams } = searchSql(actor, query);
   const limit = query.limit;
-  const rows = (await em.getConnection().execute(sql, params)) as BuildIndexRow[];
+  const [rows, counted] = await Promise.all([
+    em.getConnection().execute(sql, params) as Promise<BuildIndexRow[]>,
+    em.getConnection().execute(countSql, countParams) as Promise<{ n: number }[]>,
+  ]);
   const page = rows.slice(0, limit);
   const last = page[page.length - 1];
-  const next =
+  const nextCursor =
     rows.length > limit && last
       ? encodeCursor({ s: sort, k: sort === 'similarity' ? Number(last.score) : sort === 'gain' ? Number(last.gain_peak_power_hp) : last.stage_date, id: last.stage_id })
       : null;
-  return { items: page.map((r) => toBuildItem(r, r.parts)), next, sort };
+  return { items: page.map((r) => toBuildItem(r, r.parts)), total: Number(counted[0]?.n ?? 0), page: 1, pageSize: limit, nextCursor, sort };
 }

@@ -3,6 +3,7 @@ import { PART_CATEGORY_LABELS, type PartCategory } from '@shared/parts';
 import type { Actor } from '../../http/actor';
 import { notFound } from '../../lib/errors';
 import type { SimilarBuildsDto } from '@shared/schemas/builds';
+import { wholePage } from '@shared/schemas/common';
 import { BUILD_INDEX_COLUMNS, Sql, toBuildItem, type BuildIndexRow } from './build-sql';
 import { preparedQuery, preparedStatement } from '../../db/prepared-query';
 
@@ -116,17 +117,14 @@ export async function similarBuilds(em: EntityManager, actor: Actor, bikeId: str
   // displacement unknown, zero or known; cylinders) and how many part categories it has (0–9):
   // at most 2 · 3 · 2 · 10 = 120 texts.
   const rows = (await preparedQuery(em, preparedStatement(sql), q.params)) as SimilarRow[];
-  return {
-    bikeId,
-    weights: { ...w },
-    items: rows.map((r) => ({
+  const items = rows.map((r) => ({
       ...toBuildItem(r, r.parts),
       score: r.similarity,
       similarity: r.similarity,
       components: { engineFamily: r.e, displacement: r.d, partCategories: r.c, partsText: r.t },
       reasons: reasonsFor({ ...r, shared: r.categories.filter((c) => myCats.has(c)).sort() }),
-    })),
-  };
+  }));
+  return { bikeId, weights: { ...w }, ...wholePage(items) };
 }
 
 function reasonsFor(r: SimilarRow): string[] {

@@ -17,8 +17,6 @@ export class Sql {
   }
 }
 
-export const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
-
 /**
  * Columns every build row selects from build_index `bi` (Migration20261202001000): one row per
  * stage with the bike's fields and the cumulative build, kept current by triggers.

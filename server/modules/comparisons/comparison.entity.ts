@@ -1,14 +1,11 @@
 import { EntitySchema } from '@mikro-orm/core';
-import { randomUUID } from 'node:crypto';
-import { Shop } from '../shops/shop.entity';
+import { ShopOwnedEntity, ShopOwnedSchema } from '../../db/base-entity';
 import { Bike } from '../bikes/bike.entity';
 import { Run } from '../runs/run.entity';
 import { User } from '../users/user.entity';
 
 /** A saved set of runs, one of them the baseline, with the options used. Reports are made from these. */
-export class Comparison {
-  id: string = randomUUID();
-  shop!: Shop;
+export class Comparison extends ShopOwnedEntity {
   name!: string;
   /** The bike the comparison is about (the baseline run's bike). */
   bike!: Bike;
@@ -22,16 +19,14 @@ export class Comparison {
    */
   colorSlots: Record<string, number> | null = null;
   createdBy: User | null = null;
-  createdAt: Date = new Date();
 }
 
-export const ComparisonSchema = new EntitySchema<Comparison>({
+export const ComparisonSchema = new EntitySchema<Comparison, ShopOwnedEntity>({
   class: Comparison,
+  extends: ShopOwnedSchema,
   tableName: 'comparison',
   indexes: [{ properties: ['shop', 'bike'] }],
   properties: {
-    id: { type: 'uuid', primary: true },
-    shop: { kind: 'm:1', entity: () => Shop, deleteRule: 'cascade' },
     name: { type: 'string', length: 200 },
     bike: { kind: 'm:1', entity: () => Bike, deleteRule: 'cascade' },
     baselineRun: { kind: 'm:1', entity: () => Run, deleteRule: 'cascade' },
@@ -40,6 +35,5 @@ export const ComparisonSchema = new EntitySchema<Comparison>({
     note: { type: 'text', nullable: true },
     colorSlots: { type: 'json', nullable: true },
     createdBy: { kind: 'm:1', entity: () => User, nullable: true, deleteRule: 'set null' },
-    createdAt: { type: 'datetime', columnType: 'timestamptz' },
   },
 });

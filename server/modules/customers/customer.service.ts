@@ -2,6 +2,8 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import type { FilterQuery } from '@mikro-orm/core';
 import type { Actor } from '../../http/actor';
 import { AppError, notFound } from '../../lib/errors';
+import { customerFilterOf, tenantScope } from '../../http/tenant-scope';
+import { containsPattern } from '../../db/sql-text';
 import { parseSort, type Page } from '@shared/schemas/common';
 import type { CustomerDto } from '@shared/schemas/customer';
 import type { z } from 'zod';
@@ -14,8 +16,6 @@ import { recordAudit } from '../audit/audit.service';
 
 type CustomerData = z.output<typeof customerInput>;
 type ListQuery = z.output<typeof customerListQuery>;
-
-const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
 
 async function decorate(em: EntityManager, customers: Customer[]): Promise<CustomerDto[]> {
   if (!customers.length) return [];
@@ -41,9 +41,9 @@ async function decorate(em: EntityManager, customers: Customer[]): Promise<Custo
 
 /** The shop's customers, searched by name, e-mail or phone, sorted and paged on the server. */
 export async function listCustomers(em: EntityManager, actor: Actor, query: ListQuery): Promise<Page<CustomerDto>> {
-  const where: FilterQuery<Customer> = { shop: actor.shopId };
+  const where = tenantScope<Customer>(actor) as FilterQuery<Customer> & Record<string, unknown>;
   if (query.q) {
-    const like = `%${escapeLike(query.q)}%`;
+    const like = containsPattern(query.q);
     where.$or = [{ name: { $ilike: like } }, { email: { $ilike: like } }, { phone: { $ilike: like } }];
   }
   const { field, dir } = parseSort(query.sort, 'name');
@@ -56,8 +56,10 @@ export async function listCustomers(em: EntityManager, actor: Actor, query: List
 }
 
 export async function getCustomerEntity(em: EntityManager, actor: Actor, id: string): Promise<Customer> {
-  const customer = await em.findOne(Customer, { id, shop: actor.shopId });
-  if (!customer || (actor.role === 'customer' && actor.customerId !== id)) throw notFound('Customer');
+  const customer = await em.findOne(Customer, tenantScope<Customer>(actor, undefined, { id }));
+  // A customer reaches only their own record.
+  const own = customerFilterOf(actor);
+  if (!customer || (own !== null && own !== id)) throw notFound('Customer');
   return customer;
 }
 
@@ -67,26 +69,32 @@ export async function getCustomer(em: EntityManager, actor: Actor, id: string): 
 }
 
 export async function createCustomer(em: EntityManager, actor: Actor, data: CustomerData): Promise<CustomerDto> {
-  const customer = em.create(Customer, { ...data, shop: em.getReference(Shop, actor.shopId) } as Customer);
-  await em.flush();
-  await recordAudit(em, actor, 'customer.create', 'customer', customer.id, { name: customer.name });
+  const customer = await em.transactional(async (tx) => {
+    const created = tx.create(Customer, { ...data, shop: tx.getReference(Shop, actor.shopId) } as Customer);
+    await recordAudit(tx, actor, 'customer.create', 'customer', created.id, { name: created.name });
+    return created;
+  });
   return (await decorate(em, [customer]))[0];
 }
 
 export async function updateCustomer(em: EntityManager, actor: Actor, id: string, data: CustomerData): Promise<CustomerDto> {
-  const customer = await getCustomerEntity(em, actor, id);
-  em.assign(customer, data);
-  await em.flush();
-  await recordAudit(em, actor, 'customer.update', 'customer', customer.id, data);
+  const customer = await em.transactional(async (tx) => {
+    const found = await getCustomerEntity(tx, actor, id);
+    tx.assign(found, data);
+    await recordAudit(tx, actor, 'customer.update', 'customer', found.id, data);
+    return found;
+  });
   return (await decorate(em, [customer]))[0];
 }
 
 export async function deleteCustomer(em: EntityManager, actor: Actor, id: string): Promise<void> {
-  const customer = await getCustomerEntity(em, actor, id);
-  const bikes = await em.count(Bike, { customer });
-  if (bikes > 0) {
-    throw new AppError('CUSTOMER_HAS_BIKES', `This customer still has ${bikes} bike(s); move or remove them first`, 409);
-  }
-  await em.removeAndFlush(customer);
-  await recordAudit(em, actor, 'customer.delete', 'customer', id, { name: customer.name });
+  await em.transactional(async (tx) => {
+    const customer = await getCustomerEntity(tx, actor, id);
+    const bikes = await tx.count(Bike, { customer });
+    if (bikes > 0) {
+      throw new AppError('CUSTOMER_HAS_BIKES', `This customer still has ${bikes} bike(s); move or remove them first`, 409);
+    }
+    tx.remove(customer);
+    await recordAudit(tx, actor, 'customer.delete', 'customer', id, { name: customer.name });
+  });
 }

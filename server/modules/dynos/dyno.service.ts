@@ -1,6 +1,8 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import type { Actor } from '../../http/actor';
 import { notFound } from '../../lib/errors';
+import { tenantScope } from '../../http/tenant-scope';
+import { wholePage, type Page } from '@shared/schemas/common';
 import type { DynoDto } from '@shared/schemas/run';
 import type { z } from 'zod';
 import type { dynoInput } from '@shared/schemas/run';
@@ -12,36 +14,43 @@ type DynoInput = z.output<typeof dynoInput>;
 
 export const toDynoDto = (d: Dyno): DynoDto => ({ id: d.id, name: d.name, kind: d.kind, notes: d.notes });
 
-export async function listDynos(em: EntityManager, actor: Actor): Promise<DynoDto[]> {
-  const rows = await em.find(Dyno, { shop: actor.shopId }, { orderBy: { name: 'asc', id: 'asc' } });
-  return rows.map(toDynoDto);
+/** The shop's dynos by name: a short list by nature, answered whole. */
+export async function listDynos(em: EntityManager, actor: Actor): Promise<Page<DynoDto>> {
+  const rows = await em.find(Dyno, tenantScope<Dyno>(actor), { orderBy: { name: 'asc', id: 'asc' } });
+  return wholePage(rows.map(toDynoDto));
 }
 
 /** A dyno of the actor's shop, or 404. */
 export async function getDynoEntity(em: EntityManager, actor: Actor, id: string): Promise<Dyno> {
-  const dyno = await em.findOne(Dyno, { id, shop: actor.shopId });
+  const dyno = await em.findOne(Dyno, tenantScope<Dyno>(actor, undefined, { id }));
   if (!dyno) throw notFound('Dyno');
   return dyno;
 }
 
 export async function createDyno(em: EntityManager, actor: Actor, input: DynoInput): Promise<DynoDto> {
-  const dyno = em.create(Dyno, { ...input, shop: em.getReference(Shop, actor.shopId) } as Dyno);
-  await em.flush();
-  await recordAudit(em, actor, 'dyno.create', 'dyno', dyno.id, { name: dyno.name, kind: dyno.kind });
+  const dyno = await em.transactional(async (tx) => {
+    const created = tx.create(Dyno, { ...input, shop: tx.getReference(Shop, actor.shopId) } as Dyno);
+    await recordAudit(tx, actor, 'dyno.create', 'dyno', created.id, { name: created.name, kind: created.kind });
+    return created;
+  });
   return toDynoDto(dyno);
 }
 
 export async function updateDyno(em: EntityManager, actor: Actor, id: string, input: DynoInput): Promise<DynoDto> {
-  const dyno = await getDynoEntity(em, actor, id);
-  em.assign(dyno, input);
-  await em.flush();
-  await recordAudit(em, actor, 'dyno.update', 'dyno', dyno.id, { ...input });
+  const dyno = await em.transactional(async (tx) => {
+    const found = await getDynoEntity(tx, actor, id);
+    tx.assign(found, input);
+    await recordAudit(tx, actor, 'dyno.update', 'dyno', found.id, { ...input });
+    return found;
+  });
   return toDynoDto(dyno);
 }
 
 /** Removes a dyno; its sessions keep their runs and lose the dyno link (foreign key sets null). */
 export async function deleteDyno(em: EntityManager, actor: Actor, id: string): Promise<void> {
-  const dyno = await getDynoEntity(em, actor, id);
-  await em.removeAndFlush(dyno);
-  await recordAudit(em, actor, 'dyno.delete', 'dyno', id, { name: dyno.name });
+  await em.transactional(async (tx) => {
+    const dyno = await getDynoEntity(tx, actor, id);
+    tx.remove(dyno);
+    await recordAudit(tx, actor, 'dyno.delete', 'dyno', id, { name: dyno.name });
+  });
 }

@@ -1,5 +1,6 @@
 import { ApiRouter, reply } from '../../http/api-router';
 import type { AppDeps } from '../../app-deps';
+import type { HealthDto } from '@shared/schemas/common';
 
 /** Try one dependency. The answer says only up or down: hosts, ports and driver errors go to the log, not to anonymous callers. */
 async function probe(name: string, check: () => Promise<unknown>, timeoutMs = 2000): Promise<{ ok: boolean }> {
@@ -28,7 +29,8 @@ export function healthRoutes(deps: AppDeps) {
         probe('object storage', () => deps.storage.ping()),
       ]);
       const ok = database.ok && storage.ok;
-      return reply({ status: ok ? 'ok' : 'degraded', database, storage }, { status: ok ? 200 : 503 });
+      const body: HealthDto = { status: ok ? 'ok' : 'degraded', database, storage };
+      return reply(body, { status: ok ? 200 : 503 });
     },
   });
   return api;

@@ -2,6 +2,8 @@ import { z } from 'zod';
 import { ApiRouter } from '../../http/api-router';
 import type { AppDeps } from '../../app-deps';
 import { AppError } from '../../lib/errors';
+import { wholePage } from '@shared/schemas/common';
+import type { CapturedMessageDetail, OutboxPage } from '@shared/schemas/outbox';
 
 const messageParams = z.object({ id: z.string().regex(/^[\w.-]+\.eml$/, 'Not a message id') });
 
@@ -13,7 +15,7 @@ export function outboxRoutes(deps: AppDeps) {
     path: '/',
     access: ['owner'],
     summary: 'Messages captured by the local mail fake',
-    handler: async ({ actor }) => ({ enabled: deps.outbox.enabled, items: deps.outbox.enabled ? await deps.outbox.list(actor.shopId) : [] }),
+    handler: async ({ actor }): Promise<OutboxPage> => ({ enabled: deps.outbox.enabled, ...wholePage(deps.outbox.enabled ? await deps.outbox.list(actor.shopId) : []) }),
   });
   api.route({
     method: 'get',
@@ -21,7 +23,7 @@ export function outboxRoutes(deps: AppDeps) {
     access: ['owner'],
     summary: 'One captured message',
     params: messageParams,
-    handler: async ({ actor, params }) => {
+    handler: async ({ actor, params }): Promise<CapturedMessageDetail> => {
       const { raw: _raw, parsed, ...msg } = await deps.outbox.get(actor.shopId, params.id);
       return { ...msg, html: typeof parsed.html === 'string' ? parsed.html : null };
     },

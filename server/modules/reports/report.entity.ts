@@ -1,14 +1,11 @@
 import { EntitySchema } from '@mikro-orm/core';
-import { randomUUID } from 'node:crypto';
-import { Shop } from '../shops/shop.entity';
+import { ShopOwnedEntity, ShopOwnedSchema } from '../../db/base-entity';
 import { Bike } from '../bikes/bike.entity';
 import { Comparison } from '../comparisons/comparison.entity';
 import { User } from '../users/user.entity';
 
 /** One generated gain-report PDF. Immutable: regenerating makes a new version with a new object. */
-export class Report {
-  id: string = randomUUID();
-  shop!: Shop;
+export class Report extends ShopOwnedEntity {
   bike!: Bike;
   comparison!: Comparison;
   /** Shop-wide report number, e.g. "R-2026-0042"; shared by every version of one report. */
@@ -21,15 +18,12 @@ export class Report {
   /** The figures printed in the PDF, kept so the share page and checks need not re-render. */
   summary: Record<string, unknown> | null = null;
   createdBy: User | null = null;
-  createdAt: Date = new Date();
 }
 
 export type DeliveryStatus = 'sent' | 'failed';
 
 /** One attempt to e-mail a report. */
-export class ReportDelivery {
-  id: string = randomUUID();
-  shop!: Shop;
+export class ReportDelivery extends ShopOwnedEntity {
   report!: Report;
   to!: string;
   subject!: string;
@@ -38,13 +32,10 @@ export class ReportDelivery {
   error: string | null = null;
   messageId: string | null = null;
   sentBy: User | null = null;
-  createdAt: Date = new Date();
 }
 
 /** A token link to one report; only the token's hash is stored. */
-export class ShareLink {
-  id: string = randomUUID();
-  shop!: Shop;
+export class ShareLink extends ShopOwnedEntity {
   report!: Report;
   tokenHash!: string;
   expiresAt!: Date;
@@ -52,17 +43,15 @@ export class ShareLink {
   viewCount = 0;
   lastViewedAt: Date | null = null;
   createdBy: User | null = null;
-  createdAt: Date = new Date();
 }
 
-export const ReportSchema = new EntitySchema<Report>({
+export const ReportSchema = new EntitySchema<Report, ShopOwnedEntity>({
   class: Report,
+  extends: ShopOwnedSchema,
   tableName: 'report',
   indexes: [{ properties: ['shop', 'bike'] }],
   uniques: [{ properties: ['shop', 'number', 'version'] }],
   properties: {
-    id: { type: 'uuid', primary: true },
-    shop: { kind: 'm:1', entity: () => Shop, deleteRule: 'cascade' },
     bike: { kind: 'm:1', entity: () => Bike, deleteRule: 'cascade' },
     comparison: { kind: 'm:1', entity: () => Comparison, deleteRule: 'cascade' },
     number: { type: 'string', length: 40 },
@@ -73,16 +62,14 @@ export const ReportSchema = new EntitySchema<Report>({
     technicianNote: { type: 'text', nullable: true },
     summary: { type: 'json', nullable: true },
     createdBy: { kind: 'm:1', entity: () => User, nullable: true, deleteRule: 'set null' },
-    createdAt: { type: 'datetime', columnType: 'timestamptz' },
   },
 });
 
-export const ReportDeliverySchema = new EntitySchema<ReportDelivery>({
+export const ReportDeliverySchema = new EntitySchema<ReportDelivery, ShopOwnedEntity>({
   class: ReportDelivery,
+  extends: ShopOwnedSchema,
   tableName: 'report_delivery',
   properties: {
-    id: { type: 'uuid', primary: true },
-    shop: { kind: 'm:1', entity: () => Shop, deleteRule: 'cascade' },
     report: { kind: 'm:1', entity: () => Report, deleteRule: 'cascade' },
     to: { type: 'string', length: 320, fieldName: 'recipient' },
     subject: { type: 'string', length: 300 },
@@ -91,16 +78,14 @@ export const ReportDeliverySchema = new EntitySchema<ReportDelivery>({
     error: { type: 'text', nullable: true },
     messageId: { type: 'string', length: 300, nullable: true },
     sentBy: { kind: 'm:1', entity: () => User, nullable: true, deleteRule: 'set null' },
-    createdAt: { type: 'datetime', columnType: 'timestamptz' },
   },
 });
 
-export const ShareLinkSchema = new EntitySchema<ShareLink>({
+export const ShareLinkSchema = new EntitySchema<ShareLink, ShopOwnedEntity>({
   class: ShareLink,
+  extends: ShopOwnedSchema,
   tableName: 'share_link',
   properties: {
-    id: { type: 'uuid', primary: true },
-    shop: { kind: 'm:1', entity: () => Shop, deleteRule: 'cascade' },
     report: { kind: 'm:1', entity: () => Report, deleteRule: 'cascade' },
     tokenHash: { type: 'string', length: 64, unique: true },
     expiresAt: { type: 'datetime', columnType: 'timestamptz' },
@@ -108,6 +93,5 @@ export const ShareLinkSchema = new EntitySchema<ShareLink>({
     viewCount: { type: 'integer', default: 0 },
     lastViewedAt: { type: 'datetime', columnType: 'timestamptz', nullable: true },
     createdBy: { kind: 'm:1', entity: () => User, nullable: true, deleteRule: 'set null' },
-    createdAt: { type: 'datetime', columnType: 'timestamptz' },
   },
 });

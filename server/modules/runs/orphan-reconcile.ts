@@ -5,7 +5,6 @@
  * key (the same file uploaded again since), a report's PDF key or a shop's logo key — is kept.
  */
 import type { AppDeps } from '../../app-deps';
-import { registerStartupTask } from '../../startup';
 import { OrphanObject } from '../../lib/storage/orphan-object.entity';
 import { Run } from './run.entity';
 import { Report } from '../reports/report.entity';
@@ -31,11 +30,3 @@ export async function reconcileOrphanObjects(deps: AppDeps, opts: { limit?: numb
   }
   return out;
 }
-
-registerStartupTask({
-  name: 'orphan objects',
-  async run(deps) {
-    const r = await reconcileOrphanObjects(deps);
-    if (r.removed || r.kept || r.failed) return `removed ${r.removed}, kept ${r.kept} (still referenced), ${r.failed} left for the next start`;
-  },
-});

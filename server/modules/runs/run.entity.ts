@@ -1,6 +1,5 @@
 import { EntitySchema } from '@mikro-orm/core';
-import { randomUUID } from 'node:crypto';
-import { Shop } from '../shops/shop.entity';
+import { ShopOwnedEntity, ShopOwnedSchema } from '../../db/base-entity';
 import { Bike } from '../bikes/bike.entity';
 import { DynoSession } from '../sessions/dyno-session.entity';
 import { Stage } from '../stages/stage.entity';
@@ -20,9 +19,7 @@ export interface StoredCurve {
  * One pull: the raw file as uploaded (kept in object storage, byte for byte) and what the
  * analysis engine made of it. Summary columns are copied out of the curve for sorting and search.
  */
-export class Run {
-  id: string = randomUUID();
-  shop!: Shop;
+export class Run extends ShopOwnedEntity {
   bike!: Bike;
   session: DynoSession | null = null;
   stage: Stage | null = null;
@@ -55,23 +52,20 @@ export class Run {
   tags: string[] = [];
   note: string | null = null;
   uploadedBy: User | null = null;
-  createdAt: Date = new Date();
   updatedAt: Date = new Date();
   deletedAt: Date | null = null;
 }
 
 /** A column mapping the shop saved for a file layout, reused when the same header appears again. */
-export class ColumnLayout {
-  id: string = randomUUID();
-  shop!: Shop;
+export class ColumnLayout extends ShopOwnedEntity {
   name!: string;
   headerSignature!: string;
   mapping!: Record<string, unknown>;
-  createdAt: Date = new Date();
 }
 
-export const RunSchema = new EntitySchema<Run>({
+export const RunSchema = new EntitySchema<Run, ShopOwnedEntity>({
   class: Run,
+  extends: ShopOwnedSchema,
   tableName: 'run',
   indexes: [
     { properties: ['shop', 'bike', 'createdAt'] },
@@ -81,8 +75,6 @@ export const RunSchema = new EntitySchema<Run>({
   ],
   uniques: [{ properties: ['bike', 'rawSha256'] }],
   properties: {
-    id: { type: 'uuid', primary: true },
-    shop: { kind: 'm:1', entity: () => Shop, deleteRule: 'cascade' },
     bike: { kind: 'm:1', entity: () => Bike, deleteRule: 'cascade' },
     session: { kind: 'm:1', entity: () => DynoSession, nullable: true, deleteRule: 'set null' },
     stage: { kind: 'm:1', entity: () => Stage, nullable: true, deleteRule: 'set null' },
@@ -115,22 +107,19 @@ export const RunSchema = new EntitySchema<Run>({
     tags: { type: 'text[]' , default: '{}' },
     note: { type: 'text', nullable: true },
     uploadedBy: { kind: 'm:1', entity: () => User, nullable: true, deleteRule: 'set null' },
-    createdAt: { type: 'datetime', columnType: 'timestamptz' },
     updatedAt: { type: 'datetime', columnType: 'timestamptz', onUpdate: () => new Date() },
     deletedAt: { type: 'datetime', columnType: 'timestamptz', nullable: true },
   },
 });
 
-export const ColumnLayoutSchema = new EntitySchema<ColumnLayout>({
+export const ColumnLayoutSchema = new EntitySchema<ColumnLayout, ShopOwnedEntity>({
   class: ColumnLayout,
+  extends: ShopOwnedSchema,
   tableName: 'column_layout',
   uniques: [{ properties: ['shop', 'headerSignature'] }],
   properties: {
-    id: { type: 'uuid', primary: true },
-    shop: { kind: 'm:1', entity: () => Shop, deleteRule: 'cascade' },
     name: { type: 'string', length: 120 },
     headerSignature: { type: 'string', length: 500 },
     mapping: { type: 'json' },
-    createdAt: { type: 'datetime', columnType: 'timestamptz' },
   },
 });

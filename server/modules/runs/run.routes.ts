@@ -25,7 +25,6 @@ import { reprocessRunById } from './reprocess-run';
 import { runPreview } from './run-preview';
 import { contentDisposition, rawFile } from './raw-file';
 import { deleteLayout, listLayouts } from './column-layouts';
-import './orphan-reconcile';
 
 const blankToUndefined = (v: unknown) => (v === '' || v === null ? undefined : v);
 /** Text fields of the multipart upload. */

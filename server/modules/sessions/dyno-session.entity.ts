@@ -1,14 +1,11 @@
 import { EntitySchema } from '@mikro-orm/core';
-import { randomUUID } from 'node:crypto';
-import { Shop } from '../shops/shop.entity';
+import { ShopOwnedEntity, ShopOwnedSchema } from '../../db/base-entity';
 import { Bike } from '../bikes/bike.entity';
 import { Dyno } from '../dynos/dyno.entity';
 import { User } from '../users/user.entity';
 
 /** One visit of a bike on the dyno, with the ambient conditions of that day. */
-export class DynoSession {
-  id: string = randomUUID();
-  shop!: Shop;
+export class DynoSession extends ShopOwnedEntity {
   bike!: Bike;
   startedAt: Date = new Date();
   dyno: Dyno | null = null;
@@ -20,16 +17,14 @@ export class DynoSession {
   notes: string | null = null;
   safetyConfirmedBy: User | null = null;
   safetyConfirmedAt: Date | null = null;
-  createdAt: Date = new Date();
 }
 
-export const DynoSessionSchema = new EntitySchema<DynoSession>({
+export const DynoSessionSchema = new EntitySchema<DynoSession, ShopOwnedEntity>({
   class: DynoSession,
+  extends: ShopOwnedSchema,
   tableName: 'dyno_session',
   indexes: [{ properties: ['shop', 'bike', 'startedAt'] }],
   properties: {
-    id: { type: 'uuid', primary: true },
-    shop: { kind: 'm:1', entity: () => Shop, deleteRule: 'cascade' },
     bike: { kind: 'm:1', entity: () => Bike, deleteRule: 'cascade' },
     startedAt: { type: 'datetime', columnType: 'timestamptz' },
     dyno: { kind: 'm:1', entity: () => Dyno, nullable: true, deleteRule: 'set null' },
@@ -41,6 +36,5 @@ export const DynoSessionSchema = new EntitySchema<DynoSession>({
     notes: { type: 'text', nullable: true },
     safetyConfirmedBy: { kind: 'm:1', entity: () => User, nullable: true, deleteRule: 'set null' },
     safetyConfirmedAt: { type: 'datetime', columnType: 'timestamptz', nullable: true },
-    createdAt: { type: 'datetime', columnType: 'timestamptz' },
   },
 });

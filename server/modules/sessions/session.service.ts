@@ -1,9 +1,10 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
-import type { FilterQuery } from '@mikro-orm/core';
 import type { z } from 'zod';
 import type { Actor } from '../../http/actor';
 import { notFound } from '../../lib/errors';
-import type { CorrectionId, RunSummaryDto, SessionDto, safetyCheckInput, sessionInput, sessionUpdateInput } from '@shared/schemas/run';
+import { tenantScope } from '../../http/tenant-scope';
+import type { Page } from '@shared/schemas/common';
+import type { CorrectionId, SessionDetailDto, SessionDto, safetyCheckInput, sessionInput, sessionUpdateInput } from '@shared/schemas/run';
 import { DynoSession } from './dyno-session.entity';
 import { Dyno } from '../dynos/dyno.entity';
 import { Shop } from '../shops/shop.entity';
@@ -16,12 +17,6 @@ import { RUN_POPULATE, toRunSummaries } from '../runs/run.service';
 type SessionInput = z.output<typeof sessionInput>;
 type SessionUpdateInput = z.output<typeof sessionUpdateInput>;
 type SafetyCheckInput = z.output<typeof safetyCheckInput>;
-
-const NO_CUSTOMER = '00000000-0000-0000-0000-000000000000';
-
-function sessionScope(actor: Actor): FilterQuery<DynoSession> {
-  return actor.role === 'customer' ? { shop: actor.shopId, bike: { customer: actor.customerId ?? NO_CUSTOMER } } : { shop: actor.shopId };
-}
 
 export function toSessionDto(s: DynoSession, runCount: number): SessionDto {
   return {
@@ -53,73 +48,82 @@ async function runCounts(em: EntityManager, ids: string[]): Promise<Map<string, 
 
 const POPULATE = ['dyno', 'operator', 'safetyConfirmedBy'] as const;
 
-export async function listSessions(em: EntityManager, actor: Actor, query: { bikeId?: string }): Promise<SessionDto[]> {
-  const where = { ...(sessionScope(actor) as object), ...(query.bikeId ? { bike: query.bikeId } : {}) } as FilterQuery<DynoSession>;
+/** At most this many sessions per answer, newest first. */
+const SESSION_PAGE = 500;
+
+export async function listSessions(em: EntityManager, actor: Actor, query: { bikeId?: string }): Promise<Page<SessionDto>> {
+  const where = tenantScope<DynoSession>(actor, 'bike.customer', query.bikeId ? { bike: { id: query.bikeId } } : {});
   if (query.bikeId && actor.role === 'customer') await getBikeEntity(em, actor, query.bikeId);
-  const rows = await em.find(DynoSession, where, { populate: POPULATE as never, orderBy: { startedAt: 'desc', id: 'asc' }, limit: 500 });
+  const [rows, total] = await em.findAndCount(DynoSession, where, { populate: POPULATE as never, orderBy: { startedAt: 'desc', id: 'asc' }, limit: SESSION_PAGE });
   const counts = await runCounts(em, rows.map((r) => r.id));
-  return rows.map((s) => toSessionDto(s, counts.get(s.id) ?? 0));
+  return { items: rows.map((s) => toSessionDto(s, counts.get(s.id) ?? 0)), total, page: 1, pageSize: SESSION_PAGE, nextCursor: null };
 }
 
 export async function getSessionEntity(em: EntityManager, actor: Actor, id: string): Promise<DynoSession> {
-  const s = await em.findOne(DynoSession, { ...(sessionScope(actor) as object), id } as FilterQuery<DynoSession>, { populate: POPULATE as never });
+  const s = await em.findOne(DynoSession, tenantScope<DynoSession>(actor, 'bike.customer', { id }), { populate: POPULATE as never });
   if (!s) throw notFound('Session');
   return s;
 }
 
-export async function sessionWithRuns(em: EntityManager, actor: Actor, id: string): Promise<SessionDto & { runs: RunSummaryDto[] }> {
+export async function sessionWithRuns(em: EntityManager, actor: Actor, id: string): Promise<SessionDetailDto> {
   const s = await getSessionEntity(em, actor, id);
-  const runs = await em.find(Run, { session: s.id, shop: actor.shopId, deletedAt: null }, { populate: RUN_POPULATE as never, orderBy: { sequence: 'asc', createdAt: 'asc' } });
+  const runs = await em.find(Run, tenantScope<Run>(actor, undefined, { session: s.id, deletedAt: null }), { populate: RUN_POPULATE as never, orderBy: { sequence: 'asc', createdAt: 'asc' } });
   return { ...toSessionDto(s, runs.length), runs: await toRunSummaries(em, runs) };
 }
 
 async function dynoOfShop(em: EntityManager, actor: Actor, dynoId: string | null | undefined): Promise<Dyno | null> {
   if (!dynoId) return null;
-  const dyno = await em.findOne(Dyno, { id: dynoId, shop: actor.shopId });
+  const dyno = await em.findOne(Dyno, tenantScope<Dyno>(actor, undefined, { id: dynoId }));
   if (!dyno) throw notFound('Dyno');
   return dyno;
 }
 
 export async function createSession(em: EntityManager, actor: Actor, input: SessionInput): Promise<SessionDto> {
-  const bike = await getBikeEntity(em, actor, input.bikeId);
-  const s = em.create(DynoSession, {
-    shop: em.getReference(Shop, actor.shopId),
-    bike,
-    startedAt: input.startedAt ?? new Date(),
-    dyno: await dynoOfShop(em, actor, input.dynoId),
-    operator: em.getReference(User, actor.id),
-    ambientTempC: input.ambientTempC,
-    baroKpa: input.baroKpa,
-    humidityPct: input.humidityPct,
-    correctionStandard: input.correctionStandard,
-    notes: input.notes,
-  } as DynoSession);
-  await em.flush();
+  const s = await em.transactional(async (tx) => {
+    const bike = await getBikeEntity(tx, actor, input.bikeId);
+    const created = tx.create(DynoSession, {
+      shop: tx.getReference(Shop, actor.shopId),
+      bike,
+      startedAt: input.startedAt ?? new Date(),
+      dyno: await dynoOfShop(tx, actor, input.dynoId),
+      operator: tx.getReference(User, actor.id),
+      ambientTempC: input.ambientTempC,
+      baroKpa: input.baroKpa,
+      humidityPct: input.humidityPct,
+      correctionStandard: input.correctionStandard,
+      notes: input.notes,
+    } as DynoSession);
+    await recordAudit(tx, actor, 'session.create', 'session', created.id, { bikeId: bike.id });
+    return created;
+  });
   await em.populate(s, POPULATE as never);
-  await recordAudit(em, actor, 'session.create', 'session', s.id, { bikeId: bike.id });
   return toSessionDto(s, 0);
 }
 
 export async function updateSession(em: EntityManager, actor: Actor, id: string, input: SessionUpdateInput): Promise<SessionDto> {
-  const s = await getSessionEntity(em, actor, id);
-  const { dynoId, ...rest } = input;
-  if (dynoId !== undefined) s.dyno = await dynoOfShop(em, actor, dynoId);
-  for (const [k, v] of Object.entries(rest)) if (v !== undefined) (s as unknown as Record<string, unknown>)[k] = v;
-  await em.flush();
+  const s = await em.transactional(async (tx) => {
+    const found = await getSessionEntity(tx, actor, id);
+    const { dynoId, ...rest } = input;
+    if (dynoId !== undefined) found.dyno = await dynoOfShop(tx, actor, dynoId);
+    for (const [k, v] of Object.entries(rest)) if (v !== undefined) (found as unknown as Record<string, unknown>)[k] = v;
+    await recordAudit(tx, actor, 'session.update', 'session', found.id, { ...input, startedAt: input.startedAt?.toISOString() });
+    return found;
+  });
   await em.populate(s, POPULATE as never);
-  await recordAudit(em, actor, 'session.update', 'session', s.id, { ...input, startedAt: input.startedAt?.toISOString() });
   const counts = await runCounts(em, [s.id]);
   return toSessionDto(s, counts.get(s.id) ?? 0);
 }
 
 /** Record that the dyno-bay checks were confirmed: who and when. */
 export async function confirmSafety(em: EntityManager, actor: Actor, id: string, input: SafetyCheckInput): Promise<SessionDto> {
-  const s = await getSessionEntity(em, actor, id);
-  s.safetyConfirmedAt = new Date();
-  s.safetyConfirmedBy = em.getReference(User, actor.id);
-  await em.flush();
+  const s = await em.transactional(async (tx) => {
+    const found = await getSessionEntity(tx, actor, id);
+    found.safetyConfirmedAt = new Date();
+    found.safetyConfirmedBy = tx.getReference(User, actor.id);
+    await recordAudit(tx, actor, 'session.safety-check', 'session', found.id, { checks: input.checks });
+    return found;
+  });
   await em.populate(s, POPULATE as never, { refresh: true });
-  await recordAudit(em, actor, 'session.safety-check', 'session', s.id, { checks: input.checks });
   const counts = await runCounts(em, [s.id]);
   return toSessionDto(s, counts.get(s.id) ?? 0);
 }

@@ -26,10 +26,12 @@ export function shopRoutes(deps: AppDeps) {
     summary: 'Edit shop settings',
     body: shopSettingsInput,
     handler: async ({ em, actor, body }) => {
-      const shop = await em.findOneOrFail(Shop, actor.shopId);
-      em.assign(shop, body);
-      await em.flush();
-      await recordAudit(em, actor, 'shop.update', 'shop', shop.id, body);
+      const shop = await em.transactional(async (tx) => {
+        const found = await tx.findOneOrFail(Shop, actor.shopId);
+        tx.assign(found, body);
+        await recordAudit(tx, actor, 'shop.update', 'shop', found.id, body);
+        return found;
+      });
       return toDto(shop);
     },
   });

@@ -1,7 +1,6 @@
 import { EntitySchema } from '@mikro-orm/core';
-import { randomUUID } from 'node:crypto';
+import { ShopOwnedEntity, ShopOwnedSchema } from '../../db/base-entity';
 import type { HeadWorkLevel, PartCategory } from '@shared/parts';
-import { Shop } from '../shops/shop.entity';
 import { Bike } from '../bikes/bike.entity';
 import { Run } from '../runs/run.entity';
 
@@ -10,9 +9,7 @@ import { Run } from '../runs/run.entity';
  * columns are derived from the reference runs (this stage against the bike's baseline stage) and
  * kept up to date by the stage service so the build finder can search them without recomputing.
  */
-export class Stage {
-  id: string = randomUUID();
-  shop!: Shop;
+export class Stage extends ShopOwnedEntity {
   bike!: Bike;
   position = 0;
   name!: string;
@@ -24,13 +21,10 @@ export class Stage {
   gainAreaPct: number | null = null;
   gainAveragePowerHp: number | null = null;
   totalCostCents = 0;
-  createdAt: Date = new Date();
 }
 
 /** A part or job fitted at a stage, with what it cost. */
-export class Part {
-  id: string = randomUUID();
-  shop!: Shop;
+export class Part extends ShopOwnedEntity {
   stage!: Stage;
   category!: PartCategory;
   description!: string;
@@ -38,16 +32,14 @@ export class Part {
   labourCostCents = 0;
   /** Only for category `cylinder-heads`. */
   headWorkLevel: HeadWorkLevel | null = null;
-  createdAt: Date = new Date();
 }
 
-export const StageSchema = new EntitySchema<Stage>({
+export const StageSchema = new EntitySchema<Stage, ShopOwnedEntity>({
   class: Stage,
+  extends: ShopOwnedSchema,
   tableName: 'stage',
   indexes: [{ properties: ['shop', 'bike', 'position'] }],
   properties: {
-    id: { type: 'uuid', primary: true },
-    shop: { kind: 'm:1', entity: () => Shop, deleteRule: 'cascade' },
     bike: { kind: 'm:1', entity: () => Bike, deleteRule: 'cascade' },
     position: { type: 'integer' },
     name: { type: 'string', length: 120 },
@@ -59,23 +51,20 @@ export const StageSchema = new EntitySchema<Stage>({
     gainAreaPct: { type: 'double', nullable: true },
     gainAveragePowerHp: { type: 'double', nullable: true },
     totalCostCents: { type: 'integer', default: 0 },
-    createdAt: { type: 'datetime', columnType: 'timestamptz' },
   },
 });
 
-export const PartSchema = new EntitySchema<Part>({
+export const PartSchema = new EntitySchema<Part, ShopOwnedEntity>({
   class: Part,
+  extends: ShopOwnedSchema,
   tableName: 'part',
   indexes: [{ properties: ['shop', 'category', 'headWorkLevel'] }],
   properties: {
-    id: { type: 'uuid', primary: true },
-    shop: { kind: 'm:1', entity: () => Shop, deleteRule: 'cascade' },
     stage: { kind: 'm:1', entity: () => Stage, deleteRule: 'cascade' },
     category: { type: 'string', length: 32 },
     description: { type: 'text' },
     partCostCents: { type: 'integer', default: 0 },
     labourCostCents: { type: 'integer', default: 0 },
     headWorkLevel: { type: 'string', length: 32, nullable: true },
-    createdAt: { type: 'datetime', columnType: 'timestamptz' },
   },
 });

@@ -2,6 +2,8 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import type { z } from 'zod';
 import type { Actor } from '../../http/actor';
 import { AppError, notFound } from '../../lib/errors';
+import { tenantScope } from '../../http/tenant-scope';
+import { wholePage, type Page } from '@shared/schemas/common';
 import type { PartDto, StageDto, partInput, stageInput, stageUpdateInput } from '@shared/schemas/run';
 import { Part, Stage } from './stage.entity';
 import { Shop } from '../shops/shop.entity';
@@ -43,10 +45,10 @@ function partFields(input: PartInput, index = 0) {
 }
 
 /** A bike's stages in build order, with parts, costs, reference runs and run counts. */
-export async function listStages(em: EntityManager, actor: Actor, bikeId: string): Promise<StageDto[]> {
+export async function listStages(em: EntityManager, actor: Actor, bikeId: string): Promise<Page<StageDto>> {
   await getBikeEntity(em, actor, bikeId); // 404 for another shop's or another customer's bike
-  const stages = await em.find(Stage, { shop: actor.shopId, bike: bikeId }, { orderBy: { position: 'asc', createdAt: 'asc' } });
-  return toStageDtos(em, stages);
+  const stages = await em.find(Stage, tenantScope<Stage>(actor, undefined, { bike: bikeId }), { orderBy: { position: 'asc', createdAt: 'asc' } });
+  return wholePage(await toStageDtos(em, stages));
 }
 
 export async function toStageDtos(em: EntityManager, stages: Stage[]): Promise<StageDto[]> {
@@ -82,8 +84,7 @@ async function stageDto(em: EntityManager, stage: Stage): Promise<StageDto> {
 
 /** A stage of the actor's shop (customers: of their own bikes), or 404. */
 export async function getStageEntity(em: EntityManager, actor: Actor, id: string): Promise<Stage> {
-  const where = actor.role === 'customer' ? { id, shop: actor.shopId, bike: { customer: actor.customerId ?? '00000000-0000-0000-0000-000000000000' } } : { id, shop: actor.shopId };
-  const stage = await em.findOne(Stage, where);
+  const stage = await em.findOne(Stage, tenantScope<Stage>(actor, 'bike.customer', { id }));
   if (!stage) throw notFound('Stage');
   return stage;
 }
@@ -93,110 +94,132 @@ export async function getStage(em: EntityManager, actor: Actor, id: string): Pro
 }
 
 export async function createStage(em: EntityManager, actor: Actor, input: StageInput): Promise<StageDto> {
-  const bike = await getBikeEntity(em, actor, input.bikeId);
-  const last = await em.findOne(Stage, { bike: bike.id }, { orderBy: { position: 'desc' } });
-  const shop = em.getReference(Shop, actor.shopId);
-  const stage = em.create(Stage, { shop, bike, position: last ? last.position + 1 : 0, name: input.name, date: input.date ?? null, description: input.description } as Stage);
-  input.parts.forEach((p, i) => em.create(Part, { shop, stage, ...partFields(p, i) } as Part));
-  await em.flush();
-  await refreshBikeOutcomes(em, bike.id);
-  await recordAudit(em, actor, 'stage.create', 'stage', stage.id, { bikeId: bike.id, name: stage.name, parts: input.parts.length });
+  const stage = await em.transactional(async (tx) => {
+    const bike = await getBikeEntity(tx, actor, input.bikeId);
+    const last = await tx.findOne(Stage, { bike: bike.id }, { orderBy: { position: 'desc' } });
+    const shop = tx.getReference(Shop, actor.shopId);
+    const created = tx.create(Stage, { shop, bike, position: last ? last.position + 1 : 0, name: input.name, date: input.date ?? null, description: input.description } as Stage);
+    input.parts.forEach((p, i) => tx.create(Part, { shop, stage: created, ...partFields(p, i) } as Part));
+    await tx.flush();
+    await refreshBikeOutcomes(tx, bike.id);
+    await recordAudit(tx, actor, 'stage.create', 'stage', created.id, { bikeId: bike.id, name: created.name, parts: input.parts.length });
+    return created;
+  });
   return stageDto(em, stage);
 }
 
 export async function updateStage(em: EntityManager, actor: Actor, id: string, input: StageUpdateInput): Promise<StageDto> {
-  const stage = await getStageEntity(em, actor, id);
-  if (input.name !== undefined) stage.name = input.name;
-  if (input.date !== undefined) stage.date = input.date ?? null;
-  if (input.description !== undefined) stage.description = input.description;
-  if (input.parts !== undefined) {
-    // The list given replaces the stage's parts.
-    await em.nativeDelete(Part, { stage: stage.id });
-    input.parts.forEach((p, i) => em.create(Part, { shop: em.getReference(Shop, actor.shopId), stage, ...partFields(p, i) } as Part));
-  }
-  await em.flush();
-  await refreshBikeOutcomes(em, stage.bike.id);
-  await recordAudit(em, actor, 'stage.update', 'stage', stage.id, { name: input.name, date: input.date, parts: input.parts?.length });
+  const stage = await em.transactional(async (tx) => {
+    const found = await getStageEntity(tx, actor, id);
+    if (input.name !== undefined) found.name = input.name;
+    if (input.date !== undefined) found.date = input.date ?? null;
+    if (input.description !== undefined) found.description = input.description;
+    if (input.parts !== undefined) {
+      // The list given replaces the stage's parts.
+      await tx.nativeDelete(Part, { stage: found.id });
+      input.parts.forEach((p, i) => tx.create(Part, { shop: tx.getReference(Shop, actor.shopId), stage: found, ...partFields(p, i) } as Part));
+    }
+    await tx.flush();
+    await refreshBikeOutcomes(tx, found.bike.id);
+    await recordAudit(tx, actor, 'stage.update', 'stage', found.id, { name: input.name, date: input.date, parts: input.parts?.length });
+    return found;
+  });
   return stageDto(em, stage);
 }
 
 /** Removes a stage and its parts; its runs stay in the archive with no stage. */
 export async function deleteStage(em: EntityManager, actor: Actor, id: string): Promise<void> {
-  const stage = await getStageEntity(em, actor, id);
-  const bikeId = stage.bike.id;
-  const detached = await em.nativeUpdate(Run, { stage: stage.id }, { stage: null });
-  await em.nativeDelete(Part, { stage: stage.id });
-  await em.removeAndFlush(stage);
-  em.clear();
-  await refreshBikeOutcomes(em, bikeId);
-  await recordAudit(em, actor, 'stage.delete', 'stage', id, { bikeId, name: stage.name, runsDetached: detached });
+  await em.transactional(async (tx) => {
+    const stage = await getStageEntity(tx, actor, id);
+    const bikeId = stage.bike.id;
+    const detached = await tx.nativeUpdate(Run, { stage: stage.id }, { stage: null });
+    await tx.nativeDelete(Part, { stage: stage.id });
+    await tx.remove(stage).flush();
+    tx.clear();
+    await refreshBikeOutcomes(tx, bikeId);
+    await recordAudit(tx, actor, 'stage.delete', 'stage', id, { bikeId, name: stage.name, runsDetached: detached });
+  });
 }
 
 /** Puts a bike's stages in the given order; the list must be exactly the bike's stages. */
-export async function reorderStages(em: EntityManager, actor: Actor, input: { bikeId: string; stageIds: string[] }): Promise<StageDto[]> {
-  await getBikeEntity(em, actor, input.bikeId);
-  const stages = await em.find(Stage, { shop: actor.shopId, bike: input.bikeId });
-  const byId = new Map(stages.map((s) => [s.id, s]));
-  const unique = new Set(input.stageIds);
-  if (unique.size !== input.stageIds.length || unique.size !== stages.length || input.stageIds.some((id) => !byId.has(id))) {
-    throw new AppError('STAGE_ORDER_INVALID', 'List every stage of this bike exactly once', 400);
-  }
-  input.stageIds.forEach((id, i) => (byId.get(id)!.position = i));
-  await em.flush();
-  await refreshBikeOutcomes(em, input.bikeId);
-  await recordAudit(em, actor, 'stage.reorder', 'bike', input.bikeId, { stageIds: input.stageIds });
+export async function reorderStages(em: EntityManager, actor: Actor, input: { bikeId: string; stageIds: string[] }): Promise<Page<StageDto>> {
+  await em.transactional(async (tx) => {
+    await getBikeEntity(tx, actor, input.bikeId);
+    const stages = await tx.find(Stage, tenantScope<Stage>(actor, undefined, { bike: input.bikeId }));
+    const byId = new Map(stages.map((s) => [s.id, s]));
+    const unique = new Set(input.stageIds);
+    if (unique.size !== input.stageIds.length || unique.size !== stages.length || input.stageIds.some((id) => !byId.has(id))) {
+      throw new AppError('STAGE_ORDER_INVALID', 'List every stage of this bike exactly once', 400);
+    }
+    input.stageIds.forEach((id, i) => (byId.get(id)!.position = i));
+    await tx.flush();
+    await refreshBikeOutcomes(tx, input.bikeId);
+    await recordAudit(tx, actor, 'stage.reorder', 'bike', input.bikeId, { stageIds: input.stageIds });
+  });
   return listStages(em, actor, input.bikeId);
 }
 
 /** Choose (or clear) the run that represents a stage; the run is tagged with the stage. */
 export async function setReferenceRun(em: EntityManager, actor: Actor, id: string, runId: string | null): Promise<StageDto> {
-  const stage = await getStageEntity(em, actor, id);
-  if (runId) {
-    const run = await em.findOne(Run, { id: runId, shop: actor.shopId, bike: stage.bike.id, deletedAt: null });
-    if (!run) throw notFound('Run');
-    if (run.status !== 'ready') throw new AppError('RUN_NOT_READY', 'Only a run with a usable curve can represent a stage; map or re-process it first', 409);
-    // A run represents one stage at most.
-    const others = await em.find(Stage, { referenceRun: run.id, id: { $ne: stage.id } });
-    for (const o of others) o.referenceRun = null;
-    stage.referenceRun = run;
-    run.stage = stage;
-  } else stage.referenceRun = null;
-  await em.flush();
-  await refreshBikeOutcomes(em, stage.bike.id);
-  await recordAudit(em, actor, 'stage.reference-run', 'stage', stage.id, { runId });
+  const stage = await em.transactional(async (tx) => {
+    const found = await getStageEntity(tx, actor, id);
+    if (runId) {
+      const run = await tx.findOne(Run, tenantScope<Run>(actor, undefined, { id: runId, bike: found.bike.id, deletedAt: null }));
+      if (!run) throw notFound('Run');
+      if (run.status !== 'ready') throw new AppError('RUN_NOT_READY', 'Only a run with a usable curve can represent a stage; map or re-process it first', 409);
+      // A run represents one stage at most.
+      const others = await tx.find(Stage, { referenceRun: run.id, id: { $ne: found.id } });
+      for (const o of others) o.referenceRun = null;
+      found.referenceRun = run;
+      run.stage = found;
+    } else found.referenceRun = null;
+    await tx.flush();
+    await refreshBikeOutcomes(tx, found.bike.id);
+    await recordAudit(tx, actor, 'stage.reference-run', 'stage', found.id, { runId });
+    return found;
+  });
   return stageDto(em, stage);
 }
 
 export async function addPart(em: EntityManager, actor: Actor, stageId: string, input: PartInput): Promise<StageDto> {
-  const stage = await getStageEntity(em, actor, stageId);
-  const part = em.create(Part, { shop: em.getReference(Shop, actor.shopId), stage, ...partFields(input) } as Part);
-  await em.flush();
-  await refreshBikeOutcomes(em, stage.bike.id);
-  await recordAudit(em, actor, 'part.create', 'part', part.id, { stageId, category: part.category, partCostCents: part.partCostCents, labourCostCents: part.labourCostCents });
+  const stage = await em.transactional(async (tx) => {
+    const found = await getStageEntity(tx, actor, stageId);
+    const part = tx.create(Part, { shop: tx.getReference(Shop, actor.shopId), stage: found, ...partFields(input) } as Part);
+    await tx.flush();
+    await refreshBikeOutcomes(tx, found.bike.id);
+    await recordAudit(tx, actor, 'part.create', 'part', part.id, { stageId, category: part.category, partCostCents: part.partCostCents, labourCostCents: part.labourCostCents });
+    return found;
+  });
   return stageDto(em, stage);
 }
 
 async function partOf(em: EntityManager, actor: Actor, stageId: string, partId: string) {
   const stage = await getStageEntity(em, actor, stageId);
-  const part = await em.findOne(Part, { id: partId, stage: stage.id, shop: actor.shopId });
+  const part = await em.findOne(Part, tenantScope<Part>(actor, undefined, { id: partId, stage: stage.id }));
   if (!part) throw notFound('Part');
   return { stage, part };
 }
 
 export async function updatePart(em: EntityManager, actor: Actor, stageId: string, partId: string, input: PartInput): Promise<StageDto> {
-  const { stage, part } = await partOf(em, actor, stageId, partId);
-  const { createdAt: _keepOrder, ...fields } = partFields(input);
-  em.assign(part, fields);
-  await em.flush();
-  await refreshBikeOutcomes(em, stage.bike.id);
-  await recordAudit(em, actor, 'part.update', 'part', part.id, { stageId, ...fields });
+  const stage = await em.transactional(async (tx) => {
+    const { stage: found, part } = await partOf(tx, actor, stageId, partId);
+    const { createdAt: _keepOrder, ...fields } = partFields(input);
+    tx.assign(part, fields);
+    await tx.flush();
+    await refreshBikeOutcomes(tx, found.bike.id);
+    await recordAudit(tx, actor, 'part.update', 'part', part.id, { stageId, ...fields });
+    return found;
+  });
   return stageDto(em, stage);
 }
 
 export async function deletePart(em: EntityManager, actor: Actor, stageId: string, partId: string): Promise<StageDto> {
-  const { stage, part } = await partOf(em, actor, stageId, partId);
-  await em.removeAndFlush(part);
-  await refreshBikeOutcomes(em, stage.bike.id);
-  await recordAudit(em, actor, 'part.delete', 'part', partId, { stageId, description: part.description });
+  const stage = await em.transactional(async (tx) => {
+    const { stage: found, part } = await partOf(tx, actor, stageId, partId);
+    await tx.remove(part).flush();
+    await refreshBikeOutcomes(tx, found.bike.id);
+    await recordAudit(tx, actor, 'part.delete', 'part', partId, { stageId, description: part.description });
+    return found;
+  });
   return stageDto(em, stage);
 }

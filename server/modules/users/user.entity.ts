@@ -1,13 +1,11 @@
 import { EntitySchema } from '@mikro-orm/core';
+import { ShopOwnedEntity, ShopOwnedSchema } from '../../db/base-entity';
 import { randomUUID } from 'node:crypto';
 import type { Role } from '@shared/roles';
-import { Shop } from '../shops/shop.entity';
 import { Customer } from '../customers/customer.entity';
 
 /** Someone who signs in: shop staff, or a customer linked to their customer record. */
-export class User {
-  id: string = randomUUID();
-  shop!: Shop;
+export class User extends ShopOwnedEntity {
   email!: string;
   name!: string;
   /** Null until an invited user sets a password. */
@@ -17,7 +15,6 @@ export class User {
   /** Set for role `customer`: whose bikes this user may see. */
   customer: Customer | null = null;
   lastLoginAt: Date | null = null;
-  createdAt: Date = new Date();
 }
 
 export type AuthTokenPurpose = 'invite' | 'reset';
@@ -33,13 +30,12 @@ export class AuthToken {
   createdAt: Date = new Date();
 }
 
-export const UserSchema = new EntitySchema<User>({
+export const UserSchema = new EntitySchema<User, ShopOwnedEntity>({
   class: User,
+  extends: ShopOwnedSchema,
   tableName: 'app_user',
   indexes: [{ properties: ['shop', 'role'] }],
   properties: {
-    id: { type: 'uuid', primary: true },
-    shop: { kind: 'm:1', entity: () => Shop, deleteRule: 'cascade' },
     email: { type: 'string', length: 320, unique: true },
     name: { type: 'string', length: 200 },
     passwordHash: { type: 'string', length: 100, nullable: true, hidden: true },
@@ -47,7 +43,6 @@ export const UserSchema = new EntitySchema<User>({
     disabled: { type: 'boolean', default: false },
     customer: { kind: 'm:1', entity: () => Customer, nullable: true, deleteRule: 'set null' },
     lastLoginAt: { type: 'datetime', columnType: 'timestamptz', nullable: true },
-    createdAt: { type: 'datetime', columnType: 'timestamptz' },
   },
 });
 

@@ -1,6 +1,6 @@
 import { ApiRouter } from '../../http/api-router';
 import type { AppDeps } from '../../app-deps';
-import { idParams } from '@shared/schemas/common';
+import { idParams, type OkDto } from '@shared/schemas/common';
 import { inviteUserInput, updateUserInput } from '@shared/schemas/auth';
 import { inviteUser, listUsers, resendInvite, updateUser } from './user.service';
 
@@ -33,7 +33,7 @@ export function userRoutes(deps: AppDeps) {
     access: ['owner'],
     summary: 'Send a fresh invitation link',
     params: idParams,
-    handler: async ({ em, actor, params }) => {
+    handler: async ({ em, actor, params }): Promise<OkDto> => {
       await resendInvite(em, mailer, config.PUBLIC_URL, actor, params.id);
       return { ok: true };
     },

@@ -70,3 +70,21 @@ export interface AuditEntryDto {
   entityId: string;
   details: Record<string, unknown> | null;
 }
+
+/** POST /api/auth/login and /api/auth/set-password: the user now signed in. */
+export interface SignInDto {
+  user: SignedInUser;
+}
+
+/** GET /api/auth/token/:token: whose invitation or reset link this is. */
+export interface TokenInfoDto {
+  purpose: 'invite' | 'reset';
+  email: string;
+  name: string;
+}
+
+/** POST /api/auth/forgot: the same words whether or not the address has an account. */
+export interface ForgotPasswordDto {
+  ok: true;
+  message: string;
+}

@@ -5,7 +5,7 @@
  */
 import { z } from 'zod';
 import { HEAD_WORK_LEVELS, PART_CATEGORIES, type HeadWorkLevel, type PartCategory } from '../parts';
-import { uuid } from './common';
+import { uuid, type Page } from './common';
 
 // ---- request: GET /api/builds/search
 
@@ -170,10 +170,12 @@ export interface BuildItemDto {
   score: number;
 }
 
-export interface BuildSearchPage {
-  items: BuildItemDto[];
-  /** Opaque cursor for the next page, or null at the end. */
-  next: string | null;
+/**
+ * GET /api/builds/search: keyset pages. `nextCursor` is opaque (pass it back as `cursor`), null
+ * at the end; `total` counts every matching build; `page` stays 1 (keyset paging has no page numbers).
+ */
+export interface BuildSearchPage extends Page<BuildItemDto> {
+  nextCursor: string | null;
   sort: 'similarity' | 'gain' | 'date';
 }
 
@@ -186,10 +188,10 @@ export interface SimilarBuildDto extends BuildItemDto {
   reasons: string[];
 }
 
-export interface SimilarBuildsDto {
+/** GET /api/bikes/:id/similar: the best-ranked builds, whole (a top list, not paged further). */
+export interface SimilarBuildsDto extends Page<SimilarBuildDto> {
   bikeId: string;
   weights: { engineFamily: number; displacement: number; partCategories: number; partsText: number };
-  items: SimilarBuildDto[];
 }
 
 export interface Spread {

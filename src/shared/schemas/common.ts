@@ -76,6 +76,18 @@ export function wholePage<T>(items: T[]): Page<T> {
   return { items, total: items.length, page: 1, pageSize: Math.max(items.length, 1), nextCursor: null };
 }
 
+/** GET /api/health: up or down per dependency, nothing more (answered 503 when degraded). */
+export interface HealthDto {
+  status: 'ok' | 'degraded';
+  database: { ok: boolean };
+  storage: { ok: boolean };
+}
+
+/** The answer of an action that has nothing else to say (e.g. resending an invitation). */
+export interface OkDto {
+  ok: true;
+}
+
 export function parseSort(sort: string | undefined, fallback: string): { field: string; dir: 'asc' | 'desc' } {
   const s = sort || fallback;
   return s.startsWith('-') ? { field: s.slice(1), dir: 'desc' } : { field: s, dir: 'asc' };

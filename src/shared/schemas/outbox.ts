@@ -1,3 +1,5 @@
+import type { Page } from './common';
+
 /**
  * Contract of the local outbox (GET /api/outbox): a message the SMTP fake captured, as the
  * server reads it from its .eml file and the owner's outbox screen lists it.
@@ -12,4 +14,15 @@ export interface CapturedMessage {
   subject: string;
   text: string;
   attachments: { filename: string; contentType: string; size: number }[];
+}
+
+/** GET /api/outbox: the shop's captured messages, newest first. */
+export interface OutboxPage extends Page<CapturedMessage> {
+  /** False when mail goes to a real relay: nothing is captured here then. */
+  enabled: boolean;
+}
+
+/** GET /api/outbox/:id: one captured message with its HTML body, if it has one. */
+export interface CapturedMessageDetail extends CapturedMessage {
+  html: string | null;
 }

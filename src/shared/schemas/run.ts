@@ -65,6 +65,10 @@ export interface SessionDto {
   safetyConfirmedByName: string | null;
   runCount: number;
 }
+/** GET /api/sessions/:id: a session with its runs in order. */
+export interface SessionDetailDto extends SessionDto {
+  runs: RunSummaryDto[];
+}
 
 // ---- stages and parts
 export const partInput = z.object({

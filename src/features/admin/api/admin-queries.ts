@@ -1,4 +1,5 @@
 import { infiniteQueryOptions, keepPreviousData, queryOptions } from '@tanstack/react-query';
+import type { Page } from '@shared/schemas/common';
 import { api } from '@/lib/api-client';
 import { auditKeys, outboxKeys, userKeys } from '@/lib/query-keys';
 
@@ -6,13 +7,10 @@ export type { UserDto, AuditEntryDto as AuditEntry } from '@shared/schemas/auth'
 import type { UserDto, AuditEntryDto as AuditEntry } from '@shared/schemas/auth';
 
 export type { CapturedMessage as OutboxItem } from '@shared/schemas/outbox';
-import type { CapturedMessage as OutboxItem } from '@shared/schemas/outbox';
+import type { CapturedMessageDetail, OutboxPage } from '@shared/schemas/outbox';
 
-export interface OutboxList {
-  /** False when mail goes to a real relay: nothing is captured here then. */
-  enabled: boolean;
-  items: OutboxItem[];
-}
+/** The outbox list; `enabled` is false when mail goes to a real relay (nothing is captured then). */
+export type OutboxList = OutboxPage;
 
 export const AUDIT_PAGE = 100;
 
@@ -21,23 +19,24 @@ export const AUDIT_PAGE = 100;
  * that key when it invites a rider); the shop is the one shopQuery() of src/lib/shop-query.ts.
  */
 export const adminQueries = {
-  users: () => queryOptions({ queryKey: userKeys.all(), queryFn: () => api.get<UserDto[]>('/api/users') }),
+  users: () => queryOptions({ queryKey: userKeys.all(), queryFn: async () => (await api.get<Page<UserDto>>('/api/users')).items }),
   /** The audit log, optionally narrowed on the server to some kinds of action ("run", "user"…). */
   audit: (kinds: readonly string[] = []) =>
     infiniteQueryOptions({
       queryKey: auditKeys.list(kinds.join(',')),
-      queryFn: ({ pageParam }) => api.get<AuditEntry[]>('/api/audit', { before: pageParam, limit: AUDIT_PAGE, kinds: kinds.length ? kinds.join(',') : undefined }),
+      queryFn: ({ pageParam }) => api.get<Page<AuditEntry>>('/api/audit', { before: pageParam, limit: AUDIT_PAGE, kinds: kinds.length ? kinds.join(',') : undefined }),
       initialPageParam: undefined as string | undefined,
       // Keep the previous kind's rows on screen while the narrowed log loads.
       placeholderData: keepPreviousData,
-      // The log is newest first; the next page is everything before the oldest entry shown.
-      getNextPageParam: (last) => (last.length < AUDIT_PAGE ? undefined : last[last.length - 1].at),
+      // The log is newest first; the server's cursor is the time of the oldest entry shown.
+      getNextPageParam: (last) => last.nextCursor ?? undefined,
+      select: (data) => ({ ...data, pages: data.pages.map((p) => p.items) }),
     }),
   outbox: () => queryOptions({ queryKey: outboxKeys.list(), queryFn: () => api.get<OutboxList>('/api/outbox') }),
   outboxMessage: (id: string) =>
     queryOptions({
       queryKey: outboxKeys.message(id),
-      queryFn: () => api.get<OutboxItem & { html: string | null }>(`/api/outbox/${encodeURIComponent(id)}`),
+      queryFn: () => api.get<CapturedMessageDetail>(`/api/outbox/${encodeURIComponent(id)}`),
       staleTime: Infinity,
     }),
 };

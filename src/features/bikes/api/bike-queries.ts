@@ -33,7 +33,7 @@ export const bikeQueries = {
   engineFamilies: () =>
     queryOptions({
       queryKey: bikeKeys.engineFamilies(),
-      queryFn: () => api.get<string[]>('/api/bikes/engine-families'),
+      queryFn: async () => (await api.get<Page<string>>('/api/bikes/engine-families')).items,
       staleTime: 5 * 60_000,
     }),
   /** Customers to choose the bike's owner from, searched on the server. */

@@ -1,5 +1,6 @@
 import { queryOptions } from '@tanstack/react-query';
 import type { DynoDto } from '@shared/schemas/run';
+import type { Page } from '@shared/schemas/common';
 import { api } from '@/lib/api-client';
 import { dynoKeys } from '@/lib/query-keys';
 
@@ -8,10 +9,7 @@ export const dynoQueries = {
   list: () =>
     queryOptions({
       queryKey: dynoKeys.list(),
-      queryFn: async () => {
-        const r = await api.get<DynoDto[] | { items: DynoDto[] }>('/api/dynos');
-        return Array.isArray(r) ? r : r.items;
-      },
+      queryFn: async () => (await api.get<Page<DynoDto>>('/api/dynos')).items,
     }),
 };
 

@@ -15,7 +15,7 @@ export const finderQueries = {
       queryKey: buildKeys.search(filters),
       queryFn: ({ pageParam }) => api.get<BuildSearchPage>('/api/builds/search', { ...filters, cursor: pageParam ?? undefined }),
       initialPageParam: null as string | null,
-      getNextPageParam: (last) => last.next,
+      getNextPageParam: (last) => last.nextCursor,
     }),
   similar: (bikeId: string) =>
     queryOptions({
