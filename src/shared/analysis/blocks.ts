@@ -48,8 +48,8 @@ export class BlockFeeder {
   constructor(
     private readonly options: CsvOptions,
     private readonly sink: RecordSink,
-    /** Resolves a rejected record to an error once its line is known. */
-    private readonly rejected: (line: number) => AnalysisError,
+    /** Resolves a rejected record to an error once its line is known; null ends the table quietly. */
+    private readonly rejected: (line: number) => AnalysisError | null,
     firstLine: number,
     private readonly maxLineBytes: number,
   ) {
@@ -96,7 +96,9 @@ export class BlockFeeder {
     if (bad >= 0) {
       this.stopped = true;
       const withInfo = parseCsvSync(block, { ...this.options, info: true }) as unknown as { info: { lines: number } }[];
-      throw this.rejected(this.line + (withInfo[bad]?.info.lines ?? 1) - 1);
+      const error = this.rejected(this.line + (withInfo[bad]?.info.lines ?? 1) - 1);
+      if (error) throw error;
+      return;
     }
     this.line += countLines(block);
   }

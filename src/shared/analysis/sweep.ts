@@ -16,19 +16,22 @@ export function jitterTolerance(rpm: number): number {
   return Math.max(40, 0.015 * rpm);
 }
 
-/** Finds the main accelerating sweep in `rpm[0..n)`. Returns null for fewer than two points. */
-export function findSweep(rpm: ArrayLike<number>, n = rpm.length): SweepRange | null {
-  if (n < 2) return null;
-  let best: { start: number; maxIdx: number; minBefore: number; gain: number } | null = null;
+interface Stretch {
+  start: number;
+  maxIdx: number;
+  minBefore: number;
+  gain: number;
+}
+
+/** Every stretch of `rpm[0..n)` in which rpm never falls more than the jitter tolerance below its running maximum. */
+function stretches(rpm: ArrayLike<number>, n: number): Stretch[] {
+  const out: Stretch[] = [];
   let start = 0;
   let runMax = rpm[0];
   let maxIdx = 0;
   let runMin = rpm[0];
   let minBeforeMax = rpm[0];
-  const close = () => {
-    const gain = runMax - minBeforeMax;
-    if (!best || gain > best.gain) best = { start, maxIdx, minBefore: minBeforeMax, gain };
-  };
+  const close = () => out.push({ start, maxIdx, minBefore: minBeforeMax, gain: runMax - minBeforeMax });
   for (let i = 1; i < n; i++) {
     const r = rpm[i];
     if (r >= runMax - jitterTolerance(runMax)) {
@@ -46,12 +49,35 @@ export function findSweep(rpm: ArrayLike<number>, n = rpm.length): SweepRange | 
     }
   }
   close();
-  const b = best as unknown as { start: number; maxIdx: number; minBefore: number; gain: number };
-  // Drop the steady lead-in: the sweep starts where rpm last sat near the stretch's minimum.
+  return out;
+}
+
+/** Drops the steady lead-in: the sweep starts where rpm last sat near the stretch's minimum. */
+function toRange(rpm: ArrayLike<number>, b: Stretch): SweepRange {
   const tol = jitterTolerance(b.minBefore);
   let sweepStart = b.start;
   for (let i = b.start; i <= b.maxIdx; i++) if (rpm[i] <= b.minBefore + tol) sweepStart = i;
   return { start: sweepStart, end: b.maxIdx, riseRpm: b.gain };
+}
+
+/** Finds the main accelerating sweep (the largest rpm rise) in `rpm[0..n)`. Returns null for fewer than two points. */
+export function findSweep(rpm: ArrayLike<number>, n = rpm.length): SweepRange | null {
+  if (n < 2) return null;
+  let best: Stretch | null = null;
+  for (const s of stretches(rpm, n)) if (!best || s.gain > best.gain) best = s;
+  return toRange(rpm, best as Stretch);
+}
+
+/**
+ * Finds every accelerating sweep of `rpm[0..n)` rising by at least `minRise` rpm, in time order
+ * (several wide-open-throttle pulls separated by coast-downs or idling). Coast-downs never belong
+ * to a sweep: a stretch ends as soon as rpm falls below its running maximum by more than jitter.
+ */
+export function findSweeps(rpm: ArrayLike<number>, minRise: number, n = rpm.length): SweepRange[] {
+  if (n < 2) return [];
+  return stretches(rpm, n)
+    .filter((s) => s.gain >= minRise)
+    .map((s) => toRange(rpm, s));
 }
 
 function medianOfRange(v: ArrayLike<number>, from: number, to: number): number {
