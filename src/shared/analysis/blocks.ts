@@ -14,9 +14,13 @@ export const BLOCK_BYTES = 128 * 1024;
 /** Receives a block's records; returns the index of a rejected record, or -1. */
 export type RecordSink = (records: string[][]) => number;
 
-/** Counts line ends (LF, CRLF, lone CR) in bytes. */
+/** Counts line ends (LF, CRLF, lone CR) in bytes. Without CR it is a native memchr loop. */
 function countLines(b: Uint8Array): number {
   let n = 0;
+  if (b.indexOf(13) < 0) {
+    for (let i = b.indexOf(10); i >= 0; i = b.indexOf(10, i + 1)) n++;
+    return n;
+  }
   for (let i = 0; i < b.length; i++) {
     const c = b[i];
     if (c === 10) n++;
@@ -27,12 +31,17 @@ function countLines(b: Uint8Array): number {
 
 /** Index just after the last line end in `b` with an even number of quotes before it, or -1. */
 function safeCut(b: Uint8Array): number {
-  let quotes = 0;
   let cut = -1;
-  for (let i = 0; i < b.length; i++) {
-    const c = b[i];
-    if (c === 34) quotes++;
-    else if ((c === 10 || c === 13) && (quotes & 1) === 0) cut = i + 1;
+  if (b.indexOf(34) < 0) {
+    // No quotes (the usual case): the last line end, found natively.
+    cut = Math.max(b.lastIndexOf(10), b.lastIndexOf(13)) + 1 || -1;
+  } else {
+    let quotes = 0;
+    for (let i = 0; i < b.length; i++) {
+      const c = b[i];
+      if (c === 34) quotes++;
+      else if ((c === 10 || c === 13) && (quotes & 1) === 0) cut = i + 1;
+    }
   }
   // A CR at the very end may be half of CRLF: cut before it.
   if (cut === b.length && b[b.length - 1] === 13) cut = b.length - 1;
@@ -67,7 +76,8 @@ export class BlockFeeder {
     }
     const cut = safeCut(buf);
     if (cut <= 0) {
-      this.carry = buf;
+      // Keep a copy: the caller may reuse its buffer.
+      this.carry = buf === bytes ? bytes.slice() : buf;
       if (buf.length > this.maxLineBytes && !buf.includes(34)) {
         throw new AnalysisError('LINE_TOO_LONG', 'A line of the file is longer than the line limit.', { line: this.line });
       }

@@ -52,38 +52,44 @@ function insertionSort(a: Float64Array, len: number): void {
   }
 }
 
+/** Median and MAD of `len` values in `win` (sorted in place; `dev` is scratch). */
+function windowLimit(win: Float64Array, dev: Float64Array, len: number, floorAbs: number, floorRel: number, x: number): boolean {
+  insertionSort(win, len);
+  const med = len & 1 ? win[len >> 1] : (win[(len >> 1) - 1] + win[len >> 1]) / 2;
+  return isOutlier(win, dev, len, med, floorAbs, floorRel, x);
+}
+
+/** True when `x` lies beyond the Hampel limit around `med` of the sorted window. */
+function isOutlier(sorted: Float64Array, dev: Float64Array, len: number, med: number, floorAbs: number, floorRel: number, x: number): boolean {
+  const d = Math.abs(x - med);
+  // The limit is never below the floor: no MAD needed for a sample inside it.
+  if (d <= floorAbs || d <= floorRel * Math.abs(med)) return false;
+  for (let j = 0; j < len; j++) dev[j] = Math.abs(sorted[j] - med);
+  insertionSort(dev, len);
+  const mad = len & 1 ? dev[len >> 1] : (dev[(len >> 1) - 1] + dev[len >> 1]) / 2;
+  return d > HAMPEL_SIGMAS * MAD_TO_SD * mad;
+}
+
 /**
- * Hampel test of `x` (skipping samples already marked); marks outliers with `mark`.
- * Windows whose consecutive steps are all small cannot hold an outlier above the floor and are
- * skipped without sorting (a sample differs from its window's median by at most k × the largest step).
+ * Hampel test of `x` on raw values (the standard, non-recursive filter); marks outliers with `mark`
+ * unless already marked. Only samples next to a step of at least half the floor are tested (a
+ * sample within half the floor of both neighbours is the edge of no spike); longer stretches are
+ * left to the rate limit. The MAD is only computed for samples outside the floor.
  */
 function hampel(x: ArrayLike<number>, marks: Uint8Array, mark: GlitchMarkValue, floorAbs: number, floorRel: number): void {
   const n = x.length;
   const k = HAMPEL_HALF_WIDTH;
   const win = new Float64Array(2 * k + 1);
   const dev = new Float64Array(2 * k + 1);
-  const smooth = floorAbs / k;
-  // bigSteps[i] = 1 when |x[i] − x[i−1]| exceeds `smooth` (relative floors only make that safer).
-  let bigInWindow = 0;
-  const big = (i: number) => (i >= 1 && i < n && Math.abs(x[i] - x[i - 1]) > smooth ? 1 : 0);
-  for (let i = 1; i <= Math.min(n - 1, k); i++) bigInWindow += big(i);
   for (let i = 0; i < n; i++) {
-    // Window steps cover (i−k, i+k]; slide: add step i+k, drop step i−k.
-    if (i > 0) {
-      bigInWindow += big(i + k);
-      bigInWindow -= big(i - k);
-    }
-    if (bigInWindow === 0 || marks[i] !== GlitchMark.Good) continue;
+    const v = x[i];
+    const half = 0.5 * Math.max(floorAbs, floorRel * Math.abs(v));
+    const prev = i > 0 ? Math.abs(v - x[i - 1]) : 0;
+    const next = i < n - 1 ? Math.abs(x[i + 1] - v) : 0;
+    if (prev <= half && next <= half) continue;
     let len = 0;
-    for (let j = Math.max(0, i - k); j <= Math.min(n - 1, i + k); j++) if (marks[j] === GlitchMark.Good || j === i) win[len++] = x[j];
-    if (len < 3) continue;
-    insertionSort(win, len);
-    const med = len & 1 ? win[len >> 1] : (win[(len >> 1) - 1] + win[len >> 1]) / 2;
-    for (let j = 0; j < len; j++) dev[j] = Math.abs(win[j] - med);
-    insertionSort(dev, len);
-    const mad = len & 1 ? dev[len >> 1] : (dev[(len >> 1) - 1] + dev[len >> 1]) / 2;
-    const limit = Math.max(HAMPEL_SIGMAS * MAD_TO_SD * mad, floorAbs, floorRel * Math.abs(med));
-    if (Math.abs(x[i] - med) > limit) marks[i] = mark;
+    for (let j = Math.max(0, i - k); j <= Math.min(n - 1, i + k); j++) win[len++] = x[j];
+    if (len >= 3 && windowLimit(win, dev, len, floorAbs, floorRel, v) && marks[i] === GlitchMark.Good) marks[i] = mark;
   }
 }
 
