@@ -20,6 +20,8 @@ import { type AnalysisWarning, GLITCH_REVIEW_FRACTION } from './warnings.js';
 
 /** A pull rising by less than this share of the log's largest rise is partial (aborted early). */
 export const PARTIAL_RISE_FRACTION = 0.6;
+/** Leading samples of a sweep under this share of the load of its second half are a part-throttle roll-on. */
+export const PART_THROTTLE_FRACTION = 0.5;
 /** Dropped-sample ranges listed in a warning message (all are in `glitches.ranges`). */
 const RANGES_IN_MESSAGE = 5;
 
@@ -225,14 +227,24 @@ export function finishPulls(collector: RowCollector, prepared: PreparedRead, opt
  */
 function pickSweep(s: CleanSeries, sweep: SweepRange, byTorque: boolean): { idx: Int32Array; negative: number } {
   const load = byTorque ? s.torque : s.power;
-  const edges = trimThrottleEdges(load.subarray(sweep.start, sweep.end + 1));
-  const from = sweep.start + edges.from;
-  const to = sweep.start + edges.to - 1;
+  // A part-throttle roll-on before the pull (from idle up to the start rpm) rises with the pull:
+  // skip leading samples under half the load of the pull's second half.
+  const second = medianOf(load, (sweep.start + sweep.end) >> 1, sweep.end + 1);
+  let start = sweep.start;
+  while (start < sweep.end && load[start] < PART_THROTTLE_FRACTION * second) start++;
+  const edges = trimThrottleEdges(load.subarray(start, sweep.end + 1));
+  const from = start + edges.from;
+  const to = start + edges.to - 1;
   let negative = 0;
   for (let i = from; i <= to; i++) if (load[i] < 0) negative++;
   const idx = new Int32Array(Math.max(0, to - from + 1 - negative));
   for (let i = from, k = 0; i <= to; i++) if (!(load[i] < 0)) idx[k++] = i;
   return { idx, negative };
+}
+
+function medianOf(v: Float32Array, from: number, to: number): number {
+  const sorted = v.slice(from, to).sort();
+  return sorted.length ? sorted[sorted.length >> 1] : NaN;
 }
 
 function scaleInPlace(values: Float32Array | Float64Array, factor: number): void {
