@@ -18,7 +18,7 @@ import type { RowCollector } from './table.js';
 import { GASOLINE_STOICH_AFR, HP_TORQUE_CONSTANT, type PowerUnit, type TorqueUnit, powerToHp, torqueToLbft } from './units.js';
 import { type AnalysisWarning, GLITCH_REVIEW_FRACTION } from './warnings.js';
 
-/** A pull rising by less than this share of the log's largest rise is partial (aborted early). */
+/** A pull spanning less than this share of the main pull's full-throttle rpm span is partial (aborted early). */
 export const PARTIAL_RISE_FRACTION = 0.6;
 /** Leading samples of a sweep under this share of the load of its second half are a part-throttle roll-on. */
 export const PART_THROTTLE_FRACTION = 0.5;
@@ -79,6 +79,8 @@ function cleanSeries(collector: RowCollector, prepared: PreparedRead): CleanSeri
   };
 }
 
+/** Time values are kept as 32-bit floats: round to the millisecond for reporting. */
+const roundTime = (v: number) => Math.round(v * 1000) / 1000;
 const fmt = (v: number) => Math.round(v).toLocaleString('en-US');
 
 /** Turns collected rows into one result per pull. Throws NO_SWEEP / TOO_FEW_POINTS when there is no usable pull. */
@@ -101,14 +103,25 @@ export function finishPulls(collector: RowCollector, prepared: PreparedRead, opt
   sweeps.forEach((w, i) => {
     if (w.riseRpm > sweeps[mainAt].riseRpm) mainAt = i;
   });
-  const mainRise = sweeps[mainAt].riseRpm;
+  const picks = sweeps.map((w) => pickSweep(s, w, plan.torque !== null));
+  const spanOf = (idx: Int32Array) => {
+    let lo = Infinity;
+    let hi = -Infinity;
+    for (let i = 0; i < idx.length; i++) {
+      lo = Math.min(lo, s.rpm[idx[i]]);
+      hi = Math.max(hi, s.rpm[idx[i]]);
+    }
+    return idx.length > 0 ? hi - lo : 0;
+  };
+  const spans = picks.map((p) => spanOf(p.idx));
+  const mainSpan = spans[mainAt];
   const lineOf = (row: number) => layout.dataStartLine + collector.recordIndexOf(row);
   const origOf = (i: number) => (s.orig ? s.orig[i] : i);
 
   const pulls: { result: AnalysisResult; main: boolean }[] = [];
   for (let w = 0; w < sweeps.length; w++) {
     const isMain = w === mainAt;
-    const picked = pickSweep(s, sweeps[w], plan.torque !== null);
+    const picked = picks[w];
     if (picked.idx.length < MIN_POINTS) {
       if (isMain) throw new AnalysisError('TOO_FEW_POINTS', `The sweep has only ${picked.idx.length} data points; at least ${MIN_POINTS} are needed.`);
       continue;
@@ -135,7 +148,7 @@ export function finishPulls(collector: RowCollector, prepared: PreparedRead, opt
         lines: [lineOf(r.from), lineOf(r.to)] as [number, number],
         rpmRead: [lo, hi] as [number, number],
         rpmAround: around,
-        ...(rawTime ? { time: [rawTime[r.from], rawTime[r.to]] as [number, number] } : {}),
+        ...(rawTime ? { time: [roundTime(rawTime[r.from]), roundTime(rawTime[r.to])] as [number, number] } : {}),
       };
     });
     const share = inPull / (picked.idx.length + inPull);
@@ -145,7 +158,7 @@ export function finishPulls(collector: RowCollector, prepared: PreparedRead, opt
         .slice(0, RANGES_IN_MESSAGE)
         .map((d) => {
           const lines = d.lines[0] === d.lines[1] ? `line ${d.lines[0]}` : `lines ${d.lines[0]}–${d.lines[1]}`;
-          const t = d.time ? `, t ${d.time[0]}–${d.time[1]} s` : '';
+          const t = d.time ? `, t ${d.time[0]}${d.time[1] !== d.time[0] ? `–${d.time[1]}` : ''} s` : '';
           return `${lines} (read ${fmt(d.rpmRead[0])}${d.rpmRead[1] !== d.rpmRead[0] ? `–${fmt(d.rpmRead[1])}` : ''} rpm near ${fmt(d.rpmAround)} rpm${t})`;
         })
         .join('; ');
@@ -168,8 +181,8 @@ export function finishPulls(collector: RowCollector, prepared: PreparedRead, opt
         message: `${picked.negative} sample(s) inside the sweep with negative ${plan.torque ? 'torque' : 'power'} (engine braking, coasting) were left out.`,
       });
     }
-    const partial = sweeps[w].riseRpm < PARTIAL_RISE_FRACTION * mainRise;
-    const timeRange: [number, number] | null = rawTime ? [rawTime[first], rawTime[last]] : null;
+    const partial = spans[w] < PARTIAL_RISE_FRACTION * mainSpan;
+    const timeRange: [number, number] | null = rawTime ? [roundTime(rawTime[first]), roundTime(rawTime[last])] : null;
     const pull: PullInfo = {
       index: 0,
       count: 0,
@@ -182,7 +195,7 @@ export function finishPulls(collector: RowCollector, prepared: PreparedRead, opt
     if (partial) {
       extra.push({
         code: 'PULL_PARTIAL',
-        message: `This pull rises only ${fmt(sweeps[w].riseRpm)} rpm, against ${fmt(mainRise)} rpm for the log's main pull: it looks aborted early.`,
+        message: `This pull spans only ${fmt(spans[w])} rpm at full throttle, against ${fmt(mainSpan)} rpm for the log's main pull: it looks aborted early.`,
       });
     }
     const result = sweepResult(collector, prepared, opts, s, picked.idx, extra, glitches, pull);
