@@ -23,15 +23,26 @@ interface Stretch {
   gain: number;
 }
 
-/** Every stretch of `rpm[0..n)` in which rpm never falls more than the jitter tolerance below its running maximum. */
-function stretches(rpm: ArrayLike<number>, n: number): Stretch[] {
+/**
+ * The stretches of `rpm[0..n)` in which rpm never falls more than the jitter tolerance below its
+ * running maximum: those rising by `minRise` or more (in order), and the one rising most. (A
+ * coast-down is a stretch per sample: they are not kept, so memory stays small on long logs.)
+ */
+function stretches(rpm: ArrayLike<number>, n: number, minRise: number): { kept: Stretch[]; best: Stretch } {
   const out: Stretch[] = [];
+  let best: Stretch | null = null;
   let start = 0;
   let runMax = rpm[0];
   let maxIdx = 0;
   let runMin = rpm[0];
   let minBeforeMax = rpm[0];
-  const close = () => out.push({ start, maxIdx, minBefore: minBeforeMax, gain: runMax - minBeforeMax });
+  const close = () => {
+    const gain = runMax - minBeforeMax;
+    if (gain < minRise && best && gain <= best.gain) return;
+    const st = { start, maxIdx, minBefore: minBeforeMax, gain };
+    if (gain >= minRise) out.push(st);
+    if (!best || gain > best.gain) best = st;
+  };
   for (let i = 1; i < n; i++) {
     const r = rpm[i];
     if (r >= runMax - jitterTolerance(runMax)) {
@@ -49,7 +60,7 @@ function stretches(rpm: ArrayLike<number>, n: number): Stretch[] {
     }
   }
   close();
-  return out;
+  return { kept: out, best: best as unknown as Stretch };
 }
 
 /** Drops the steady lead-in: the sweep starts where rpm last sat near the stretch's minimum. */
@@ -63,9 +74,7 @@ function toRange(rpm: ArrayLike<number>, b: Stretch): SweepRange {
 /** Finds the main accelerating sweep (the largest rpm rise) in `rpm[0..n)`. Returns null for fewer than two points. */
 export function findSweep(rpm: ArrayLike<number>, n = rpm.length): SweepRange | null {
   if (n < 2) return null;
-  let best: Stretch | null = null;
-  for (const s of stretches(rpm, n)) if (!best || s.gain > best.gain) best = s;
-  return toRange(rpm, best as Stretch);
+  return toRange(rpm, stretches(rpm, n, Infinity).best);
 }
 
 /**
@@ -75,9 +84,7 @@ export function findSweep(rpm: ArrayLike<number>, n = rpm.length): SweepRange | 
  */
 export function findSweeps(rpm: ArrayLike<number>, minRise: number, n = rpm.length): SweepRange[] {
   if (n < 2) return [];
-  return stretches(rpm, n)
-    .filter((s) => s.gain >= minRise)
-    .map((s) => toRange(rpm, s));
+  return stretches(rpm, n, minRise).kept.map((s) => toRange(rpm, s));
 }
 
 function medianOfRange(v: ArrayLike<number>, from: number, to: number): number {
