@@ -65,25 +65,28 @@ function isTrimmable(c: number): boolean {
 export function fastRecords(block: Uint8Array, delimiter: string, maxLineChars: number): string[][] | null {
   if (delimiter.length !== 1 || block.indexOf(34) >= 0 || block.indexOf(13) >= 0) return null;
   const text = utf8.decode(block);
-  const lines = text.split('\n');
   const records: string[][] = [];
-  for (let i = 0; i < lines.length; i++) {
-    const line = lines[i];
-    if (line.length === 0) continue;
-    if (line.length > maxLineChars) return null;
-    const fields = line.split(delimiter);
-    for (let j = 0; j < fields.length; j++) {
-      const f = fields[j];
-      if (f.length > 0 && (isTrimmable(f.charCodeAt(0)) || isTrimmable(f.charCodeAt(f.length - 1)))) {
-        let a = 0;
-        let b = f.length;
-        while (a < b && isTrimmable(f.charCodeAt(a))) a++;
-        while (b > a && isTrimmable(f.charCodeAt(b - 1))) b--;
-        fields[j] = f.slice(a, b);
+  for (let start = 0; start < text.length; ) {
+    let end = text.indexOf('\n', start);
+    if (end < 0) end = text.length;
+    const len = end - start;
+    if (len > 0) {
+      if (len > maxLineChars) return null;
+      const fields = text.slice(start, end).split(delimiter);
+      for (let j = 0; j < fields.length; j++) {
+        const f = fields[j];
+        if (f.length > 0 && (isTrimmable(f.charCodeAt(0)) || isTrimmable(f.charCodeAt(f.length - 1)))) {
+          let a = 0;
+          let b = f.length;
+          while (a < b && isTrimmable(f.charCodeAt(a))) a++;
+          while (b > a && isTrimmable(f.charCodeAt(b - 1))) b--;
+          fields[j] = f.slice(a, b);
+        }
       }
+      if (fields.length === 1 && fields[0].length === 0) return null;
+      records.push(fields);
     }
-    if (fields.length === 1 && fields[0].length === 0) return null;
-    records.push(fields);
+    start = end + 1;
   }
   return records;
 }

@@ -50,9 +50,21 @@ function compact(v: Float32Array, keep: Uint32Array): Float32Array {
   return out;
 }
 
-function gather(v: Float32Array, idx: Int32Array): Float64Array {
-  const out = new Float64Array(idx.length);
-  for (let i = 0; i < idx.length; i++) out[i] = v[idx[i]];
+/** The samples of a sweep: the range from `from` (count samples), or the listed indices when some were left out. */
+interface Pick {
+  from: number;
+  count: number;
+  idx: Int32Array | null;
+  negative: number;
+}
+
+const at = (p: Pick, k: number) => (p.idx ? p.idx[k] : p.from + k);
+
+/** A channel's values over a pick: a view when the pick is contiguous (read only!), else a copy. */
+function gather(v: Float32Array, p: Pick): Float32Array {
+  if (!p.idx) return v.subarray(p.from, p.from + p.count);
+  const out = new Float32Array(p.count);
+  for (let i = 0; i < p.count; i++) out[i] = v[p.idx[i]];
   return out;
 }
 
@@ -104,16 +116,17 @@ export function finishPulls(collector: RowCollector, prepared: PreparedRead, opt
     if (w.riseRpm > sweeps[mainAt].riseRpm) mainAt = i;
   });
   const picks = sweeps.map((w) => pickSweep(s, w, plan.torque !== null));
-  const spanOf = (idx: Int32Array) => {
+  const spanOf = (p: Pick) => {
     let lo = Infinity;
     let hi = -Infinity;
-    for (let i = 0; i < idx.length; i++) {
-      lo = Math.min(lo, s.rpm[idx[i]]);
-      hi = Math.max(hi, s.rpm[idx[i]]);
+    for (let k = 0; k < p.count; k++) {
+      const r = s.rpm[at(p, k)];
+      if (r < lo) lo = r;
+      if (r > hi) hi = r;
     }
-    return idx.length > 0 ? hi - lo : 0;
+    return p.count > 0 ? hi - lo : 0;
   };
-  const spans = picks.map((p) => spanOf(p.idx));
+  const spans = picks.map(spanOf);
   const mainSpan = spans[mainAt];
   const lineOf = (row: number) => layout.dataStartLine + collector.recordIndexOf(row);
   const origOf = (i: number) => (s.orig ? s.orig[i] : i);
@@ -122,12 +135,12 @@ export function finishPulls(collector: RowCollector, prepared: PreparedRead, opt
   for (let w = 0; w < sweeps.length; w++) {
     const isMain = w === mainAt;
     const picked = picks[w];
-    if (picked.idx.length < MIN_POINTS) {
-      if (isMain) throw new AnalysisError('TOO_FEW_POINTS', `The sweep has only ${picked.idx.length} data points; at least ${MIN_POINTS} are needed.`);
+    if (picked.count < MIN_POINTS) {
+      if (isMain) throw new AnalysisError('TOO_FEW_POINTS', `The sweep has only ${picked.count} data points; at least ${MIN_POINTS} are needed.`);
       continue;
     }
-    const first = origOf(picked.idx[0]);
-    const last = origOf(picked.idx[picked.idx.length - 1]);
+    const first = origOf(at(picked, 0));
+    const last = origOf(at(picked, picked.count - 1));
     const extra: AnalysisWarning[] = [];
     // Glitches between the pull's first and last sample.
     const ranges = glitchRanges(s.marks, first, last);
@@ -151,7 +164,7 @@ export function finishPulls(collector: RowCollector, prepared: PreparedRead, opt
         ...(rawTime ? { time: [roundTime(rawTime[r.from]), roundTime(rawTime[r.to])] as [number, number] } : {}),
       };
     });
-    const share = inPull / (picked.idx.length + inPull);
+    const share = inPull / (picked.count + inPull);
     const glitches: GlitchReport = { dropped: inPull, droppedInLog: s.glitchCount, review: share > GLITCH_REVIEW_FRACTION, ranges: described };
     if (inPull > 0) {
       const where = described
@@ -198,7 +211,7 @@ export function finishPulls(collector: RowCollector, prepared: PreparedRead, opt
         message: `This pull spans only ${fmt(spans[w])} rpm at full throttle, against ${fmt(mainSpan)} rpm for the log's main pull: it looks aborted early.`,
       });
     }
-    const result = sweepResult(collector, prepared, opts, s, picked.idx, extra, glitches, pull);
+    const result = sweepResult(collector, prepared, opts, s, picked, extra, glitches, pull);
     if (!result) {
       if (isMain) throw new AnalysisError('TOO_FEW_POINTS', 'The sweep covers too narrow an rpm range for the grid.');
       continue;
@@ -238,7 +251,7 @@ export function finishPulls(collector: RowCollector, prepared: PreparedRead, opt
  * throttle-off moment), then every sample with negative load left out (coasting is never part
  * of the sweep). Indices are into the clean series.
  */
-function pickSweep(s: CleanSeries, sweep: SweepRange, byTorque: boolean): { idx: Int32Array; negative: number } {
+function pickSweep(s: CleanSeries, sweep: SweepRange, byTorque: boolean): Pick {
   const load = byTorque ? s.torque : s.power;
   // A part-throttle roll-on before the pull (from idle up to the start rpm) rises with the pull:
   // skip leading samples under half the load of the pull's second half.
@@ -250,14 +263,20 @@ function pickSweep(s: CleanSeries, sweep: SweepRange, byTorque: boolean): { idx:
   const to = start + edges.to - 1;
   let negative = 0;
   for (let i = from; i <= to; i++) if (load[i] < 0) negative++;
-  const idx = new Int32Array(Math.max(0, to - from + 1 - negative));
+  const count = Math.max(0, to - from + 1 - negative);
+  if (negative === 0) return { from, count, idx: null, negative };
+  const idx = new Int32Array(count);
   for (let i = from, k = 0; i <= to; i++) if (!(load[i] < 0)) idx[k++] = i;
-  return { idx, negative };
+  return { from, count, idx, negative };
 }
 
+/** Median of v[from..to), from at most 4097 evenly spaced samples (no copy of a long range). */
 function medianOf(v: Float32Array, from: number, to: number): number {
-  const sorted = v.slice(from, to).sort();
-  return sorted.length ? sorted[sorted.length >> 1] : NaN;
+  const stride = Math.max(1, Math.floor((to - from) / 4096));
+  const sample: number[] = [];
+  for (let i = from; i < to; i += stride) sample.push(v[i]);
+  sample.sort((a, b) => a - b);
+  return sample.length ? sample[sample.length >> 1] : NaN;
 }
 
 function scaleInPlace(values: Float32Array | Float64Array, factor: number): void {
@@ -274,19 +293,19 @@ function sweepResult(
   prepared: PreparedRead,
   opts: ReturnType<typeof normaliseOptions>,
   s: CleanSeries,
-  idx: Int32Array,
+  picked: Pick,
   extraWarnings: AnalysisWarning[],
   glitches: GlitchReport,
   pull: PullInfo,
 ): AnalysisResult | null {
   const { plan } = prepared;
   const warnings: AnalysisWarning[] = [...plan.warnings];
-  const count = idx.length;
-  const rpm = gather(s.rpm, idx);
+  const count = picked.count;
+  const rpm = gather(s.rpm, picked);
   let torqueUnit: TorqueUnit | null = plan.torque?.unit ?? null;
   let powerUnit: PowerUnit | null = plan.power?.unit ?? null;
-  const rawT = gather(s.torque, idx);
-  const rawP = gather(s.power, idx);
+  const rawT = plan.torque ? gather(s.torque, picked) : s.torque;
+  const rawP = plan.power ? gather(s.power, picked) : s.power;
   const torque = new Float64Array(count);
   const power = new Float64Array(count);
   let identity: AnalysisResult['identity'];
@@ -353,9 +372,12 @@ function sweepResult(
   }
 
   const afrSeries = s.afr.map((series, k) => {
-    const v = gather(series, idx);
-    if (plan.afr[k].lambda) scaleInPlace(v, GASOLINE_STOICH_AFR);
-    return v;
+    const v = gather(series, picked);
+    if (!plan.afr[k].lambda) return v;
+    // Lambda → AFR: scale a copy (gather may return a view of the collected channel).
+    const afr = picked.idx ? v : v.slice();
+    scaleInPlace(afr, GASOLINE_STOICH_AFR);
+    return afr;
   });
   const { grid, values } = resampleToGrid(rpm, [torque, power, ...afrSeries], opts.gridRpm);
   if (grid.length < 5) return null;
