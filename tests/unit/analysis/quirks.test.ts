@@ -265,3 +265,28 @@ describe('no silent trust', () => {
     for (const c of seen) expect(ANALYSIS_WARNING_CODES).toContain(c);
   });
 });
+
+describe('coast-down and decel are never part of the sweep', () => {
+  it('the engine slowing under load after the top, or coasting with negative power before and after, is left out', () => {
+    const run = syntheticRun(QUIET);
+    const top = run.truth.sweepEnd;
+    const samples = run.samples.map((s) => ({ ...s }));
+    // After the top: the brake overpowers the engine; rpm falls back to 4 000 with positive torque.
+    for (let i = top + 1; i < samples.length; i++) {
+      const rpm = Math.max(4000, samples[top].rpm - (i - top) * 20);
+      const lbft = modelTorqueLbft(run.engine, rpm);
+      samples[i] = { ...samples[i], rpm, torqueLbft: lbft, powerHp: (lbft * rpm) / HP_CONSTANT };
+    }
+    // Before the sweep: a coast-down with negative power from 3 000 rpm into the lead-in.
+    for (let i = 0; i < 20; i++) {
+      const rpm = 3000 - i * 50;
+      samples[i] = { ...samples[i], rpm, torqueLbft: -4, powerHp: (-4 * rpm) / HP_CONSTANT };
+    }
+    const r = analyzeBuffer(renderRunFile({ ...run, samples }).bytes);
+    expectModelPeaks(r, run.truth);
+    expect(r.rpmRange[0]).toBeGreaterThanOrEqual(run.truth.startRpm - 50);
+    expect(Math.min(...r.curve.torqueLbft)).toBeGreaterThan(0);
+    // Only the rising sweep is kept: no more points than it has samples.
+    expect(r.points).toBeLessThanOrEqual(run.truth.sweepEnd - run.truth.sweepStart + 2);
+  });
+});
