@@ -65,7 +65,9 @@ export interface GlitchReport {
   droppedInLog: number;
   /** True when over 10 % of the pull's samples were glitches (warning GLITCHES_REVIEW). */
   review: boolean;
-  /** Each contiguous range: data-row indices, file lines, the rpm read there, the rpm just before, and the time when known. */
+  /** Contiguous ranges of dropped samples in all (only the first 50 are listed in `ranges`). */
+  rangeCount: number;
+  /** Each contiguous range (first 50): data-row indices, file lines, the rpm read there, the rpm just before, and the time when known. */
   ranges: { rows: [number, number]; lines: [number, number]; rpmRead: [number, number]; rpmAround: number; time?: [number, number] }[];
 }
 

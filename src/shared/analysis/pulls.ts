@@ -22,6 +22,8 @@ import { type AnalysisWarning, GLITCH_REVIEW_FRACTION } from './warnings.js';
 export const PARTIAL_RISE_FRACTION = 0.6;
 /** Leading samples of a sweep under this share of the load of its second half are a part-throttle roll-on. */
 export const PART_THROTTLE_FRACTION = 0.5;
+/** Dropped-sample ranges kept in the result (the rest are counted in `rangeCount`). */
+const MAX_REPORTED_RANGES = 50;
 /** Dropped-sample ranges listed in a warning message (all are in `glitches.ranges`). */
 const RANGES_IN_MESSAGE = 5;
 
@@ -165,7 +167,13 @@ export function finishPulls(collector: RowCollector, prepared: PreparedRead, opt
       };
     });
     const share = inPull / (picked.count + inPull);
-    const glitches: GlitchReport = { dropped: inPull, droppedInLog: s.glitchCount, review: share > GLITCH_REVIEW_FRACTION, ranges: described };
+    const glitches: GlitchReport = {
+      dropped: inPull,
+      droppedInLog: s.glitchCount,
+      review: share > GLITCH_REVIEW_FRACTION,
+      ranges: described.slice(0, MAX_REPORTED_RANGES),
+      rangeCount: described.length,
+    };
     if (inPull > 0) {
       const where = described
         .slice(0, RANGES_IN_MESSAGE)
@@ -179,7 +187,7 @@ export function finishPulls(collector: RowCollector, prepared: PreparedRead, opt
       extra.push({
         code: 'GLITCHES_DROPPED',
         message: `${inPull} sample(s) with impossible engine-speed or load jumps (drop-outs, doubled or halved readings, spikes) were dropped from the pull: ${where}${more}.`,
-        details: { dropped: inPull, ranges: described },
+        details: { dropped: inPull, ranges: glitches.ranges, rangeCount: described.length },
       });
     }
     if (glitches.review) {
