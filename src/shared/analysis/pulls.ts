@@ -150,7 +150,7 @@ export function finishPulls(collector: RowCollector, prepared: PreparedRead, opt
     for (const r of ranges) inPull += r.to - r.from + 1;
     const rawRpm = collector.rpm.view();
     const rawTime = plan.time !== null ? collector.time.view() : null;
-    const described = ranges.map((r) => {
+    const described = ranges.slice(0, MAX_REPORTED_RANGES).map((r) => {
       let lo = Infinity;
       let hi = -Infinity;
       for (let i = r.from; i <= r.to; i++) {
@@ -171,8 +171,8 @@ export function finishPulls(collector: RowCollector, prepared: PreparedRead, opt
       dropped: inPull,
       droppedInLog: s.glitchCount,
       review: share > GLITCH_REVIEW_FRACTION,
-      ranges: described.slice(0, MAX_REPORTED_RANGES),
-      rangeCount: described.length,
+      ranges: described,
+      rangeCount: ranges.length,
     };
     if (inPull > 0) {
       const where = described
@@ -183,11 +183,11 @@ export function finishPulls(collector: RowCollector, prepared: PreparedRead, opt
           return `${lines} (read ${fmt(d.rpmRead[0])}${d.rpmRead[1] !== d.rpmRead[0] ? `–${fmt(d.rpmRead[1])}` : ''} rpm near ${fmt(d.rpmAround)} rpm${t})`;
         })
         .join('; ');
-      const more = described.length > RANGES_IN_MESSAGE ? `; and ${described.length - RANGES_IN_MESSAGE} more range(s)` : '';
+      const more = ranges.length > RANGES_IN_MESSAGE ? `; and ${ranges.length - RANGES_IN_MESSAGE} more range(s)` : '';
       extra.push({
         code: 'GLITCHES_DROPPED',
         message: `${inPull} sample(s) with impossible engine-speed or load jumps (drop-outs, doubled or halved readings, spikes) were dropped from the pull: ${where}${more}.`,
-        details: { dropped: inPull, ranges: glitches.ranges, rangeCount: described.length },
+        details: { dropped: inPull, ranges: described, rangeCount: ranges.length },
       });
     }
     if (glitches.review) {

@@ -92,9 +92,16 @@ export class RowCollector {
 
   /** 0-based record (data row) index of collected sample `i`, counting skipped records. */
   recordIndexOf(i: number): number {
-    let r = i;
-    for (const s of this.skippedBefore) if (s <= i) r++;
-    return r;
+    // skippedBefore is non-decreasing: count its entries ≤ i by binary search.
+    const a = this.skippedBefore;
+    let lo = 0;
+    let hi = a.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (a[mid] <= i) lo = mid + 1;
+      else hi = mid;
+    }
+    return i + lo;
   }
 
   /** True when a non-numeric record is not shaped like a data row (so it ends the table). */
