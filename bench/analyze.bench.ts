@@ -75,7 +75,8 @@ export async function run(): Promise<void> {
     ) as { ms: number; peakRssMb: number };
     const ratioB = bufferMs / csvMs;
     const ratioF = child.ms / csvMs;
-    const targets = [ratioB <= 2 ? 'ratio ok' : 'ratio OVER 2×', f.name.startsWith('50') ? (child.peakRssMb <= 150 ? 'RSS ok' : 'RSS OVER 150 MB') : ''].filter(Boolean).join(', ');
+    // Both paths are held to the target: uploads use the streaming one.
+    const targets = [ratioB <= 2 && ratioF <= 2 ? 'ratio ok' : `ratio OVER 2× (${ratioB > 2 ? 'buffer' : ''}${ratioB > 2 && ratioF > 2 ? ', ' : ''}${ratioF > 2 ? 'streaming' : ''})`, f.name.startsWith('50') ? (child.peakRssMb <= 150 ? 'RSS ok' : 'RSS OVER 150 MB') : ''].filter(Boolean).join(', ');
     rows.push([
       f.name,
       (bytes.length / 1e6).toFixed(1),
@@ -90,5 +91,5 @@ export async function run(): Promise<void> {
     ]);
   }
   printTable(rows);
-  process.stdout.write('ratio = analysis time ÷ csv-parse alone parsing the same bytes into arrays (target ≤ 2×); peak RSS of analyzeFile measured in a child process (target ≤ 150 MB on the 50 MB file).\n');
+  process.stdout.write('ratio = analysis time ÷ csv-parse alone parsing the same bytes into arrays (target ≤ 2× for both analyzeBuffer and the streaming analyzeFile that uploads use); peak RSS of analyzeFile measured in a child process (target ≤ 150 MB on the 50 MB file).\n');
 }
