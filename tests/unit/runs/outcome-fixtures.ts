@@ -24,7 +24,7 @@ export function readyOutcome(over: Partial<AnalysisResult> = {}): AnalysisOutcom
     confidence: 0.9,
     review: false,
     pull: { index: 0, count: 1, main: true, partial: false, sampleRange: [0, 420], lineRange: [3, 423], timeRange: [0, 8.4] },
-    glitches: { dropped: 0, droppedInLog: 0, review: false, ranges: [] },
+    glitches: { dropped: 0, droppedInLog: 0, review: false, ranges: [], rangeCount: 0 },
     ...over,
   };
   return { status: 'ready', result, error: null, mapping: null, headerSignature: result.headerSignature, correction: 'sae-j1349', conditions: { temperatureC: 25, baroKpa: 99 } };
