@@ -419,14 +419,14 @@ describe('saved comparisons', () => {
     expect(got.body.preview.summary[0]).toMatch(/ kW at peak/);
 
     const list = await tuner.get('/api/comparisons').query({ bikeId: a.bike.id });
-    expect(list.body.map((c: { id: string }) => c.id)).toContain(saved.body.id);
+    expect(list.body.items.map((c: { id: string }) => c.id)).toContain(saved.body.id);
     const otherList = await tuner.get('/api/comparisons').query({ bikeId: a.otherBike.id });
-    expect(otherList.body.map((c: { id: string }) => c.id)).not.toContain(saved.body.id);
+    expect(otherList.body.items.map((c: { id: string }) => c.id)).not.toContain(saved.body.id);
 
     // The rider of the bike may read it; another shop may not; desk may not delete.
     const rider = await t.signIn(a.users.customer);
     expect((await rider.get(`/api/comparisons/${saved.body.id}`)).status).toBe(200);
-    expect((await rider.get('/api/comparisons')).body.map((c: { id: string }) => c.id)).toContain(saved.body.id);
+    expect((await rider.get('/api/comparisons')).body.items.map((c: { id: string }) => c.id)).toContain(saved.body.id);
     expect((await (await t.signIn(b.users.owner)).get(`/api/comparisons/${saved.body.id}`)).status).toBe(404);
     expect((await (await t.signIn(a.users.desk)).delete(`/api/comparisons/${saved.body.id}`)).status).toBe(403);
     expect((await tuner.delete(`/api/comparisons/${saved.body.id}`)).status).toBe(204);
@@ -440,7 +440,7 @@ describe('saved comparisons', () => {
     expect(saved.status).toBe(201);
     const rider = await t.signIn(a.users.customer);
     expect((await rider.get(`/api/comparisons/${saved.body.id}`)).status).toBe(404);
-    expect((await rider.get('/api/comparisons')).body.map((c: { id: string }) => c.id)).not.toContain(saved.body.id);
+    expect((await rider.get('/api/comparisons')).body.items.map((c: { id: string }) => c.id)).not.toContain(saved.body.id);
   });
 
   it('reads a saved comparison whose run was deleted, with a plain previewError', async () => {

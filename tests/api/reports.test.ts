@@ -173,7 +173,7 @@ describe('generating a report', () => {
     const stored1 = await t.deps.storage.getBuffer(`shops/${a.shop.id}/reports/${v1.number}/v1.pdf`);
     expect(sha256(stored1)).toBe(v1.pdfSha256);
     const list = await desk.get('/api/reports').query({ bikeId: a.bike.id });
-    expect(list.body.map((r: { version: number }) => r.version)).toEqual([2, 1]);
+    expect(list.body.items.map((r: { version: number }) => r.version)).toEqual([2, 1]);
   });
 
   it('prints kW and N·m on A4 when the shop says so', async () => {
@@ -205,7 +205,7 @@ describe('generating a report', () => {
     expect((await otherDesk.post('/api/reports').send({ comparisonId: scenario.comparisonId })).status).toBe(404);
     expect((await otherDesk.get(`/api/reports/${first.id}`)).status).toBe(404);
     expect((await otherDesk.get(first.pdfUrl)).status).toBe(404);
-    expect((await otherDesk.get('/api/reports').query({ bikeId: a.bike.id })).body).toEqual([]);
+    expect((await otherDesk.get('/api/reports').query({ bikeId: a.bike.id })).body.items).toEqual([]);
   });
 });
 
@@ -214,12 +214,12 @@ describe('customers', () => {
     const customer = await t.signIn(a.users.customer);
     const list = await customer.get('/api/reports').query({ bikeId: a.bike.id });
     expect(list.status).toBe(200);
-    expect(list.body.length).toBeGreaterThan(0);
-    const id = list.body[0].id;
+    expect(list.body.items.length).toBeGreaterThan(0);
+    const id = list.body.items[0].id;
     const pdf = await binary(customer.get(`/api/reports/${id}/pdf`));
     expect(pdf.status).toBe(200);
-    expect(sha256(pdf.body as Buffer)).toBe(list.body[0].pdfSha256);
-    expect((await customer.get('/api/reports').query({ bikeId: a.otherBike.id })).body).toEqual([]);
+    expect(sha256(pdf.body as Buffer)).toBe(list.body.items[0].pdfSha256);
+    expect((await customer.get('/api/reports').query({ bikeId: a.otherBike.id })).body.items).toEqual([]);
     expect((await customer.post(`/api/reports/${id}/send`).send({ to: 'x@y.test', message: 'hi' })).status).toBe(403);
     expect((await customer.post(`/api/reports/${id}/share`).send({})).status).toBe(403);
     expect((await customer.post('/api/reports').send({ comparisonId: scenario.comparisonId })).status).toBe(403);
@@ -228,7 +228,7 @@ describe('customers', () => {
 
 describe('sending', () => {
   it('e-mails the stored PDF (same sha256) with a working share link and logs the delivery', async () => {
-    const [report] = (await desk.get('/api/reports').query({ bikeId: a.bike.id })).body;
+    const [report] = (await desk.get('/api/reports').query({ bikeId: a.bike.id })).body.items;
     const to = a.customer.email!;
     const res = await desk.post(`/api/reports/${report.id}/send`).send({ to, message: 'Hello, here is your report.' });
     expect(res.status).toBe(201);
@@ -243,11 +243,11 @@ describe('sending', () => {
     expect(token).toHaveLength(43);
     expect((await t.request.get(`/api/share/${token}`)).status).toBe(200);
     const log = await desk.get(`/api/reports/${report.id}/deliveries`);
-    expect(log.body[0]).toMatchObject({ to, status: 'sent', error: null });
+    expect(log.body.items[0]).toMatchObject({ to, status: 'sent', error: null });
   });
 
   it('logs a failed delivery with the relay’s error', async () => {
-    const [report] = (await desk.get('/api/reports').query({ bikeId: a.bike.id })).body;
+    const [report] = (await desk.get('/api/reports').query({ bikeId: a.bike.id })).body.items;
     const original = t.deps.mailer.send;
     t.deps.mailer.send = async () => {
       throw new Error('550 mailbox unavailable');
@@ -260,11 +260,11 @@ describe('sending', () => {
       t.deps.mailer.send = original;
     }
     const log = await desk.get(`/api/reports/${report.id}/deliveries`);
-    expect(log.body[0]).toMatchObject({ to: 'nobody@nowhere.test', status: 'failed', error: '550 mailbox unavailable' });
+    expect(log.body.items[0]).toMatchObject({ to: 'nobody@nowhere.test', status: 'failed', error: '550 mailbox unavailable' });
   });
 
   it('validates the recipient', async () => {
-    const [report] = (await desk.get('/api/reports').query({ bikeId: a.bike.id })).body;
+    const [report] = (await desk.get('/api/reports').query({ bikeId: a.bike.id })).body.items;
     const res = await desk.post(`/api/reports/${report.id}/send`).send({ to: 'not-an-address', message: '' });
     expect(res.status).toBe(400);
     expect(res.body.error.details.fields.map((f: { path: string }) => f.path)).toEqual(expect.arrayContaining(['to', 'message']));
@@ -277,7 +277,7 @@ describe('share links', () => {
   let shareId: string;
 
   beforeAll(async () => {
-    reportId = (await desk.get('/api/reports').query({ bikeId: a.bike.id })).body[0].id;
+    reportId = (await desk.get('/api/reports').query({ bikeId: a.bike.id })).body.items[0].id;
     await resetShareLimits();
   });
 
@@ -304,7 +304,7 @@ describe('share links', () => {
     for (const secret of [a.customer.email!, a.customer.name, '555-0142', 'desk@northgate.test', a.otherBike.id, 'Other']) expect(json).not.toContain(secret);
     await t.request.get(`/api/share/${token}`);
     const links = await desk.get(`/api/reports/${reportId}/share`);
-    expect(links.body.find((l: { id: string }) => l.id === shareId).viewCount).toBe(2);
+    expect(links.body.items.find((l: { id: string }) => l.id === shareId).viewCount).toBe(2);
     const pdf = await binary(t.request.get(`/api/share/${token}/pdf`));
     expect(pdf.status).toBe(200);
     expect(pdf.headers['content-type']).toMatch(/^application\/pdf/);

@@ -52,12 +52,12 @@ describe('demo archive', () => {
     const tuner = await t.signIn('tuner@demo.pullbook.test', DEMO_PASSWORD);
     const comparisons = await tuner.get('/api/comparisons').query({ bikeId: ids.bikes[0].id });
     expect(comparisons.status).toBe(200);
-    expect(comparisons.body).toHaveLength(2);
+    expect(comparisons.body.items).toHaveLength(2);
     const customer = await t.signIn('customer@demo.pullbook.test', DEMO_PASSWORD);
     const reports = await customer.get('/api/reports');
     expect(reports.status).toBe(200);
-    expect(reports.body).toHaveLength(1);
-    const pdf = await customer.get(`/api/reports/${reports.body[0].id}/pdf`).buffer(true);
+    expect(reports.body.items).toHaveLength(1);
+    const pdf = await customer.get(`/api/reports/${reports.body.items[0].id}/pdf`).buffer(true);
     expect(pdf.status).toBe(200);
     expect(pdf.body.subarray(0, 5).toString('latin1')).toBe('%PDF-');
     const detail = await tuner.get(`/api/comparisons/${comparisons.body[0].id}`);

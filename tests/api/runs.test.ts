@@ -147,7 +147,7 @@ describe('duplicates and bad files', () => {
     expect(mapped.body.peakPowerHp).toBeGreaterThan(70);
 
     const layouts = await desk.get('/api/column-layouts');
-    expect(layouts.body.map((l: { name: string }) => l.name)).toContain('Bay 3 export');
+    expect(layouts.body.items.map((l: { name: string }) => l.name)).toContain('Bay 3 export');
 
     const next = await upload(tuner, a.bike.id, [{ name: 'drum-2.csv', bytes: drum(301) }]);
     expect(next.body.results[0].ok).toBe(true);
@@ -392,7 +392,7 @@ describe('list, edit, delete, roles and tenants', () => {
     expect((await bTuner.post(`/api/runs/${runId}/reprocess`)).status).toBe(404);
     expect((await bTuner.post(`/api/runs/${runId}/mapping`).send({ mapping: { rpm: 'x', torque: { column: 'y', unit: 'lbft' } } })).status).toBe(404);
     expect((await upload(bTuner, a.bike.id, [{ name: 'x.csv', bytes: file(900) }])).status).toBe(404);
-    expect((await bOwner.get('/api/column-layouts')).body).toEqual([]);
+    expect((await bOwner.get('/api/column-layouts')).body.items).toEqual([]);
   });
 });
 

@@ -222,7 +222,7 @@ describe('uploading a dyno session', () => {
     expect(runs.every((r) => r.status === 'ready')).toBe(true);
     expect(runs.find((r) => r.originalName === 'pull-01.csv')?.stageName).toBe('Baseline');
     const layouts = await tuner.get('/api/column-layouts');
-    expect((layouts.body as { name: string }[]).map((l) => l.name)).toContain('Drum-header export');
+    expect((layouts.body.items as { name: string }[]).map((l) => l.name)).toContain('Drum-header export');
   }, 120_000);
 
   it('the run page draws the mapped run and switches units and correction in the browser', async () => {

@@ -4,7 +4,7 @@ import type { Readable } from 'node:stream';
 import { ApiRouter } from '../../http/api-router';
 import type { AppDeps } from '../../app-deps';
 import { STAFF } from '@shared/roles';
-import { idParams, uuid } from '@shared/schemas/common';
+import { idParams, uuid, wholePage } from '@shared/schemas/common';
 import { reportInput, reportListQuery, sendInput, shareInput } from '@shared/schemas/report';
 import type { Report } from './report.entity';
 import { createReport } from './create-report';
@@ -39,7 +39,7 @@ const clientIp = (ip: string | undefined) => ip ?? 'unknown';
 export function reportRoutes(deps: AppDeps): ApiRouter[] {
   const api = new ApiRouter('/api/reports', deps);
   api.route({ method: 'post', path: '/', access: STAFF, summary: 'Generate a gain report (a new version when the comparison already has one)', body: reportInput, status: 201, handler: ({ em, actor, body }) => createReport(deps, em, actor, body) });
-  api.route({ method: 'get', path: '/', access: 'signed-in', summary: 'Reports, optionally of one bike (customers: their own bikes)', query: reportListQuery, handler: ({ em, actor, query }) => listReports(em, actor, query) });
+  api.route({ method: 'get', path: '/', access: 'signed-in', summary: 'Reports, optionally of one bike (customers: their own bikes)', query: reportListQuery, handler: async ({ em, actor, query }) => wholePage(await listReports(em, actor, query)) });
   api.route({ method: 'get', path: '/:id', access: 'signed-in', summary: 'One report with its versions', params: idParams, handler: ({ em, actor, params }) => getReport(em, actor, params.id) });
   api.route({
     method: 'get',
@@ -55,9 +55,9 @@ export function reportRoutes(deps: AppDeps): ApiRouter[] {
     },
   });
   api.route({ method: 'post', path: '/:id/send', access: SENDERS, summary: 'E-mail a report to the customer (PDF attached, share link included)', params: idParams, body: sendInput, status: 201, handler: ({ em, actor, params, body }) => sendReport(deps, em, actor, params.id, body) });
-  api.route({ method: 'get', path: '/:id/deliveries', access: STAFF, summary: 'Send log of a report', params: idParams, handler: ({ em, actor, params }) => listDeliveries(em, actor, params.id) });
+  api.route({ method: 'get', path: '/:id/deliveries', access: STAFF, summary: 'Send log of a report', params: idParams, handler: async ({ em, actor, params }) => wholePage(await listDeliveries(em, actor, params.id)) });
   api.route({ method: 'post', path: '/:id/share', access: STAFF, summary: 'Create a share link', params: idParams, body: shareInput, status: 201, handler: ({ em, actor, params, body }) => createShareLink(deps, em, actor, params.id, body.expiresInDays) });
-  api.route({ method: 'get', path: '/:id/share', access: STAFF, summary: 'Share links of a report with view counts', params: idParams, handler: ({ em, actor, params }) => listShareLinks(em, actor, params.id) });
+  api.route({ method: 'get', path: '/:id/share', access: STAFF, summary: 'Share links of a report with view counts', params: idParams, handler: async ({ em, actor, params }) => wholePage(await listShareLinks(em, actor, params.id)) });
   api.route({ method: 'delete', path: '/:id/share/:shareId', access: STAFF, summary: 'Revoke a share link', params: shareParams, handler: ({ em, actor, params }) => revokeShareLink(em, actor, params.id, params.shareId) });
 
   const share = new ApiRouter('/api/share', deps);

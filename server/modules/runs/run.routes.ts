@@ -2,7 +2,7 @@ import { z } from 'zod';
 import { ApiRouter } from '../../http/api-router';
 import type { AppDeps } from '../../app-deps';
 import { STAFF, WORKSHOP } from '@shared/roles';
-import { idParams, uuid, type Page } from '@shared/schemas/common';
+import { idParams, uuid, wholePage, type Page } from '@shared/schemas/common';
 import {
   applyMappingInput,
   runListQuery,
@@ -98,7 +98,7 @@ export function runRoutes(deps: AppDeps): ApiRouter[] {
   api.route({ method: 'post', path: '/:id/reprocess', access: WORKSHOP, summary: 'Re-derive a run from its raw file', params: idParams, handler: ({ em, actor, params, deps: d }): Promise<RunReprocessDto> => reprocessRunById(em, d, actor, params.id) });
 
   const layouts = new ApiRouter('/api/column-layouts', deps);
-  layouts.route({ method: 'get', path: '/', access: STAFF, summary: 'Saved column layouts', handler: ({ em, actor }): Promise<ColumnLayoutDto[]> => listLayouts(em, actor) });
+  layouts.route({ method: 'get', path: '/', access: STAFF, summary: 'Saved column layouts', handler: async ({ em, actor }): Promise<Page<ColumnLayoutDto>> => wholePage(await listLayouts(em, actor)) });
   layouts.route({ method: 'delete', path: '/:id', access: WORKSHOP, summary: 'Forget a saved column layout', params: idParams, handler: ({ em, actor, params }): Promise<void> => deleteLayout(em, actor, params.id) });
   return [api, layouts];
 }

@@ -19,7 +19,7 @@ export const comparisonQueries = {
   list: (filters: { bikeId?: string } = {}) =>
     queryOptions({
       queryKey: comparisonKeys.list(filters),
-      queryFn: () => api.get<ComparisonDto[]>('/api/comparisons', { bikeId: filters.bikeId }),
+      queryFn: async () => (await api.get<Page<ComparisonDto>>('/api/comparisons', { bikeId: filters.bikeId })).items,
     }),
   detail: (id: string) =>
     queryOptions({
