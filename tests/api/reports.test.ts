@@ -332,7 +332,7 @@ describe('share links', () => {
     const revoked = await t.request.get(`/api/share/${token}`);
     expect(revoked.status).toBe(404);
     expect(revoked.body).toEqual(unknown.body);
-    const links = (await desk.get(`/api/reports/${reportId}/share`)).body;
+    const links = (await desk.get(`/api/reports/${reportId}/share`)).body.items;
     expect(links.find((l: { id: string }) => l.id === shareId).status).toBe('revoked');
   });
 

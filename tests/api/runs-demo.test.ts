@@ -60,7 +60,7 @@ describe('demo archive', () => {
     const pdf = await customer.get(`/api/reports/${reports.body.items[0].id}/pdf`).buffer(true);
     expect(pdf.status).toBe(200);
     expect(pdf.body.subarray(0, 5).toString('latin1')).toBe('%PDF-');
-    const detail = await tuner.get(`/api/comparisons/${comparisons.body[0].id}`);
+    const detail = await tuner.get(`/api/comparisons/${comparisons.body.items[0].id}`);
     expect(detail.body.previewError).toBeNull();
     expect(detail.body.preview.results[0].peakPowerGain.hp).toBeGreaterThan(0);
   });
