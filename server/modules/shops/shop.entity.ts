@@ -1,7 +1,9 @@
 import { EntitySchema } from '@mikro-orm/core';
 import { randomUUID } from 'node:crypto';
 
-export type UnitSystem = 'imperial' | 'metric';
+import type { UnitSystem } from '@shared/units-display';
+
+export type { UnitSystem };
 export type PaperSize = 'letter' | 'a4';
 
 /** A performance shop: the tenant. Every other row belongs to exactly one shop. */

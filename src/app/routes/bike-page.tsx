@@ -11,6 +11,7 @@ import { BikeBuildTimeline, BikeRunsSection } from '@/features/runs';
 import { BikeStageTimeline } from '@/features/comparisons';
 import { BikeReportsSection } from '@/features/reports';
 import { SimilarBuilds, TypicalOutcomePanel } from '@/features/finder';
+import { bikeLabel } from '@shared/labels';
 
 /**
  * The bike page: the bike's identity first, then everything the archive holds about it.
@@ -42,7 +43,7 @@ export function BikePage() {
     return <ErrorState error={bike.error} onRetry={() => bike.refetch()} isRetrying={bike.isFetching} />;
   }
   const b = bike.data;
-  const title = [b.year, b.make, b.model].filter(Boolean).join(' ');
+  const title = bikeLabel(b);
 
   return (
     <>

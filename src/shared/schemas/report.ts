@@ -5,8 +5,9 @@
  */
 import { z } from 'zod';
 import { optionalText, uuid } from './common';
+import type { UnitSystem } from '../units-display';
 
-export type ReportUnits = 'imperial' | 'metric';
+export type ReportUnits = UnitSystem;
 export type ReportPaperSize = 'letter' | 'a4';
 
 /** Days a new share link stays valid unless the sender picks another. */

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { optionalEmail, optionalText, requiredText } from './common';
+import { UNIT_SYSTEMS, type UnitSystem } from '../units-display';
 
 /** Atmospheric correction standards a shop may choose as its default for new comparisons and reports. */
 export const CORRECTION_STANDARDS = ['none', 'sae-j1349', 'sae-j1349-1990', 'iso-1585', 'din-70020', 'sae-j607'] as const;
@@ -11,7 +12,7 @@ export const shopSettingsInput = z.object({
   address: optionalText(1000),
   phone: optionalText(60),
   email: optionalEmail,
-  units: z.enum(['imperial', 'metric']),
+  units: z.enum(UNIT_SYSTEMS),
   paperSize: z.enum(['letter', 'a4']),
   defaultCorrection: z.enum(CORRECTION_STANDARDS),
 });
@@ -25,7 +26,7 @@ export interface ShopDto {
   phone: string | null;
   email: string | null;
   hasLogo: boolean;
-  units: 'imperial' | 'metric';
+  units: UnitSystem;
   paperSize: 'letter' | 'a4';
   defaultCorrection: CorrectionStandard;
 }

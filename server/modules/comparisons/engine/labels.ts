@@ -1,8 +1,8 @@
-/** Names the engine prints: bikes, runs and correction standards. */
-import { CORRECTION_STANDARDS } from '@shared/analysis/correction';
+/** Names the engine prints: bikes, runs and correction standards (each defined once in src/shared). */
+export { bikeLabel, runName } from '@shared/labels';
+import { correctionLabel } from '@shared/labels-display';
 
-export const bikeLabel = (b: { year: number | null; make: string; model: string }) => [b.year, b.make, b.model].filter((v) => v !== null && v !== undefined && v !== '').join(' ');
-export const runName = (r: { label: string | null; sequence: number; stage: { name: string } | null }) => r.label || `${r.stage?.name ?? 'Unstaged'} · run ${r.sequence}`;
-export const standardLabel = (s: string) => CORRECTION_STANDARDS.find((c) => c.id === s)?.label ?? s;
+/** A standard's label by id (one argument, so it can be passed to `map`). */
+export const standardLabel = (id: string) => correctionLabel(id);
 export const r4 = (v: number) => Math.round(v * 1e4) / 1e4;
 export const r3 = (v: number) => Math.round(v * 1e3) / 1e3;

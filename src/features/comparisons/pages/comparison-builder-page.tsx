@@ -12,6 +12,7 @@ import { comparisonQueries } from '../api/comparison-queries';
 import { ComparisonView } from '../components/comparison-view';
 import { RunPicker } from '../components/run-picker';
 import { SaveComparisonDialog } from '../components/save-comparison-dialog';
+import { bikeLabel } from '@shared/labels';
 
 const UNIT_LABELS: Record<ComparisonUnits, string> = { 'hp-lbft': 'hp and lb·ft', 'kw-nm': 'kW and N·m' };
 const BAND_WIDTHS = [250, 500, 1000, 1500, 2000];
@@ -148,7 +149,7 @@ export default function ComparisonBuilderPage() {
                 {bikeOptions.data.items.map((b) => (
                   <li key={b.id} className="flex items-center justify-between gap-3 py-2">
                     <span>
-                      {[b.year, b.make, b.model].filter(Boolean).join(' ')} <span className="text-ink-muted">· {b.customerName}</span>
+                      {bikeLabel(b)} <span className="text-ink-muted">· {b.customerName}</span>
                     </span>
                     <Button
                       size="sm"

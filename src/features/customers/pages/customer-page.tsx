@@ -12,6 +12,7 @@ import { customerQueries } from '../api/customer-queries';
 import { useDeleteCustomer } from '../api/delete-customer';
 import { CustomerFormDialog } from '../components/customer-form-dialog';
 import { PortalAccessDialog } from '../components/portal-access-dialog';
+import { bikeLabel } from '@shared/labels';
 
 export default function CustomerPage() {
   const { customerId = '' } = useParams();
@@ -168,7 +169,7 @@ function CustomerBikes({ customer, canEdit }: { customer: CustomerDto; canEdit: 
             <li key={b.id}>
               <Link to={paths.bike(b.id)} className="focus-ring flex flex-wrap items-baseline justify-between gap-x-4 gap-y-1 px-4 py-3 hover:bg-paper-sunk md:px-5">
                 <span className="font-semibold text-accent">
-                  {[b.year, b.make, b.model].filter(Boolean).join(' ')}
+                  {bikeLabel(b)}
                 </span>
                 <span className="num text-sm text-ink-muted">
                   {[b.engineFamily, b.displacementCc !== null ? `${formatNumber(b.displacementCc)} cm³ / ${formatNumber(ccToCubicInches(b.displacementCc), { decimals: 1 })} in³` : null, b.vin].filter(Boolean).join(' · ')}

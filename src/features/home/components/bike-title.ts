@@ -1,3 +1,2 @@
-import type { BikeDto } from '@shared/schemas/bike';
-
-export const bikeTitle = (b: Pick<BikeDto, 'year' | 'make' | 'model'>) => [b.year, b.make, b.model].filter(Boolean).join(' ');
+/** The home pages' bike title: the one bike label of src/shared/labels.ts. */
+export { bikeLabel as bikeTitle } from '@shared/labels';

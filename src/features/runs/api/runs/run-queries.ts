@@ -91,6 +91,4 @@ export const lookupQueries = {
     }),
 };
 
-export function bikeLabel(b: Pick<BikeDto, 'make' | 'model' | 'year'>): string {
-  return [b.year, b.make, b.model].filter(Boolean).join(' ');
-}
+export { bikeLabel } from '@shared/labels';

@@ -7,7 +7,7 @@ import { sessionInput, type SessionDto } from '@shared/schemas/run';
 import { cTo, kpaTo, pressureToKpa, temperatureToC } from '@shared/analysis/units';
 import { Button, FormError, NumberField, SelectField, TextAreaField, TextField } from '@/components/ui';
 import { formatNumber } from '@shared/format';
-import type { UnitSystem } from '@shared/units-display';
+import { UNIT_SYSTEMS, type UnitSystem } from '@shared/units-display';
 import { ApiError, applyFieldErrors } from '@/lib/api-client';
 import { sessionQueries } from '../../api/sessions/session-queries';
 import { useCreateSession, type SessionInput } from '../../api/sessions/create-session';
@@ -59,7 +59,7 @@ const blankNumber = z.preprocess(
  */
 const sessionFormSchema = z
   .object({
-    units: z.enum(['imperial', 'metric']),
+    units: z.enum(UNIT_SYSTEMS),
     startedAt: z.string().optional(),
     dynoId: z.string().optional(),
     ambientTemp: blankNumber,
