@@ -9,7 +9,7 @@ export {};
 process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED ??= 'true';
 
 const BENCHES: { name: string; load: () => Promise<{ run: () => Promise<void> }> }[] = [
-  { name: 'run-file analysis', load: () => import('./analyze.bench.js') },
+  { name: 'run-file analysis (analyze)', load: () => import('./analyze.bench.js') },
   { name: 'build finder', load: () => import('./finder.bench.js') },
   { name: 'gain-report PDF', load: () => import('./report.bench.js') },
   { name: 'run upload', load: () => import('./upload.bench.js') },

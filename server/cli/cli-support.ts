@@ -24,6 +24,12 @@ function numberArg(flag: string, value: string | undefined): number {
   return n;
 }
 
+function positiveArg(flag: string, value: string | undefined): number {
+  const n = numberArg(flag, value);
+  if (!(n > 0)) throw new AnalysisError('INVALID_OPTION', `${flag} needs a positive number.`);
+  return n;
+}
+
 /**
  * Parses the command line of a command, or answers the exit code when there is nothing to run:
  * 2 with the usage on stderr for bad options or the wrong number of files, 0 with it on stdout for --help.
@@ -67,6 +73,8 @@ export function parseCliArgs(argv: string[]): CliArgs {
       case '--temp': conditions.temperatureC = numberArg(flag, value()); break;
       case '--baro': conditions.baroKpa = numberArg(flag, value()); break;
       case '--humidity': conditions.humidityPct = numberArg(flag, value()); break;
+      case '--rpm-per-mph': out.options.rpmPerSpeed = { ratio: positiveArg(flag, value()), unit: 'mph' }; break;
+      case '--rpm-per-kmh': out.options.rpmPerSpeed = { ratio: positiveArg(flag, value()), unit: 'km/h' }; break;
       case '--map': {
         const v = value();
         try {
@@ -115,6 +123,15 @@ export function successSummary(file: string, r: AnalysisResult, withCurve = fals
   };
   if (withCurve) summary.curve = r.curve;
   return summary;
+}
+
+/**
+ * The `analyze --json` object for one pull of a log holding several: the single-pull object plus
+ * `pull` (which pull, where) and `review` (too many glitches).
+ */
+export function pullSummary(file: string, r: AnalysisResult, withCurve = false): Record<string, unknown> {
+  const { index, count, main, partial, sampleRange, lineRange, timeRange } = r.pull;
+  return { ...successSummary(file, r, withCurve), pull: { index, count, main, partial, sampleRange, lineRange, timeRange }, review: r.review };
 }
 
 /** The `analyze --json` object for a failed file. */

@@ -11,7 +11,9 @@ import { applyCorrection } from '@shared/analysis/curve';
 import { AnalysisError } from '@shared/analysis/errors';
 import { failureSummary, installCrashGuard, readCliArgs, round, successSummary } from './cli-support.js';
 
-const USAGE = `Usage: compare [--json] [--bands 1000] [--grid 50] [--smooth N] [--correction STD] [--temp C] [--baro kPa] [--humidity %] BEFORE AFTER`;
+const USAGE = `Usage: compare [--json] [--bands 1000] [--grid 50] [--smooth N] [--correction STD] [--temp C] [--baro kPa] [--humidity %]
+               [--rpm-per-mph N | --rpm-per-kmh N] BEFORE AFTER
+(A log holding several pulls is compared by its main pull, the one with the largest rpm rise.)`;
 
 async function main(): Promise<number> {
   installCrashGuard();

@@ -253,7 +253,30 @@ export interface RunFileFormat {
   /** Label the torque/power columns with these units while writing the values in `torqueUnit`/`powerUnit` (simulates a mix-up). */
   labelTorqueUnit?: TorqueUnit;
   labelPowerUnit?: PowerUnit;
+  /** Header language for time, engine speed, torque and power (default English). */
+  headerLanguage?: HeaderLanguage;
+  /** Engine speed written in thousands (3 decimals): labelled `x1000 rpm`, or with no unit at all. */
+  rpmThousands?: 'labelled' | 'unlabelled';
+  /** Road speed unit of the `speed` column (default mph). */
+  speedUnit?: 'mph' | 'kmh';
+  /** Text after the data table: a summary block, free notes, or a second (summary) table. */
+  footer?: 'summary' | 'notes' | 'second-table';
 }
+
+/** Languages of {@link RunFileFormat.headerLanguage}. */
+export type HeaderLanguage = 'en' | 'de' | 'fr' | 'it' | 'es' | 'nl';
+
+/** Time, engine speed (with its unit), torque and power names per language (invented wording, as dyno PCs in those languages label them). */
+const HEADER_NAMES: Record<Exclude<HeaderLanguage, 'en'>, { time: string; rpm: string; rpmUnit: string; torque: string; power: string }> = {
+  de: { time: 'Zeit', rpm: 'Drehzahl', rpmUnit: '1/min', torque: 'Drehmoment', power: 'Leistung' },
+  fr: { time: 'Temps', rpm: 'Régime moteur', rpmUnit: 'tr/min', torque: 'Couple', power: 'Puissance' },
+  it: { time: 'Tempo', rpm: 'Regime', rpmUnit: 'giri/min', torque: 'Coppia', power: 'Potenza' },
+  es: { time: 'Tiempo', rpm: 'Régimen', rpmUnit: 'rpm', torque: 'Par motor', power: 'Potencia' },
+  nl: { time: 'Tijd', rpm: 'Toerental', rpmUnit: 'omw/min', torque: 'Koppel', power: 'Vermogen' },
+};
+
+/** NIST SP 811 (2008), Appendix B: 1 mile = 1609.344 m exactly, so 1 mph = 1.609344 km/h. */
+const KMH_PER_MPH = 1.609344;
 
 const UNIT_LABEL: Record<string, Record<string, string>> = {
   brackets: { lbft: 'lb-ft', nm: 'Nm', kgfm: 'kgm', hp: 'hp', kw: 'kW', ps: 'PS' },
@@ -269,18 +292,24 @@ function headerCells(columns: SyntheticColumn[], f: Required<Pick<RunFileFormat,
   const names: string[] = [];
   const units: string[] = [];
   const side = ['Front', 'Rear', 'Third', 'Fourth'];
+  const lang = f.headerLanguage && f.headerLanguage !== 'en' ? HEADER_NAMES[f.headerLanguage] : null;
   for (const c of columns) {
     const push = (name: string, unit: string, abbr: string) => {
+      if (f.rpmThousands && c === 'rpm') {
+        names.push(f.rpmThousands === 'labelled' ? `${name} [x1000 rpm]` : name);
+        units.push('-');
+        return;
+      }
       if (f.headerStyle === 'abbreviated') names.push(abbr);
       else if (f.headerStyle === 'units-row') names.push(name);
       else names.push(unit ? (style === 'brackets' ? `${name} [${unit}]` : `${name} (${unit})`) : name);
       units.push(unit || '-');
     };
-    if (c === 'time') push('Time', 's', 'time');
-    else if (c === 'rpm') push(f.headerStyle === 'parentheses' ? 'Engine RPM' : 'Engine Speed', 'rpm', 'rpm');
-    else if (c === 'torque') push('Torque', L[tu], `tq_${UNIT_LABEL.abbreviated[tu]}`);
-    else if (c === 'power') push('Power', L[pu], UNIT_LABEL.abbreviated[pu]);
-    else if (c === 'speed') push('Road Speed', 'mph', 'mph');
+    if (c === 'time') push(lang?.time ?? 'Time', 's', 'time');
+    else if (c === 'rpm') push(lang?.rpm ?? (f.headerStyle === 'parentheses' ? 'Engine RPM' : 'Engine Speed'), lang?.rpmUnit ?? 'rpm', 'rpm');
+    else if (c === 'torque') push(lang?.torque ?? 'Torque', L[tu], `tq_${UNIT_LABEL.abbreviated[tu]}`);
+    else if (c === 'power') push(lang?.power ?? 'Power', L[pu], UNIT_LABEL.abbreviated[pu]);
+    else if (c === 'speed') push('Road Speed', f.speedUnit === 'kmh' ? 'km/h' : 'mph', f.speedUnit === 'kmh' ? 'kmh' : 'mph');
     else if (c === 'map') push('MAP', 'kPa', 'map_kpa');
     else if (c === 'iat') push('IAT', '°C', 'iat');
     else if (c === 'afr') for (let k = 0; k < afrChannels; k++) push(`AFR ${side[k] ?? k + 1}`, 'AFR', `afr${k + 1}`);
@@ -343,10 +372,10 @@ export function renderSample(s: SyntheticSample, format: RunFileFormat = {}): st
   const out: string[] = [];
   for (const c of columns) {
     if (c === 'time') out.push(formatNumber(s.time, 3, format));
-    else if (c === 'rpm') out.push(formatNumber(s.rpm, 0, format));
+    else if (c === 'rpm') out.push(format.rpmThousands ? formatNumber(s.rpm / 1000, 3, format) : formatNumber(s.rpm, 0, format));
     else if (c === 'torque') out.push(formatNumber(lbftTo(s.torqueLbft, tu), dec, format));
     else if (c === 'power') out.push(formatNumber(hpTo(s.powerHp, pu), dec, format));
-    else if (c === 'speed') out.push(formatNumber(s.speedMph, 1, format));
+    else if (c === 'speed') out.push(formatNumber(format.speedUnit === 'kmh' ? s.speedMph * KMH_PER_MPH : s.speedMph, 1, format));
     else if (c === 'map') out.push(formatNumber(s.manifoldKpa, 1, format));
     else if (c === 'iat') out.push(formatNumber(s.intakeAirC, 1, format));
     else if (c === 'afr') for (const a of s.afr) out.push(formatNumber(a, 2, format));
@@ -383,8 +412,24 @@ export function renderRunFile(run: SyntheticRun, format: RunFileFormat = {}): { 
   const eol = format.lineEnding ?? '\n';
   const lines = renderFileHead(format, run.samples[0]?.afr.length ?? 0);
   for (const s of run.samples) lines.push(renderSample(s, format));
+  lines.push(...footerLines(run, format));
   const text = lines.join(eol) + eol;
   return { text, bytes: encodeText(text, format.encoding) };
+}
+
+/** Lines after the data table (see {@link RunFileFormat.footer}). */
+export function footerLines(run: SyntheticRun, format: RunFileFormat): string[] {
+  const d = format.delimiter ?? ',';
+  const num = (v: number, dec: number) => formatNumber(v, dec, format);
+  const { peakPower, peakTorque } = run.truth;
+  if (format.footer === 'summary') {
+    return ['', ['Summary'].join(d), ['Max power', num(peakPower.hp, 1), 'hp', '@', num(peakPower.rpm, 0), 'rpm'].join(d), ['Max torque', num(peakTorque.lbft, 1), 'lb-ft', '@', num(peakTorque.rpm, 0), 'rpm'].join(d)];
+  }
+  if (format.footer === 'notes') return ['', 'Notes: second pull after cooling; fan on; tyre pressure checked.', 'Operator initials: DK'];
+  if (format.footer === 'second-table') {
+    return ['', ['Band', 'Avg Power [hp]', 'Avg Torque [lb-ft]'].join(d), ...[3000, 4000, 5000].map((r) => [`${r}-${r + 1000}`, num(modelPowerHp(run.engine, r + 500), 1), num(modelTorqueLbft(run.engine, r + 500), 1)].join(d))];
+  }
+  return [];
 }
 
 /** Convenience: generate a run and render it in one call. */
@@ -412,4 +457,128 @@ export function* largeRunFileChunks(targetBytes: number, options: SyntheticRunOp
     }
   }
   if (buf.length) yield buf.join(eol) + eol;
+}
+
+/** A sensor fault written into a run: what an engine-speed pickup does when it misbehaves. */
+export interface SyntheticGlitch {
+  /** Index of the first affected sample. */
+  at: number;
+  /** Drop-out to zero, a doubled or halved reading, or a single wild spike (+60 %). */
+  kind: 'dropout' | 'double' | 'half' | 'spike';
+  /** Consecutive samples affected (default 1). */
+  length?: number;
+  /** The dyno's torque reading spikes at the same time (×1.8), as a drum-acceleration torque does. */
+  torqueSpike?: boolean;
+}
+
+const GLITCH_FACTOR: Record<SyntheticGlitch['kind'], number> = { dropout: 0, double: 2, half: 0.5, spike: 1.6 };
+
+/**
+ * Writes pickup faults into a run's samples (a copy): the logged engine speed is wrong, and the
+ * logged power is what a dyno computes from that wrong speed (hp = lb·ft × rpm × 2π / 33 000), so a
+ * doubled reading doubles the logged power. `truth` is unchanged: the noise-free model.
+ */
+export function withGlitches(run: SyntheticRun, glitches: SyntheticGlitch[]): SyntheticRun {
+  const samples = run.samples.map((s) => ({ ...s, afr: [...s.afr] }));
+  for (const g of glitches) {
+    for (let i = g.at; i < Math.min(samples.length, g.at + (g.length ?? 1)); i++) {
+      const s = samples[i];
+      s.rpm *= GLITCH_FACTOR[g.kind];
+      if (g.torqueSpike) s.torqueLbft *= 1.8;
+      s.powerHp = hpOf(s.torqueLbft, s.rpm);
+      s.speedMph = s.rpm / 46;
+    }
+  }
+  return { ...run, samples };
+}
+
+/** One wide-open-throttle pull of a multi-pull log. */
+export interface SyntheticPull {
+  startRpm: number;
+  endRpm: number;
+}
+
+/** Options of a continuous log holding several pulls. */
+export interface SyntheticLogOptions {
+  seed?: number;
+  engine?: Partial<EngineModel>;
+  pulls: SyntheticPull[];
+  /** rpm per second while sweeping (coast-downs fall at twice this rate). */
+  sweepRate?: number;
+  sampleHz?: number;
+  /** Seconds held at part throttle (35 % load) at a pull's start rpm before it. */
+  leadInSeconds?: number;
+  /** Between pulls: coast down to idle and idle this long, then rise at part throttle to the next start. 0 = coast down to the next start rpm only. */
+  idleSeconds?: number;
+  idleRpm?: number;
+  rpmNoise?: number;
+  torqueNoise?: number;
+  afrChannels?: number;
+}
+
+/** A multi-pull log with the model's peaks per pull. */
+export interface SyntheticLog extends SyntheticRun {
+  pulls: { startRpm: number; endRpm: number; sweepStart: number; sweepEnd: number; peakPower: { hp: number; rpm: number }; peakTorque: { lbft: number; rpm: number } }[];
+}
+
+/**
+ * A continuous log with several pulls separated by coast-downs (throttle off, torque −4 lb·ft,
+ * rpm falling at twice the sweep rate) and optionally idling. `truth` describes the pull with the
+ * largest rpm rise (the main one); `pulls` every pull in time order.
+ */
+export function syntheticLog(options: SyntheticLogOptions): SyntheticLog {
+  const engine = { ...DEFAULT_ENGINE, ...options.engine };
+  const rate = options.sweepRate ?? 500;
+  const hz = options.sampleHz ?? 20;
+  const leadIn = options.leadInSeconds ?? 1.5;
+  const idleSeconds = options.idleSeconds ?? 0;
+  const idleRpm = options.idleRpm ?? 1100;
+  const rnd = createRandom(options.seed ?? 1);
+  const rpmNoise = options.rpmNoise ?? 4;
+  const torqueNoise = options.torqueNoise ?? 0.25;
+  const afrChannels = options.afrChannels ?? 2;
+  // Phases: [seconds, rpm at start, rpm at end, load: 'wot' | 'part' | 'coast' | 'idle'].
+  type Load = 'wot' | 'part' | 'coast' | 'idle';
+  const phases: [number, number, number, Load][] = [];
+  options.pulls.forEach((p, k) => {
+    const next = options.pulls[k + 1];
+    phases.push([leadIn, p.startRpm, p.startRpm, 'part']);
+    phases.push([(p.endRpm - p.startRpm) / rate, p.startRpm, p.endRpm, 'wot']);
+    const floor = next ? (idleSeconds > 0 ? idleRpm : next.startRpm) : Math.max(1000, p.startRpm - 500);
+    phases.push([Math.max(0.5, (p.endRpm - floor) / (2 * rate)), p.endRpm, floor, 'coast']);
+    if (next && idleSeconds > 0) {
+      phases.push([idleSeconds, idleRpm, idleRpm, 'idle']);
+      phases.push([1, idleRpm, next.startRpm, 'part']);
+    }
+  });
+  const samples: SyntheticSample[] = [];
+  const pulls: SyntheticLog['pulls'] = [];
+  let t0 = 0;
+  for (const [seconds, from, to, load] of phases) {
+    const count = Math.round(seconds * hz);
+    const first = samples.length;
+    for (let j = 0; j < count; j++) {
+      const t = t0 + j / hz;
+      const rpm = from + ((to - from) * j) / count;
+      const noisyRpm = rpm + rnd.gaussian(rpmNoise);
+      const model = modelTorqueLbft(engine, rpm);
+      const torque =
+        (load === 'wot' ? model : load === 'part' ? 0.35 * model : load === 'idle' ? 2 : -4) + rnd.gaussian(torqueNoise);
+      samples.push({
+        time: t,
+        rpm: noisyRpm,
+        torqueLbft: torque,
+        powerHp: hpOf(torque, noisyRpm),
+        speedMph: noisyRpm / 46,
+        afr: Array.from({ length: afrChannels }, (_, k) => (load === 'wot' ? 13.1 + 0.2 * k : 15.5) + rnd.gaussian(0.05)),
+        manifoldKpa: load === 'wot' ? 98 : 30,
+        intakeAirC: 28 + 0.001 * samples.length,
+      });
+    }
+    if (load === 'wot') pulls.push({ startRpm: from, endRpm: to, sweepStart: first, sweepEnd: samples.length - 1, ...modelPeaks(engine, from, to) });
+    t0 += count / hz;
+  }
+  let main = pulls[0];
+  for (const p of pulls) if (p.endRpm - p.startRpm > main.endRpm - main.startRpm) main = p;
+  return { samples, engine, pulls, truth: { sweepStart: main.sweepStart, sweepEnd: main.sweepEnd, startRpm: main.startRpm, endRpm: main.endRpm, peakPower: main.peakPower, peakTorque: main.peakTorque } };
 }

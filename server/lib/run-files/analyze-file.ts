@@ -4,16 +4,23 @@
  */
 import { open } from 'node:fs/promises';
 import {
-  type AnalysisResult, type AnalyzeOptions, HEAD_CHARS, createFeeder, estimateRows, finishAnalysis, normaliseOptions, prepareRead, utf8Length,
+  type AnalysisPulls, type AnalysisResult, type AnalyzeOptions, HEAD_CHARS, createFeeder, estimateRows, normaliseOptions, prepareRead, utf8Length,
 } from '@shared/analysis/analyze';
+import { finishPulls } from '@shared/analysis/pulls';
 import { SNIFF_BYTES, createStreamDecoder, detectEncoding } from '@shared/analysis/decode';
 import { AnalysisError, toAnalysisError } from '@shared/analysis/errors';
 import { RowCollector } from '@shared/analysis/table';
 
 const CHUNK_BYTES = 128 * 1024;
 
-/** Analyses a file on disk with bounded memory. Rejects with AnalysisError only. */
+/** Analyses a file on disk with bounded memory: the main pull (largest rpm rise). Rejects with AnalysisError only. */
 export async function analyzeFile(path: string, options: AnalyzeOptions = {}): Promise<AnalysisResult> {
+  const all = await analyzeFilePulls(path, options);
+  return all.pulls[all.main];
+}
+
+/** Analyses a file on disk with bounded memory: every pull of the log, in time order. Rejects with AnalysisError only. */
+export async function analyzeFilePulls(path: string, options: AnalyzeOptions = {}): Promise<AnalysisPulls> {
   let handle: Awaited<ReturnType<typeof open>> | undefined;
   try {
     const opts = normaliseOptions(options);
@@ -64,15 +71,15 @@ export async function analyzeFile(path: string, options: AnalyzeOptions = {}): P
         skip = 0;
       }
     } else feeder.push(encoder.encode(head.slice(prepared.layout.dataStart)));
-    while (!ended) {
+    while (!ended && !feeder.stopped) {
       const chunk = await readChunk();
       if (!chunk) {
         if (!utf8) feeder.push(encoder.encode(decoder.end()));
         ended = true;
-      } else feeder.push(utf8 ? chunk.slice() : encoder.encode(decoder.write(chunk)));
+      } else feeder.push(utf8 ? chunk : encoder.encode(decoder.write(chunk)));
     }
     feeder.end();
-    return finishAnalysis(collector, prepared, opts);
+    return finishPulls(collector, prepared, opts);
   } catch (e) {
     throw toAnalysisError(e, 'READ_FAILED');
   } finally {

@@ -5,6 +5,7 @@
 import { AnalysisError } from './errors.js';
 import { type HeaderCell, headerSignature, normaliseName, parseHeaderCell } from './header.js';
 import { parseNumber } from './numbers.js';
+import type { AnalysisWarning } from './warnings.js';
 import {
   HP_TORQUE_CONSTANT,
   type PowerUnit,
@@ -28,6 +29,8 @@ export interface ColumnMapping {
 /** Which column index plays which role, with units. */
 export interface ColumnPlan {
   rpm: number;
+  /** Factor turning the rpm column's values into rpm (1; 1000 for krpm; rpm per speed unit for a speed column). */
+  rpmScale: number;
   torque: { index: number; unit: TorqueUnit; unitAssumed: boolean } | null;
   power: { index: number; unit: PowerUnit; unitAssumed: boolean } | null;
   time: number | null;
@@ -39,7 +42,7 @@ export interface ColumnPlan {
   confidence: number;
   cells: HeaderCell[];
   signature: string;
-  warnings: { code: string; message: string }[];
+  warnings: AnalysisWarning[];
 }
 
 /** Help for the mapping screen, carried in `details` of NEEDS_MAPPING / NO_RPM_COLUMN / NO_POWER_OR_TORQUE. */
@@ -50,17 +53,40 @@ export interface MappingHelp {
   headerSignature: string;
   /** Roles the user must map. */
   needs: string[];
+  /** For NO_RPM_COLUMN: the road/roller speed column found, when there is one. */
+  speedColumn?: string;
+  /** For NO_RPM_COLUMN with a speed column: how to compute engine speed from it. */
+  rpmPerSpeedHint?: string;
 }
+
+/** Engine speed per road speed for the gear used (e.g. 46 rpm per mph). */
+export interface RpmPerSpeed {
+  ratio: number;
+  unit: 'mph' | 'km/h';
+}
+
+/** NIST SP 811 (2008), Appendix B: 1 mile = 1609.344 m exactly, so 1 mph = 1.609344 km/h. */
+export const KMH_PER_MPH = 1.609344;
 
 /** Most columns a run file may have. */
 export const MAX_COLUMNS = 256;
 
-const RPM_NAME = /^(engine speed|engine rpm|eng rpm|eng speed|rpm|rpm engine|engine|revs?|n|motor speed|motor rpm|engine revs|speed rpm|crank rpm|rpm eng|e rpm)$/;
-const ROLLER_NAME = /(roller|drum|wheel|road|vehicle|veh|ground)/;
-const TORQUE_NAME = /^(torque|tq|trq|engine torque|wheel torque|tor|rear wheel torque|corrected torque|obs torque|observed torque|uncorrected torque)(\s.*)?$/;
-const POWER_NAME = /^(power|pwr|hp|bhp|whp|kw|ps|engine power|wheel power|rear wheel power|corrected power|obs power|observed power|uncorrected power|horsepower)(\s.*)?$/;
-const TIME_NAME = /^(time|t|elapsed|elapsed time|timestamp|time s|sec|seconds)$/;
-const SPEED_NAME = /^(speed|road speed|roller speed|vehicle speed|veh speed|wheel speed|drum speed|mph|kmh|km h|kph|velocity)$/;
+// Names are matched accent-folded and lower-case (HeaderCell.key). Besides English: German,
+// French, Italian, Spanish and Dutch names for engine speed, torque, power, time and road speed.
+const RPM_NAME =
+  /^(engine speed|engine rpm|eng rpm|eng speed|rpm|rpm engine|engine|revs?|n|motor speed|motor rpm|engine revs|speed rpm|crank rpm|rpm eng|e rpm|drehzahl|motordrehzahl|motor drehzahl|n motor|regime|regime moteur|vitesse moteur|regime motore|giri|giri motore|regimen|regimen motor|regimen del motor|toerental|motortoerental|motor toerental|toeren)$/;
+const ROLLER_NAME = /(roller|drum|wheel|road|vehicle|veh|ground|rolle|rouleau|rullo|rodillo|fahrzeug|vehicule|veicolo|vehiculo|voertuig)/;
+const TORQUE_NAME =
+  /^(torque|tq|trq|engine torque|wheel torque|tor|rear wheel torque|corrected torque|obs torque|observed torque|uncorrected torque|drehmoment|motordrehmoment|couple|couple moteur|coppia|coppia motore|par|par motor|koppel|motorkoppel)(\s.*)?$/;
+const POWER_NAME =
+  /^(power|pwr|hp|bhp|whp|kw|ps|engine power|wheel power|rear wheel power|corrected power|obs power|observed power|uncorrected power|horsepower|leistung|motorleistung|puissance|potenza|potencia|vermogen)(\s.*)?$/;
+const TIME_NAME = /^(time|t|elapsed|elapsed time|timestamp|time s|sec|seconds|zeit|temps|tempo|tiempo|tijd)$/;
+const SPEED_NAME =
+  /^(speed|road speed|roller speed|vehicle speed|veh speed|wheel speed|drum speed|mph|kmh|km h|kph|velocity|geschwindigkeit|vitesse|velocita|velocidad|snelheid)$/;
+/** Engine speed logged in thousands: `x1000`, `krpm`, `1000 rpm`, `rpm x 1000`. */
+const THOUSANDS = /(^|\s)(x\s?1000|krpm|1000\s?(rpm|1 min|u min|tr min)|(rpm|1 min|u min|tr min)\s?x\s?1000)(\s|$)/;
+/** Units meaning revolutions per minute (accent-free). */
+const RPM_UNIT = /^(rpm|1\/min|min-1|min\^-1|rev\/min|u\/min|r\/min|tr\/min|giri\/min|omw\/min|t\/min)$/;
 const AFR_NAME = /^(afr|a f|air fuel|air fuel ratio|afr\s?.+|.+\safr|a f ratio|a f\s.+|wideband.*|o2.*)$/;
 const LAMBDA_NAME = /^(lambda|lam|lambda\s?.+|.+\slambda)$/;
 const MAP_NAME = /^(map|manifold pressure|manifold abs pressure|boost|manifold|map kpa|intake pressure)$/;
@@ -71,7 +97,7 @@ function unitSuffix(name: string): string {
   const words = name.split(' ');
   for (let i = words.length - 1; i >= 1; i--) {
     const tail = words.slice(i).join('');
-    if (parseTorqueUnit(tail) || parsePowerUnit(tail) || parseSpeedUnit(tail) || tail === 'rpm') return tail;
+    if (parseTorqueUnit(tail) || parsePowerUnit(tail) || parseSpeedUnit(tail) || tail === 'rpm' || tail === 'krpm') return tail;
   }
   return '';
 }
@@ -133,6 +159,7 @@ export function recogniseColumns(
   fieldCount: number,
   decimalComma: boolean,
   mapping?: ColumnMapping,
+  rpmPerSpeed?: RpmPerSpeed,
 ): ColumnPlan {
   const width = Math.max(fieldCount, header?.length ?? 0);
   if (width > MAX_COLUMNS) throw new AnalysisError('TOO_MANY_COLUMNS', `The table has ${width} columns; at most ${MAX_COLUMNS} are accepted.`);
@@ -142,9 +169,9 @@ export function recogniseColumns(
     cells.push(parseHeaderCell(text, unitsRow?.[i]));
   }
   const signature = headerSignature(cells);
-  const warnings: { code: string; message: string }[] = [];
+  const warnings: AnalysisWarning[] = [];
   const plan: ColumnPlan = {
-    rpm: -1, torque: null, power: null, time: null, speed: null, manifoldPressure: null, intakeAirTemp: null, afr: [],
+    rpm: -1, rpmScale: 1, torque: null, power: null, time: null, speed: null, manifoldPressure: null, intakeAirTemp: null, afr: [],
     confidence: 0, cells, signature, warnings,
   };
   const help = (needs: string[], suggestions: Partial<ColumnMapping>): MappingHelp => ({
@@ -177,13 +204,18 @@ export function recogniseColumns(
   const taken = new Set<number>([plan.rpm, plan.torque?.index ?? -1, plan.power?.index ?? -1]);
   cells.forEach((cell, i) => {
     if (taken.has(i)) return;
-    const name = cell.name;
-    const unit = cell.unit || unitSuffix(name);
+    const thousands = THOUSANDS.test(`${cell.key} ${cell.unit.replace(/[^a-z0-9]+/g, ' ')}`.trim()) || cell.unit === 'krpm' || /(^|\s)krpm$/.test(cell.key);
+    const name = thousands ? cell.key.replace(/(^|\s)(x\s?1000|krpm|1000)(?=\s|$)/g, ' ').trim() || 'rpm' : cell.key;
+    const unit = thousands ? 'rpm' : cell.unit || unitSuffix(name);
     const bare = unitSuffix(name) ? name.slice(0, name.length - unitSuffix(name).length).trim() || name : name;
-    const unitIsRpm = /^(rpm|1\/min|min-1|min\^-1|rev\/min|u\/min|r\/min)$/.test(unit);
-    if (!mapping && plan.rpm < 0 && !ROLLER_NAME.test(name) && (RPM_NAME.test(name) || RPM_NAME.test(bare) || (unitIsRpm && /speed|rpm|engine|n\b/.test(name)))) {
+    const unitIsRpm = RPM_UNIT.test(unit);
+    if (!mapping && plan.rpm < 0 && !ROLLER_NAME.test(name) && (RPM_NAME.test(name) || RPM_NAME.test(bare) || (unitIsRpm && /speed|rpm|engine|drehzahl|regime|giri|toeren|n\b/.test(name)))) {
       plan.rpm = i;
       rpmConfidence = RPM_NAME.test(name) || unitIsRpm ? 1 : 0.8;
+      if (thousands) {
+        plan.rpmScale = 1000;
+        warnings.push({ code: 'RPM_SCALED', message: `Engine speed in "${cell.original}" is labelled in thousands of rpm; its values were multiplied by 1000.` });
+      }
       return;
     }
     if (!mapping && !plan.torque && (TORQUE_NAME.test(name) || TORQUE_NAME.test(bare) || (parseTorqueUnit(unit) && !POWER_NAME.test(name)))) {
@@ -221,13 +253,32 @@ export function recogniseColumns(
     }
     if (plan.intakeAirTemp === null && IAT_NAME.test(bare)) plan.intakeAirTemp = i;
   });
-  if (mapping) return plan;
+  if (mapping) {
+    settleRpmScale(plan, preview, decimalComma);
+    return plan;
+  }
 
   // Plausibility of values when names did not settle it.
   const numericCols = cells.map((_, i) => columnValues(preview, i, decimalComma));
   const free = (i: number) =>
     i !== plan.rpm && i !== plan.torque?.index && i !== plan.power?.index && i !== plan.time && !plan.afr.some((a) => a.index === i) &&
     i !== plan.speed?.index && i !== plan.manifoldPressure && i !== plan.intakeAirTemp;
+  if (plan.rpm < 0 && plan.speed && rpmPerSpeed) {
+    if (!(Number.isFinite(rpmPerSpeed.ratio) && rpmPerSpeed.ratio > 0) || !['mph', 'km/h'].includes(rpmPerSpeed.unit)) {
+      throw new AnalysisError('INVALID_OPTION', 'The engine-speed ratio must be a positive number of rpm per mph or per km/h.');
+    }
+    const columnUnit = plan.speed.unit === 'kmh' ? 'km/h' : 'mph';
+    const convert = columnUnit === rpmPerSpeed.unit ? 1 : columnUnit === 'km/h' ? 1 / KMH_PER_MPH : KMH_PER_MPH;
+    plan.rpm = plan.speed.index;
+    plan.rpmScale = rpmPerSpeed.ratio * convert;
+    rpmConfidence = 1;
+    const speedName = cells[plan.speed.index].original;
+    plan.speed = null;
+    warnings.push({
+      code: 'RPM_FROM_SPEED',
+      message: `The file has no engine-speed column; engine speed was computed from "${speedName}" (${columnUnit}) at ${rpmPerSpeed.ratio} rpm per ${rpmPerSpeed.unit}. It is only right for the gear that ratio belongs to.`,
+    });
+  }
   if (plan.rpm < 0) {
     let bestI = -1;
     let bestRange = 0;
@@ -246,10 +297,20 @@ export function recogniseColumns(
     }
   }
   if (plan.rpm < 0) {
+    if (plan.speed) {
+      const speedColumn = cells[plan.speed.index].original;
+      const unit = plan.speed.unit === 'kmh' ? 'km/h' : 'mph';
+      throw new AnalysisError(
+        'NO_RPM_COLUMN',
+        `No engine-speed (rpm) column was found, but there is a road/roller speed column ("${speedColumn}"). Give the engine-speed ratio for the gear used (rpm per mph or per km/h) to compute engine speed from it, or map the columns by hand.`,
+        { details: { ...help(['rpm'], {}), speedColumn, rpmPerSpeedHint: `Engine speed = ${unit} × ratio (rpm per ${unit}, for the gear used); e.g. the rpm shown at a steady road speed, divided by that speed.` } },
+      );
+    }
     throw new AnalysisError('NO_RPM_COLUMN', 'No engine-speed (rpm) column was found; map the columns by hand.', {
       details: help(['rpm'], {}),
     });
   }
+  settleRpmScale(plan, preview, decimalComma);
   if (!plan.torque && !plan.power) {
     // Try every free pair: the one obeying power = torque × rpm / 5252 is very likely right.
     const rpmVals = preview.map((r) => parseNumber(r[plan.rpm] ?? '', decimalComma));
@@ -299,4 +360,26 @@ export function recogniseColumns(
   if (plan.torque?.unitAssumed) warnings.push({ code: 'UNIT_ASSUMED', message: `No unit given for torque column "${cells[plan.torque.index].original}"; lb·ft assumed.` });
   if (plan.power?.unitAssumed) warnings.push({ code: 'UNIT_ASSUMED', message: `No unit given for power column "${cells[plan.power.index].original}"; hp assumed.` });
   return plan;
+}
+
+/** Largest value an engine-speed column logged in thousands can hold (20 000 rpm → 20). */
+const MAX_THOUSANDS_VALUE = 25;
+
+/**
+ * Engine speed logged in thousands without a label (values 1.5–9 …): no engine turns at 25 rpm
+ * or less under load, so an rpm column whose preview values all lie in (0, 25] is scaled by 1000.
+ */
+function settleRpmScale(plan: ColumnPlan, preview: string[][], decimalComma: boolean): void {
+  if (plan.rpmScale !== 1) return;
+  const vals = columnValues(preview, plan.rpm, decimalComma);
+  if (vals.length < Math.min(5, preview.length) || vals.length === 0) return;
+  const hi = Math.max(...vals);
+  const lo = Math.min(...vals);
+  if (lo >= 0 && hi >= 0.5 && hi <= MAX_THOUSANDS_VALUE) {
+    plan.rpmScale = 1000;
+    plan.warnings.push({
+      code: 'RPM_SCALED',
+      message: `Engine speed in "${plan.cells[plan.rpm].original}" reads ${lo}–${hi}: taken as thousands of rpm and multiplied by 1000.`,
+    });
+  }
 }

@@ -11,6 +11,13 @@ export interface HeaderCell {
   name: string;
   /** Unit text from brackets, parentheses or the units row, lower-case; '' when none. */
   unit: string;
+  /** `name` with accents folded first (`régime` → `regime`), for matching only (not in the signature). */
+  key: string;
+}
+
+/** Folds accented Latin letters to their base letter (NFD, combining marks removed; ß → ss). */
+export function foldAccents(text: string): string {
+  return text.normalize('NFD').replace(/[\u0300-\u036f]/g, '').replace(/ß/g, 'ss');
 }
 
 const UNIT_IN_BRACKETS = /^(.*?)[\s_]*[[(]([^\])]*)[\])]\s*$/;
@@ -34,11 +41,11 @@ export function parseHeaderCell(original: string, unitRowCell?: string): HeaderC
     unit = m[2];
   }
   if (!unit && unitRowCell) unit = unitRowCell.replace(/^[[(]|[\])]$/g, '');
-  return { original, name: normaliseName(name), unit: unit.trim().toLowerCase() };
+  return { original, name: normaliseName(name), unit: unit.trim().toLowerCase(), key: normaliseName(foldAccents(name)) };
 }
 
 const UNIT_TOKENS = new Set([
-  'rpm', '1/min', 'min-1', 'min^-1', 'rev/min', 'u/min', 'r/min',
+  'rpm', '1/min', 'min-1', 'min^-1', 'rev/min', 'u/min', 'r/min', 'tr/min', 'giri/min', 'rpm x1000', 'x1000 rpm', 'krpm', 'x1000',
   'ft-lb', 'ft-lbs', 'lb-ft', 'lbs-ft', 'ftlb', 'ftlbs', 'lbft', 'lb·ft', 'lbf·ft', 'lbf ft', 'ft lb', 'lb ft', 'ft.lb', 'lb.ft',
   'nm', 'n.m', 'n·m', 'n-m', 'n m', 'kgm', 'kgfm', 'kgf·m', 'kgf.m', 'mkg',
   'hp', 'bhp', 'whp', 'kw', 'ps', 'cv',

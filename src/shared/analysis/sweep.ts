@@ -16,10 +16,21 @@ export function jitterTolerance(rpm: number): number {
   return Math.max(40, 0.015 * rpm);
 }
 
-/** Finds the main accelerating sweep in `rpm[0..n)`. Returns null for fewer than two points. */
-export function findSweep(rpm: ArrayLike<number>, n = rpm.length): SweepRange | null {
-  if (n < 2) return null;
-  let best: { start: number; maxIdx: number; minBefore: number; gain: number } | null = null;
+interface Stretch {
+  start: number;
+  maxIdx: number;
+  minBefore: number;
+  gain: number;
+}
+
+/**
+ * The stretches of `rpm[0..n)` in which rpm never falls more than the jitter tolerance below its
+ * running maximum: those rising by `minRise` or more (in order), and the one rising most. (A
+ * coast-down is a stretch per sample: they are not kept, so memory stays small on long logs.)
+ */
+function stretches(rpm: ArrayLike<number>, n: number, minRise: number): { kept: Stretch[]; best: Stretch } {
+  const out: Stretch[] = [];
+  let best: Stretch | null = null;
   let start = 0;
   let runMax = rpm[0];
   let maxIdx = 0;
@@ -27,7 +38,10 @@ export function findSweep(rpm: ArrayLike<number>, n = rpm.length): SweepRange | 
   let minBeforeMax = rpm[0];
   const close = () => {
     const gain = runMax - minBeforeMax;
-    if (!best || gain > best.gain) best = { start, maxIdx, minBefore: minBeforeMax, gain };
+    if (gain < minRise && best && gain <= best.gain) return;
+    const st = { start, maxIdx, minBefore: minBeforeMax, gain };
+    if (gain >= minRise) out.push(st);
+    if (!best || gain > best.gain) best = st;
   };
   for (let i = 1; i < n; i++) {
     const r = rpm[i];
@@ -46,12 +60,31 @@ export function findSweep(rpm: ArrayLike<number>, n = rpm.length): SweepRange | 
     }
   }
   close();
-  const b = best as unknown as { start: number; maxIdx: number; minBefore: number; gain: number };
-  // Drop the steady lead-in: the sweep starts where rpm last sat near the stretch's minimum.
+  return { kept: out, best: best as unknown as Stretch };
+}
+
+/** Drops the steady lead-in: the sweep starts where rpm last sat near the stretch's minimum. */
+function toRange(rpm: ArrayLike<number>, b: Stretch): SweepRange {
   const tol = jitterTolerance(b.minBefore);
   let sweepStart = b.start;
   for (let i = b.start; i <= b.maxIdx; i++) if (rpm[i] <= b.minBefore + tol) sweepStart = i;
   return { start: sweepStart, end: b.maxIdx, riseRpm: b.gain };
+}
+
+/** Finds the main accelerating sweep (the largest rpm rise) in `rpm[0..n)`. Returns null for fewer than two points. */
+export function findSweep(rpm: ArrayLike<number>, n = rpm.length): SweepRange | null {
+  if (n < 2) return null;
+  return toRange(rpm, stretches(rpm, n, Infinity).best);
+}
+
+/**
+ * Finds every accelerating sweep of `rpm[0..n)` rising by at least `minRise` rpm, in time order
+ * (several wide-open-throttle pulls separated by coast-downs or idling). Coast-downs never belong
+ * to a sweep: a stretch ends as soon as rpm falls below its running maximum by more than jitter.
+ */
+export function findSweeps(rpm: ArrayLike<number>, minRise: number, n = rpm.length): SweepRange[] {
+  if (n < 2) return [];
+  return stretches(rpm, n, minRise).kept.map((s) => toRange(rpm, s));
 }
 
 function medianOfRange(v: ArrayLike<number>, from: number, to: number): number {

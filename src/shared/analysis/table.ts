@@ -19,6 +19,11 @@ export const MAX_RPM = 20_000;
 export const MAX_TORQUE_LBFT = 2_000;
 /** Highest plausible power, hp. */
 export const MAX_POWER_HP = 5_000;
+/**
+ * Numeric rows after which a non-data row (summary block, notes, a second table's header) ends the
+ * data table instead of being an error.
+ */
+export const TABLE_END_MIN_ROWS = 10;
 
 /**
  * A Float32Array that grows by half again (7 significant digits is ample for dyno channels and
@@ -50,6 +55,8 @@ export class RowCollector {
   readonly torque: GrowableSeries;
   readonly power: GrowableSeries;
   readonly afr: GrowableSeries[];
+  /** Time channel (NaN per row when the file has none). */
+  readonly time: GrowableSeries;
   /** Records seen so far (for locating a rejected one). */
   seen = 0;
   /** Builds the error once the file line of the rejected record is known. */
@@ -60,6 +67,12 @@ export class RowCollector {
   blankRows = 0;
   /** Records with no numbers at all (trailer text, repeated header) — ignored. */
   textRows = 0;
+  /** Set when a non-data row after {@link TABLE_END_MIN_ROWS} numeric rows ended the table. */
+  tableEnded = false;
+  /** 1-based file line of the row that ended the table (filled in by the feeder). */
+  tableEndLine: number | null = null;
+  /** For each skipped record (blank cell or text) before the data ended: the numeric rows collected before it. */
+  readonly skippedBefore: number[] = [];
 
   constructor(
     private readonly plan: ColumnPlan,
@@ -71,13 +84,38 @@ export class RowCollector {
     this.torque = new GrowableSeries(plan.torque ? cap : 16);
     this.power = new GrowableSeries(plan.power ? cap : 16);
     this.afr = plan.afr.map(() => new GrowableSeries(cap));
+    this.time = new GrowableSeries(plan.time !== null ? cap : 16);
+    this.rpmScale = plan.rpmScale;
+  }
+
+  private readonly rpmScale: number;
+
+  /** 0-based record (data row) index of collected sample `i`, counting skipped records. */
+  recordIndexOf(i: number): number {
+    let r = i;
+    for (const s of this.skippedBefore) if (s <= i) r++;
+    return r;
+  }
+
+  /** True when a non-numeric record is not shaped like a data row (so it ends the table). */
+  private endsTable(record: string[], rpmText: string): boolean {
+    if (this.numericRows < TABLE_END_MIN_ROWS) return false;
+    if (rpmText.length > 0 && Number.isNaN(parseNumber(rpmText, this.decimalComma))) return true;
+    let numeric = 0;
+    let nonEmpty = 0;
+    for (const f of record) {
+      if (f.length === 0) continue;
+      nonEmpty++;
+      if (!Number.isNaN(parseNumber(f, this.decimalComma))) numeric++;
+    }
+    return numeric === 0 || numeric < 0.6 * nonEmpty;
   }
 
   /** Sink for {@link BlockFeeder}: adds records, returns the index of a rejected one or -1. */
   addAll(records: string[][]): number {
     for (let i = 0; i < records.length; i++) {
       this.add(records[i]);
-      if (this.pendingError) return i;
+      if (this.pendingError || this.tableEnded) return i;
     }
     return -1;
   }
@@ -88,7 +126,7 @@ export class RowCollector {
 
   /** Handles one record; records an error (and stops collecting) on bad input. */
   add(record: string[]): void {
-    if (this.pendingError) return;
+    if (this.pendingError || this.tableEnded) return;
     this.seen++;
     if (record.length > MAX_COLUMNS) {
       const n = record.length;
@@ -97,12 +135,18 @@ export class RowCollector {
     }
     const { plan, decimalComma } = this;
     const rpmText = record[plan.rpm] ?? '';
-    const rpm = parseNumber(rpmText, decimalComma);
+    const rpmRead = parseNumber(rpmText, decimalComma);
+    const rpm = this.rpmScale === 1 ? rpmRead : rpmRead * this.rpmScale;
     const tqText = plan.torque ? (record[plan.torque.index] ?? '') : '';
     const pwText = plan.power ? (record[plan.power.index] ?? '') : '';
     const tq = plan.torque ? parseNumber(tqText, decimalComma) : 0;
     const pw = plan.power ? parseNumber(pwText, decimalComma) : 0;
     if (Number.isNaN(rpm) || Number.isNaN(tq) || Number.isNaN(pw)) {
+      if (this.endsTable(record, rpmText)) {
+        this.tableEnded = true;
+        return;
+      }
+      this.skippedBefore.push(this.numericRows);
       if (!record.some((f) => f.length > 0 && !Number.isNaN(parseNumber(f, decimalComma)))) {
         this.textRows++;
         return;
@@ -119,7 +163,7 @@ export class RowCollector {
     }
     if (rpm < 0 || rpm > MAX_RPM) {
       const column = this.header(plan.rpm);
-      this.pendingError = (line) => new AnalysisError('ABSURD_VALUE', `Line ${line}: an engine speed of ${rpm} rpm is not plausible (0–${MAX_RPM}).`, { line, column });
+      this.pendingError = (line) => new AnalysisError('ABSURD_VALUE', `Line ${line}: an engine speed of ${this.rpmScale === 1 ? rpm : `${rpmText} × ${this.rpmScale}`} rpm is not plausible (0–${MAX_RPM}).`, { line, column });
       return;
     }
     if (plan.torque && Math.abs(torqueToLbft(tq, plan.torque.unit)) > MAX_TORQUE_LBFT) {
@@ -138,6 +182,7 @@ export class RowCollector {
     this.rpm.push(rpm);
     this.torque.push(tq);
     this.power.push(pw);
+    if (plan.time !== null) this.time.push(parseNumber(record[plan.time] ?? '', decimalComma));
     for (let k = 0; k < plan.afr.length; k++) this.afr[k].push(parseNumber(record[plan.afr[k].index] ?? '', decimalComma));
   }
 }

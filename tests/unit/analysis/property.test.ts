@@ -1,7 +1,7 @@
 import { describe, it } from 'vitest';
 import fc from 'fast-check';
 import { AnalysisError, analyzeBuffer } from '@shared/analysis/index';
-import { type RunFileFormat, syntheticRunFile } from '@server/db/synthetic-runs';
+import { type RunFileFormat, type SyntheticGlitch, renderRunFile, syntheticRun, syntheticRunFile, withGlitches } from '@server/db/synthetic-runs';
 
 /**
  * "Within bounded time" (the engine's contract for any input): every property stops generating
@@ -77,6 +77,31 @@ describe('property: any input gives a result or a typed error', () => {
         });
       }),
       { numRuns: 60, ...bounded },
+    );
+  });
+});
+
+describe('property: isolated glitches barely move the peaks', () => {
+  it('up to 2 % isolated glitches in a clean pull move peak power and torque by less than 1 %', () => {
+    const clean = syntheticRun({ seed: 21, rpmNoise: 2, torqueNoise: 0.05 });
+    const base = analyzeBuffer(renderRunFile(clean).bytes);
+    const n = clean.samples.length;
+    const most = Math.floor(0.02 * n);
+    const glitch = fc.record({
+      // Isolated: positions are spread in slots of 3 samples, one glitch per slot at most.
+      slot: fc.integer({ min: 0, max: Math.floor(n / 3) - 1 }),
+      kind: fc.constantFrom('dropout', 'double', 'half', 'spike') as fc.Arbitrary<SyntheticGlitch['kind']>,
+      torqueSpike: fc.boolean(),
+    });
+    fc.assert(
+      fc.property(fc.uniqueArray(glitch, { maxLength: most, selector: (g) => g.slot }), (gs) => {
+        const run = withGlitches(clean, gs.map((g) => ({ at: 3 * g.slot + 1, kind: g.kind, torqueSpike: g.torqueSpike })));
+        return withinBound(() => {
+          const r = analyzeBuffer(renderRunFile(run).bytes);
+          return Math.abs(r.peakPower.hp / base.peakPower.hp - 1) < 0.01 && Math.abs(r.peakTorque.lbft / base.peakTorque.lbft - 1) < 0.01;
+        });
+      }),
+      { numRuns: 80, ...bounded },
     );
   });
 });

@@ -2,9 +2,9 @@ import { describe, expect, it } from 'vitest';
 import { mkdtempSync, writeFileSync, createWriteStream } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { AnalysisError, analyzeBuffer } from '@shared/analysis/index';
-import { analyzeFile } from '@server/lib/run-files/index';
-import { largeRunFileChunks, syntheticRunFile } from '@server/db/synthetic-runs';
+import { AnalysisError, analyzeBuffer, analyzeBufferPulls } from '@shared/analysis/index';
+import { analyzeFile, analyzeFilePulls } from '@server/lib/run-files/index';
+import { largeRunFileChunks, renderRunFile, syntheticLog, syntheticRunFile } from '@server/db/synthetic-runs';
 
 const dir = mkdtempSync(join(tmpdir(), 'pullbook-analysis-'));
 
@@ -35,5 +35,16 @@ describe('analyzeFile (streaming)', () => {
     writeFileSync(path, syntheticRunFile({ seed: 1 }).bytes);
     await expect(analyzeFile(path, { maxBytes: 100 })).rejects.toBeInstanceOf(AnalysisError);
     await expect(analyzeFile(dir)).rejects.toBeInstanceOf(AnalysisError);
+  });
+
+  it('gives every pull, as analyzeBufferPulls does, and stops at the end of the table', async () => {
+    const log = syntheticLog({ seed: 5, pulls: [{ startRpm: 2000, endRpm: 5800 }, { startRpm: 2000, endRpm: 5600 }] });
+    const bytes = renderRunFile(log, { footer: 'summary' }).bytes;
+    const path = join(dir, 'two-pulls.csv');
+    writeFileSync(path, bytes);
+    const fromFile = await analyzeFilePulls(path);
+    expect(fromFile).toEqual(analyzeBufferPulls(bytes));
+    expect(fromFile.pulls).toHaveLength(2);
+    expect(fromFile.pulls[0].warnings.map((w) => w.code)).toContain('TABLE_ENDED_EARLY');
   });
 });
