@@ -22,6 +22,9 @@ export function readyOutcome(over: Partial<AnalysisResult> = {}): AnalysisOutcom
     curve: { rpm: [2500, 2550], torqueLbft: [100, 101], powerHp: [47.6, 49.04], afr: {} },
     headerSignature: 'engine speed|torque',
     confidence: 0.9,
+    review: false,
+    pull: { index: 0, count: 1, main: true, partial: false, sampleRange: [0, 420], lineRange: [3, 423], timeRange: [0, 8.4] },
+    glitches: { dropped: 0, droppedInLog: 0, review: false, ranges: [] },
     ...over,
   };
   return { status: 'ready', result, error: null, mapping: null, headerSignature: result.headerSignature, correction: 'sae-j1349', conditions: { temperatureC: 25, baroKpa: 99 } };
