@@ -67,6 +67,8 @@ interface StoredMappingHelp {
   headers?: string[];
   previewRows?: string[][];
   suggestions?: Record<string, unknown>;
+  speedColumn?: string;
+  rpmPerSpeedHint?: string;
 }
 
 /** Run → detail DTO (summary, curve, conditions, mapping help while it waits for a mapping). */
@@ -87,6 +89,13 @@ export async function toRunDetail(em: EntityManager, run: Run): Promise<RunDetai
     rpmPerSpeed: run.rpmPerSpeed ? { ...run.rpmPerSpeed } : null,
     uploadedByName: run.uploadedBy?.name ?? null,
     dynoName: run.session?.dyno?.name ?? null,
-    mappingHelp: help && Array.isArray(help.headers) ? { headers: help.headers, previewRows: help.previewRows ?? [], suggestions: help.suggestions ?? {} } : null,
+    mappingHelp: help && Array.isArray(help.headers)
+      ? {
+          headers: help.headers,
+          previewRows: help.previewRows ?? [],
+          suggestions: help.suggestions ?? {},
+          ...(typeof help.speedColumn === 'string' ? { speedColumn: help.speedColumn, rpmPerSpeedHint: help.rpmPerSpeedHint } : {}),
+        }
+      : null,
   };
 }

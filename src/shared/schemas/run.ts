@@ -201,7 +201,14 @@ export interface RunDetailDto extends RunSummaryDto {
   uploadedByName: string | null;
   dynoName: string | null;
   /** Present when status is needs-mapping: headers, preview rows and suggestions. */
-  mappingHelp: { headers: string[]; previewRows: string[][]; suggestions: Record<string, unknown> } | null;
+  mappingHelp: {
+    headers: string[];
+    previewRows: string[][];
+    suggestions: Record<string, unknown>;
+    /** NO_RPM_COLUMN with a road/roller speed column: its header, and how to give an engine-speed ratio. */
+    speedColumn?: string;
+    rpmPerSpeedHint?: string;
+  } | null;
 }
 /**
  * Why a file could not be read or saved; the run (when one was kept) still lists it. The server
