@@ -11,7 +11,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { chromium, type Page } from 'playwright-core';
 import { SAFETY_CHECKS } from '@shared/schemas/run';
 import { startBrowserHarness, type BrowserHarness } from '../support/browser';
-import { renderRunFile, syntheticLog } from '@server/db/synthetic-runs';
+import { renderRunFile, syntheticLog, syntheticRun } from '@server/db/synthetic-runs';
 import type { TestShop } from '../support/test-app';
 
 let h: BrowserHarness;
@@ -20,6 +20,10 @@ let dir: string;
 let file: string;
 let sessionId: string;
 const NAME = 'session-three-pulls.csv';
+const ROAD = 'road-speed-only.csv';
+let roadFile: string;
+// The generator logs road speed as rpm / 46: 46 rpm per mph in that gear (invented).
+const ROAD_RUN = syntheticRun({ seed: 21, rpmNoise: 2, torqueNoise: 0.05 });
 
 /** As in upload.test.ts: this playwright-core refuses the harness's `--user-data-dir` argument. */
 function launchWithoutUserDataDir() {
@@ -42,6 +46,8 @@ beforeAll(async () => {
   dir = fs.mkdtempSync(path.join(os.tmpdir(), 'pb-pulls-'));
   file = path.join(dir, NAME);
   fs.writeFileSync(file, renderRunFile(log).bytes);
+  roadFile = path.join(dir, ROAD);
+  fs.writeFileSync(roadFile, renderRunFile(ROAD_RUN, { columns: ['time', 'speed', 'torque', 'power'] }).bytes);
 }, 120_000);
 
 afterAll(async () => {
@@ -93,5 +99,38 @@ describe('uploading a log with several pulls', () => {
     // The engine's warning is listed with its message.
     await expect.poll(() => page.locator('[data-code="PULL_PARTIAL"]').count()).toBe(1);
     await h.screenshot(page, 'upload-pulls-03-run-page');
+  }, 120_000);
+
+  it('a log with road speed only is read with an engine-speed ratio given in the mapping dialog', async () => {
+    const page = await h.signInPage(shop.users.tuner.email);
+    await page.goto(`${h.baseUrl}/upload?bikeId=${shop.bike.id}&sessionId=${sessionId}`);
+    const input = page.locator('input[type=file]');
+    await expect.poll(() => input.isDisabled()).toBe(false);
+    await input.setInputFiles([roadFile]);
+    await page.getByRole('button', { name: 'Upload 1 file' }).click();
+    await visible(page, '1 of 1 done');
+    const item = page.getByTestId('upload-item').filter({ hasText: ROAD });
+    await expect.poll(() => item.getByText('Needs column mapping').isVisible()).toBe(true);
+    await item.getByRole('button', { name: 'Choose columns…' }).click();
+    const dialog = page.getByRole('dialog', { name: 'Choose the columns' });
+    const useRatio = dialog.getByLabel('Compute engine speed from “Road Speed [mph]”');
+    await expect.poll(() => useRatio.isVisible()).toBe(true);
+    await useRatio.check();
+    await dialog.getByLabel('Engine-speed ratio').fill('46');
+    await dialog.getByLabel('per').selectOption('mph');
+    await h.screenshot(page, 'upload-pulls-04-ratio');
+    await dialog.getByRole('button', { name: 'Read with this ratio' }).click();
+    await expect.poll(() => dialog.isVisible()).toBe(false);
+    await expect.poll(() => item.getByText('Read', { exact: true }).isVisible()).toBe(true);
+    const text = (await item.textContent()) ?? '';
+    expect(text).toMatch(/engine speed was computed from/i);
+    // SAE J1349 at 25 °C, 99 kPa, dry air is a factor of 1.176 · (99/99) · √(298.15/298.15) − 0.176 = 1
+    // (the standard's current form), so the shown peak is the model's, within resampling and noise (2 %).
+    const shown = Number(/Peak power([\d,.]+) hp/.exec(text)![1].replace(/,/g, ''));
+    expect(Math.abs(shown / ROAD_RUN.truth.peakPower.hp - 1)).toBeLessThan(0.02);
+    const tuner = await h.t.signIn(shop.users.tuner);
+    const runs = (await tuner.get('/api/runs').query({ sessionId, pageSize: 50 })).body.items as { id: string; originalName: string }[];
+    const run = await tuner.get(`/api/runs/${runs.find((r) => r.originalName === ROAD)!.id}`);
+    expect(run.body.rpmPerSpeed).toEqual({ ratio: 46, unit: 'mph' });
   }, 120_000);
 });

@@ -90,10 +90,8 @@ export function MappingDialog({ runId, fileName, open, onClose, onMapped, error 
   // The stored run knows why it was not read when the caller does not.
   const run = useQuery({ ...runQueries.detail(runId), enabled: open });
   const speedColumn = run.data?.mappingHelp?.speedColumn;
+  // Offered, not forced: a column read as road speed may still be engine speed under another name.
   const [speed, setSpeed] = useState<SpeedRatioChoice>(NO_SPEED_RATIO);
-  useEffect(() => {
-    if (speedColumn) setSpeed((old) => (old.ratio ? old : { ...old, use: true }));
-  }, [speedColumn]);
   const reason = mappingReason(error ?? run.data?.error, preview.data?.needs ?? [], suggested(preview.data?.suggestions ?? {}, 'rpm').column);
   const apply = useApplyMapping();
   const [choice, setChoice] = useState<Choice>({ rpm: '', torque: '', torqueUnit: 'lbft', power: '', powerUnit: 'hp', save: false, layoutName: '' });
