@@ -138,6 +138,14 @@ describe('a log holding three pulls', () => {
     );
   });
 
+  it('a comparison with the aborted pull says so in its fairness warnings', async () => {
+    const [full, , partial] = result.runs!;
+    const res = await tuner.post('/api/comparisons/preview').send({ runIds: [full.id, partial.id], baselineRunId: full.id });
+    expect(res.status, JSON.stringify(res.body).slice(0, 300)).toBe(200);
+    const partialWarning = (res.body.warnings as { code: string; runIds?: string[] }[]).find((w) => w.code === 'PARTIAL_PULL');
+    expect(partialWarning?.runIds).toEqual([partial.id]);
+  });
+
   it('keeps the shared raw object while any run points at it (orphan reconciliation, delete and restore)', async () => {
     const key = rawKeyFor(a.shop.id, a.bike.id, sha(LOG_BYTES));
     const [first, second] = result.runs!;
