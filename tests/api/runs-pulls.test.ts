@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, type TestApp, type TestShop } from '../support/test-app';
 import { sha256Hex as sha, uploadRuns as upload, type Agent } from '../support/run-fixtures';
-import { modelPeaks, renderRunFile, syntheticLog, syntheticRun } from '@server/db/synthetic-runs';
+import { modelPeaks, renderRunFile, syntheticLog, syntheticRun, withGlitches, type SyntheticGlitch } from '@server/db/synthetic-runs';
 import type { RunSummaryDto, UploadResult } from '@shared/schemas/run';
 import { Run } from '@server/modules/runs/run.entity';
 import { OrphanObject } from '@server/lib/storage/orphan-object.entity';
@@ -221,5 +221,32 @@ describe('a log with road speed but no engine speed', () => {
     const dup: UploadResult = (await upload(tuner, a.otherBike.id, [{ name: 'road-speed-log.csv', bytes }])).body.results[0];
     expect(dup.ok && dup.duplicate).toBe(true);
     expect(dup.runs!.map((x) => x.id)).toEqual(rows.map((x) => x.id));
+  });
+});
+
+describe('no silent trust', () => {
+  it('a run with more than 10 % glitches is marked for review in the list and detail, and a comparison says so', async () => {
+    // A drop-out every sixth sample of the sweep (invented): about 17 % of its samples.
+    const clean = syntheticRun({ seed: 31, rpmNoise: 2, torqueNoise: 0.05 });
+    const glitches: SyntheticGlitch[] = [];
+    for (let i = clean.truth.sweepStart + 3; i < clean.truth.sweepEnd; i += 6) glitches.push({ at: i, kind: 'dropout' });
+    const spiky = Buffer.from(renderRunFile(withGlitches(clean, glitches)).bytes);
+    const other = Buffer.from(renderRunFile(syntheticRun({ seed: 32, rpmNoise: 2, torqueNoise: 0.05 })).bytes);
+    const res = await upload(tuner, a.bike.id, [{ name: 'spiky.csv', bytes: spiky }, { name: 'clean.csv', bytes: other }]);
+    const [r1, r2] = res.body.results as UploadResult[];
+    expect(r1.ok && r2.ok).toBe(true);
+    if (!r1.ok || !r2.ok) return;
+    expect(r1.run.review).toBe(true);
+    expect(codes(r1.run)).toEqual(expect.arrayContaining(['GLITCHES_DROPPED', 'GLITCHES_REVIEW']));
+    expect(r2.run.review).toBe(false);
+    const list = await tuner.get('/api/runs').query({ bikeId: a.bike.id, pageSize: 100 });
+    const listed = (list.body.items as RunSummaryDto[]).find((x) => x.id === r1.run.id)!;
+    expect(listed.review).toBe(true);
+    expect(listed.warnings.find((w) => w.code === 'GLITCHES_REVIEW')?.message).toMatch(/\w/);
+    const cmp = await tuner.post('/api/comparisons/preview').send({ runIds: [r2.run.id, r1.run.id], baselineRunId: r2.run.id });
+    expect(cmp.status).toBe(200);
+    const review = (cmp.body.warnings as { code: string; runIds?: string[] }[]).filter((w) => w.code === 'RUN_NEEDS_REVIEW' || w.code === 'GLITCHES_DROPPED');
+    // Named once, under review, not again for its dropped glitches.
+    expect(review.map((w) => [w.code, w.runIds])).toEqual([['RUN_NEEDS_REVIEW', [r1.run.id]]]);
   });
 });
