@@ -176,6 +176,8 @@ describe('a log with road speed but no engine speed', () => {
     expect(r.ok).toBe(false);
     if (r.ok) return;
     expect(r.error.code).toBe('NO_RPM_COLUMN');
+    // The answer carries the reader's mapping help: the speed column it found.
+    expect(r.error.details).toMatchObject({ speedColumn: 'Road Speed [mph]', needs: ['rpm'] });
     const waiting = await tuner.get(`/api/runs/${r.runId}`);
     expect(waiting.body.status).toBe('needs-mapping');
 

@@ -100,7 +100,8 @@ async function saveRuns(em: EntityManager, actor: Actor, { bike, session, stage 
 }
 
 /** Per file, before the summaries are read: the runs to answer with, or a finished result. */
-type Pending = { kind: 'runs'; file: string; runIds: string[]; duplicate: boolean } | { kind: 'done'; result: UploadResult };
+/** `error`: for a fresh file none of whose pulls could be read, the reader's error with its details (mapping help). */
+type Pending = { kind: 'runs'; file: string; runIds: string[]; duplicate: boolean; error?: RunFileError } | { kind: 'done'; result: UploadResult };
 
 const resultOfError = (file: string, error: RunFileError, runId?: string): UploadResult => ({ file, ok: false, error, ...(runId ? { runId } : {}) });
 
@@ -151,7 +152,8 @@ export async function ingestFiles(em: EntityManager, deps: AppDeps, actor: Actor
       const runIds = await saveRuns(em, actor, loaded, { file: f, key, sha256: sha, size }, outcomes);
       stored++;
       known.set(sha, runIds);
-      pending.push({ kind: 'runs', file: f.originalName, runIds, duplicate: false });
+      const unread = outcomes.every((o) => o.status !== 'ready') ? outcomes[0].error ?? undefined : undefined;
+      pending.push({ kind: 'runs', file: f.originalName, runIds, duplicate: false, ...(unread ? { error: unread } : {}) });
     } catch (err) {
       if (err instanceof UniqueConstraintViolationException) {
         // The same file arrived at the same moment in another request: it is in the archive.
@@ -174,7 +176,7 @@ export async function ingestFiles(em: EntityManager, deps: AppDeps, actor: Actor
 }
 
 /** A file's result from its runs' summaries (in pull order): the first readable run answers for it. */
-export function fileResult(file: string, runs: RunSummaryDto[], duplicate: boolean): UploadResult {
+export function fileResult(file: string, runs: RunSummaryDto[], duplicate: boolean, error?: RunFileError): UploadResult {
   const pullCount = Math.max(runs.length, ...runs.map((r) => r.pullCount));
   const many = runs.length > 1 ? { pullCount, runs } : { pullCount };
   const ready = runs.find((r) => r.status === 'ready');
@@ -186,7 +188,7 @@ export function fileResult(file: string, runs: RunSummaryDto[], duplicate: boole
   }
   if (ready) return { file, ok: true, run: ready, ...many };
   const [first] = runs;
-  return { ...resultOfError(file, first.error ?? { code: 'FAILED', message: 'Analysis failed' }, first.id), ...many };
+  return { ...resultOfError(file, error ?? first.error ?? { code: 'FAILED', message: 'Analysis failed' }, first.id), ...many };
 }
 
 /** One result per file, with the summaries of the runs read in one query. */
@@ -194,5 +196,5 @@ async function uploadResults(em: EntityManager, pending: Pending[]): Promise<Upl
   const ids = [...new Set(pending.flatMap((p) => (p.kind === 'runs' ? p.runIds : [])))];
   const runs = ids.length ? await em.fork().find(Run, { id: { $in: ids } }, { populate: RUN_POPULATE as never }) : [];
   const summaries = new Map((await toRunSummaries(em, runs)).map((s) => [s.id, s]));
-  return pending.map((p): UploadResult => (p.kind === 'done' ? p.result : fileResult(p.file, p.runIds.map((id) => summaries.get(id)!), p.duplicate)));
+  return pending.map((p): UploadResult => (p.kind === 'done' ? p.result : fileResult(p.file, p.runIds.map((id) => summaries.get(id)!), p.duplicate, p.error)));
 }

@@ -51,5 +51,8 @@ describe('upload result of a file', () => {
     expect(fileResult('one.csv', [summary({ id: 'a' })], false)).toEqual({ file: 'one.csv', ok: true, run: summary({ id: 'a' }), pullCount: 1 });
     const failed = fileResult('bad.csv', [summary({ id: 'z', status: 'needs-mapping', error: { code: 'NO_RPM_COLUMN', message: 'no rpm' } })], false);
     expect(failed).toEqual({ file: 'bad.csv', ok: false, error: { code: 'NO_RPM_COLUMN', message: 'no rpm' }, runId: 'z', pullCount: 1 });
+    // The reader's own error, with its mapping help, when the pipeline has it.
+    const help = { code: 'NO_RPM_COLUMN', message: 'no rpm', details: { headers: ['Time', 'Road Speed'], speedColumn: 'Road Speed' } };
+    expect(fileResult('bad.csv', [summary({ id: 'z', status: 'needs-mapping' })], false, help)).toMatchObject({ ok: false, error: help, runId: 'z' });
   });
 });
