@@ -11,17 +11,21 @@ import { parseArgs } from 'node:util';
 import { ConfigError } from '../config/env';
 import { buildDeps } from '../main';
 import { cliConfig, importFolder } from '../modules/runs/run-cli';
-import type { UploadResult } from '@shared/schemas/run';
+import type { RunSummaryDto, UploadResult } from '@shared/schemas/run';
 
 const usage = 'usage: npm run import -- --bike BIKE_ID --stage "STAGE NAME" FOLDER';
 
+const peaksOf = (run: RunSummaryDto) =>
+  run.peakPowerHp !== null ? `${run.peakPowerHp.toFixed(1)} hp @ ${run.peakPowerRpm} rpm, ${run.peakTorqueLbft?.toFixed(1)} lb·ft @ ${run.peakTorqueRpm} rpm` : '';
+
+/** One line per file; a log holding several pulls adds one indented line per run. */
 function line(r: UploadResult) {
-  if (r.ok) {
-    const run = r.run;
-    const peaks = run.peakPowerHp !== null ? `${run.peakPowerHp.toFixed(1)} hp @ ${run.peakPowerRpm} rpm, ${run.peakTorqueLbft?.toFixed(1)} lb·ft @ ${run.peakTorqueRpm} rpm` : '';
-    return `${r.file}: ${r.duplicate ? 'already in the archive' : 'imported'} (${run.id}) ${peaks}`;
-  }
-  return `${r.file}: ${r.runId ? `kept as ${r.runId}, ` : 'NOT STORED, '}${r.error.code}: ${r.error.message}`;
+  const pulls = r.runs && r.runs.length > 1
+    ? `\n${r.runs.map((run) => `  pull ${run.pullIndex + 1} of ${run.pullCount} (${run.id}) ${run.status}${run.warnings.some((w) => w.code === 'PULL_PARTIAL') ? ', partial' : ''}${run.review ? ', REVIEW' : ''} ${peaksOf(run)}`).join('\n')}`
+    : '';
+  const found = r.pullCount && r.pullCount > 1 ? `, ${r.pullCount} pulls found` : '';
+  if (r.ok) return `${r.file}: ${r.duplicate ? 'already in the archive' : 'imported'} (${r.run.id}${found}) ${r.runs && r.runs.length > 1 ? '' : peaksOf(r.run)}${pulls}`;
+  return `${r.file}: ${r.runId ? `kept as ${r.runId}, ` : 'NOT STORED, '}${r.error.code}: ${r.error.message}${pulls}`;
 }
 
 let args;

@@ -11,7 +11,7 @@ import { cliConfig, reprocessAll, type ReprocessLine } from '../modules/runs/run
 const fmt = (v: unknown) => (v === null || v === undefined ? '–' : String(v));
 
 function print(line: ReprocessLine) {
-  const head = `${line.runId}  ${line.file}`;
+  const head = `${line.runId}  ${line.file}${line.pull ? ` (${line.pull})` : ''}`;
   if (line.error) console.log(`${head}: NOT RE-PROCESSED — ${line.error}`);
   else if (!line.changes.length) console.log(`${head}: unchanged (${line.status})`);
   else console.log(`${head}: ${line.changes.map((c) => `${c.field} ${fmt(c.before)} → ${fmt(c.after)}`).join('; ')}`);

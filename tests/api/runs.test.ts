@@ -405,7 +405,7 @@ describe('command-line pipeline (import and reprocess)', () => {
       fs.writeFileSync(path.join(dir, 'broken.csv'), Buffer.from('Engine Speed [rpm],Torque [lb-ft]\n'));
       const out = await importFolder(t.deps, { bikeId: a.otherBike.id, stageName: 'Imported baseline', dir });
       expect(out.created).toBe(true);
-      const stageAudit = (await owner.get('/api/audit').query({ limit: 500 })).body.filter((e: { action: string; entityId: string }) => e.action === 'stage.create' && e.entityId === out.stageId);
+      const stageAudit = (await owner.get('/api/audit').query({ limit: 500 })).body.items.filter((e: { action: string; entityId: string }) => e.action === 'stage.create' && e.entityId === out.stageId);
       expect(stageAudit).toMatchObject([{ userName: a.users.owner.name, details: { via: 'command line import', name: 'Imported baseline' } }]);
       expect(out.results.map((r) => [r.file, r.ok])).toEqual([['broken.csv', false], ['old-1.csv', true], ['old-2.csv', true]]);
       const stage = await t.deps.orm.em.fork().findOneOrFail(Stage, { id: out.stageId });
@@ -442,7 +442,7 @@ describe('command-line pipeline (import and reprocess)', () => {
     expect(fixed.peakPowerHp).toBeCloseTo(truePeak, 9);
     // The command line acts as the shop's owner: the change is in the audit log under their name.
     const audit = await owner.get('/api/audit').query({ limit: 500 });
-    const entries = audit.body.filter((e: { action: string; entityId: string; details: { via?: string } | null }) => e.action === 'run.reprocess' && e.entityId === victim.id && e.details?.via === 'command line');
+    const entries = audit.body.items.filter((e: { action: string; entityId: string; details: { via?: string } | null }) => e.action === 'run.reprocess' && e.entityId === victim.id && e.details?.via === 'command line');
     expect(entries).toHaveLength(1);
     expect(entries[0]).toMatchObject({ userName: a.users.owner.name, details: { via: 'command line', changes: [{ field: 'peakPowerHp', before: 1, after: Number(truePeak.toFixed(2)) }] } });
   });

@@ -30,6 +30,7 @@ interface RunRecord {
   correction_factor: number | null;
   conditions: unknown;
   identity_status: string | null;
+  warnings: unknown;
   created_at: string | Date;
   stage_id: string | null;
   bike_id: string;
@@ -67,7 +68,7 @@ function runRowsStatement(variant: { customer: boolean; wide: boolean }): Prepar
     name: `pullbook-comparison-runs-${customer ? 'customer' : 'staff'}-${wide ? 'wide' : 'narrow'}`,
     text: `${wide ? 'with wanted as (select x.bike_id, x.stage_id from run x where x.shop_id = $1 and x.deleted_at is null and x.id = any($2::uuid[]))' : ''}
     select r.id, r.updated_at::text as version, r.label, r.sequence, r.status, r.curve is not null as has_curve,
-           r.correction_standard, r.correction_factor, r.conditions, r.identity_status, r.created_at, r.stage_id,
+           r.correction_standard, r.correction_factor, r.conditions, r.identity_status, r.warnings, r.created_at, r.stage_id,
            b.id as bike_id, b.make as bike_make, b.model as bike_model, b.year as bike_year,
            st.name as stage_name, st.position as stage_position,
            ds.id as session_id, ds.started_at as session_started_at, ds.ambient_temp_c as session_ambient_temp_c, ds.baro_kpa as session_baro_kpa, ds.humidity_pct as session_humidity_pct,
@@ -130,6 +131,7 @@ function toRunRow(r: RunRecord, curve: StoredCurve | null): RunRow {
     correctionFactor: r.correction_factor,
     conditions: jsonOf<Record<string, unknown> | null>(r.conditions),
     identityStatus: r.identity_status,
+    warnings: jsonOf<{ code: string; message?: string }[] | null>(r.warnings) ?? [],
     createdAt: toDate(r.created_at),
     bike: { id: r.bike_id, make: r.bike_make, model: r.bike_model, year: r.bike_year },
     stage: r.stage_id ? { id: r.stage_id, name: r.stage_name ?? '', position: r.stage_position ?? 0 } : null,

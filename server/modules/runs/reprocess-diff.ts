@@ -14,7 +14,7 @@ export interface ReanalysisChange {
 
 type SnapshotSource = Pick<
   RunOutcomeFields,
-  'status' | 'peakPowerHp' | 'peakPowerRpm' | 'peakTorqueLbft' | 'peakTorqueRpm' | 'rpmMin' | 'rpmMax' | 'identityStatus' | 'correctionStandard' | 'correctionFactor' | 'warnings' | 'error'
+  'status' | 'peakPowerHp' | 'peakPowerRpm' | 'peakTorqueLbft' | 'peakTorqueRpm' | 'rpmMin' | 'rpmMax' | 'identityStatus' | 'correctionStandard' | 'correctionFactor' | 'warnings' | 'error' | 'pullCount'
 >;
 
 const round = (v: number | null, d: number) => (v === null ? null : Number(v.toFixed(d)));
@@ -34,6 +34,8 @@ export function runSnapshot(run: SnapshotSource) {
     correctionFactor: round(run.correctionFactor, 4),
     warnings: (run.warnings ?? []).map((w) => w.code).join(',') || '-',
     error: run.error?.code ?? '-',
+    /** Pulls the raw file reads as (a multi-pull log re-read differently shows here). */
+    pullCount: run.pullCount,
   };
 }
 

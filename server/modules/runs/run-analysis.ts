@@ -6,15 +6,17 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import type { ApiErrorCode } from '@shared/errors';
 import {
   AnalysisError,
-  analyzeBuffer,
+  analyzeBufferPulls,
   correctionFactor,
   isCorrectionStandard,
+  type AnalysisPulls,
   type AnalysisResult,
   type AnalyzeOptions,
   type ColumnMapping,
   type CorrectionStandard,
+  type RpmPerSpeed,
 } from '@shared/analysis/index';
-import { analyzeFile } from '../../lib/run-files/index';
+import { analyzeFilePulls } from '../../lib/run-files/index';
 import { ColumnLayout, type RunStatus } from './run.entity';
 import type { DynoSession } from '../sessions/dyno-session.entity';
 import type { Shop } from '../shops/shop.entity';
@@ -38,6 +40,17 @@ export interface AnalysisOutcome {
   headerSignature: string | null;
   correction: CorrectionStandard;
   conditions: Record<string, unknown>;
+  /** Which pull of the file this outcome is (0-based) and how many pulls the file held. */
+  pullIndex: number;
+  pullCount: number;
+  /** The engine-speed ratio the reading used (logs without an engine-speed column). */
+  rpmPerSpeed: RpmPerSpeed | null;
+}
+
+/** How to read a file beyond recognition: a column mapping and/or an engine-speed ratio. */
+export interface ReadingChoice {
+  mapping?: ColumnMapping | null;
+  rpmPerSpeed?: RpmPerSpeed | null;
 }
 
 export interface AnalysisContext {
@@ -73,15 +86,8 @@ function errorOf(e: unknown): RunError {
   return { code: 'READ_FAILED', message: 'The file could not be read.' };
 }
 
-/**
- * One pass of the engine, uncorrected; the correction is applied here afterwards, so a file with
- * no known conditions (no session, nothing in its preamble) is read once, not twice.
- */
-async function analyseOnce(source: RunSource, correction: CorrectionStandard, conditions: AnalyzeOptions['conditions'], mapping: ColumnMapping | null): Promise<AnalysisResult> {
-  const options: AnalyzeOptions = { correction: 'none', conditions, ...(mapping ? { mapping } : {}) };
-  // analyzeFile streams the file (memory bounded by the used columns, not the file) and gives
-  // the same result as analyzeBuffer (tests/unit/analysis/stream.test.ts checks that).
-  const result = source instanceof Uint8Array ? analyzeBuffer(source, options) : await analyzeFile(source.path, options);
+/** Applies the correction standard to one pull's peaks (or warns why it could not be). */
+function correctPull(result: AnalysisResult, correction: CorrectionStandard): AnalysisResult {
   if (correction === 'none') return result;
   let factor: number;
   try {
@@ -104,36 +110,73 @@ async function analyseOnce(source: RunSource, correction: CorrectionStandard, co
 }
 
 /**
- * Analyse a run file (bytes or a file on disk). Mapping precedence: the explicit one, then a saved
- * column layout whose header signature matches, then automatic recognition.
+ * One pass of the engine over every pull, uncorrected; the correction is applied here afterwards,
+ * so a file with no known conditions (no session, nothing in its preamble) is read once, not twice.
  */
-export async function analyseRun(source: RunSource, ctx: AnalysisContext, layouts: Map<string, ColumnMapping>, explicit: ColumnMapping | null = null): Promise<AnalysisOutcome> {
+async function analyseOnce(source: RunSource, correction: CorrectionStandard, conditions: AnalyzeOptions['conditions'], choice: ReadingChoice): Promise<AnalysisPulls> {
+  const options: AnalyzeOptions = { correction: 'none', conditions, ...(choice.mapping ? { mapping: choice.mapping } : {}), ...(choice.rpmPerSpeed ? { rpmPerSpeed: choice.rpmPerSpeed } : {}) };
+  // analyzeFilePulls streams the file (memory bounded by the used columns, not the file) and gives
+  // the same result as analyzeBufferPulls (tests/unit/analysis/stream.test.ts checks that).
+  const all = source instanceof Uint8Array ? analyzeBufferPulls(source, options) : await analyzeFilePulls(source.path, options);
+  return { ...all, pulls: all.pulls.map((p) => correctPull(p, correction)) };
+}
+
+/**
+ * Every pull of a run file (bytes or a file on disk), one outcome each in time order; a file that
+ * cannot be read is one outcome (failed or waiting for a mapping). Mapping precedence: the explicit
+ * choice, then a saved column layout whose header signature matches, then automatic recognition.
+ */
+export async function analysePulls(source: RunSource, ctx: AnalysisContext, layouts: Map<string, ColumnMapping>, explicit: ReadingChoice | null = null): Promise<AnalysisOutcome[]> {
   const base = { correction: ctx.correction, conditions: { ...(ctx.conditions ?? {}) } };
-  const attempt = async (mapping: ColumnMapping | null): Promise<AnalysisOutcome> => {
+  const attempt = async (choice: ReadingChoice): Promise<AnalysisOutcome[]> => {
+    const mapping = choice.mapping ?? null;
+    const rpmPerSpeed = choice.rpmPerSpeed ?? null;
     try {
-      const result = await analyseOnce(source, ctx.correction, ctx.conditions, mapping);
-      return { ...base, status: 'ready', result, error: null, mapping, headerSignature: result.headerSignature, correction: result.correction.standard, conditions: result.conditions };
+      const all = await analyseOnce(source, ctx.correction, ctx.conditions, choice);
+      return all.pulls.map((result) => ({
+        ...base, status: 'ready', result, error: null, mapping, rpmPerSpeed, headerSignature: result.headerSignature, correction: result.correction.standard, conditions: result.conditions, pullIndex: result.pull.index, pullCount: result.pull.count,
+      }));
     } catch (e) {
       const error = errorOf(e);
       const help = error.details as { headerSignature?: string } | undefined;
       const status: RunStatus = MAPPING_CODES.has(error.code) ? 'needs-mapping' : 'failed';
-      return { ...base, status, result: null, error, mapping, headerSignature: typeof help?.headerSignature === 'string' ? help.headerSignature : null };
+      return [{ ...base, status, result: null, error, mapping, rpmPerSpeed, headerSignature: typeof help?.headerSignature === 'string' ? help.headerSignature : null, pullIndex: 0, pullCount: 1 }];
     }
   };
-  if (explicit) return attempt(explicit);
-  const first = await attempt(null);
-  const saved = first.headerSignature ? layouts.get(first.headerSignature) : undefined;
+  if (explicit && (explicit.mapping || explicit.rpmPerSpeed)) return attempt(explicit);
+  const first = await attempt({});
+  const signature = first[0].headerSignature;
+  const saved = signature ? layouts.get(signature) : undefined;
   if (!saved) return first;
-  const withLayout = await attempt(saved);
+  const withLayout = await attempt({ mapping: saved });
   // A saved layout that no longer fits this file must not hide a good automatic reading.
-  return withLayout.status === 'ready' || first.status !== 'ready' ? withLayout : first;
+  return withLayout[0].status === 'ready' || first[0].status !== 'ready' ? withLayout : first;
 }
 
 /**
- * Every run an uploaded file yields, in order. Today a file is one pull, so one outcome; a log
- * holding several pulls will answer one outcome per pull here (each with its pull index and time
- * range), and the upload pipeline already saves one run per outcome.
+ * One pull of a run file (the run's own, by index): what re-processing and a hand mapping read.
+ * A file that now holds fewer pulls than `pullIndex` answers a failed outcome (PULL_NOT_FOUND).
  */
+export async function analyseRun(source: RunSource, ctx: AnalysisContext, layouts: Map<string, ColumnMapping>, explicit: ReadingChoice | null = null, pullIndex = 0): Promise<AnalysisOutcome> {
+  return pullOutcome(await analysePulls(source, ctx, layouts, explicit), pullIndex);
+}
+
+/** The outcome of pull `pullIndex` among a file's outcomes (see {@link analyseRun}). */
+export function pullOutcome(outcomes: AnalysisOutcome[], pullIndex: number): AnalysisOutcome {
+  const [first] = outcomes;
+  if (first.status !== 'ready') return { ...first, pullIndex };
+  const own = outcomes.find((o) => o.pullIndex === pullIndex);
+  if (own) return own;
+  return {
+    ...first,
+    status: 'failed',
+    result: null,
+    error: { code: 'PULL_NOT_FOUND', message: `The file now reads as ${outcomes.length} pull(s); pull ${pullIndex + 1} of it was not found. Check the file and its mapping.` },
+    pullIndex,
+  };
+}
+
+/** Every run an uploaded file yields, in order: one per pull of the log (or one that could not be read). */
 export async function analyseUpload(source: RunSource, ctx: AnalysisContext, layouts: Map<string, ColumnMapping>): Promise<AnalysisOutcome[]> {
-  return [await analyseRun(source, ctx, layouts)];
+  return analysePulls(source, ctx, layouts);
 }

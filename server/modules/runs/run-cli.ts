@@ -54,10 +54,14 @@ export function cliConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
 export interface ReprocessLine {
   runId: string;
   file: string;
+  /** "pull 2 of 3" for a run that is one pull of a log holding several, else absent. */
+  pull?: string;
   status: string;
   changes: { field: string; before: unknown; after: unknown }[];
   error?: string;
 }
+
+const pullOf = (run: Run) => (run.pullCount > 1 || run.pullIndex > 0 ? { pull: `pull ${run.pullIndex + 1} of ${run.pullCount}` } : {});
 
 /** Re-derive every run (deleted ones too) from its raw file; one line per run. */
 export async function reprocessAll(deps: AppDeps, onLine: (line: ReprocessLine) => void = () => undefined): Promise<ReprocessLine[]> {
@@ -81,9 +85,9 @@ export async function reprocessAll(deps: AppDeps, onLine: (line: ReprocessLine) 
         // Only a change is audited: a pass over an unchanged archive leaves no trail of no-ops.
         const changes = await reprocessRun(em, deps, actor, run, { details: { via: 'command line' }, auditUnchanged: false });
         if (changes.length) bikes.add(run.bike.id);
-        line = { runId: run.id, file: run.originalName, status: run.status, changes };
+        line = { runId: run.id, file: run.originalName, ...pullOf(run), status: run.status, changes };
       } catch (e) {
-        line = { runId: run.id, file: run.originalName, status: run.status, changes: [], error: e instanceof Error ? e.message : String(e) };
+        line = { runId: run.id, file: run.originalName, ...pullOf(run), status: run.status, changes: [], error: e instanceof Error ? e.message : String(e) };
       }
       lines.push(line);
       onLine(line);

@@ -44,6 +44,9 @@ export function toRunSummary(r: Run, refs: Set<string>): RunSummaryDto {
     tags: r.tags ?? [],
     note: r.note,
     isReference: refs.has(r.id),
+    pullIndex: r.pullIndex,
+    pullCount: r.pullCount,
+    review: (r.warnings ?? []).some((w) => w.code === 'GLITCHES_REVIEW'),
     createdAt: r.createdAt.toISOString(),
     deletedAt: r.deletedAt ? r.deletedAt.toISOString() : null,
   };
@@ -64,6 +67,8 @@ interface StoredMappingHelp {
   headers?: string[];
   previewRows?: string[][];
   suggestions?: Record<string, unknown>;
+  speedColumn?: string;
+  rpmPerSpeedHint?: string;
 }
 
 /** Run → detail DTO (summary, curve, conditions, mapping help while it waits for a mapping). */
@@ -79,8 +84,18 @@ export async function toRunDetail(em: EntityManager, run: Run): Promise<RunDetai
     mapping: run.mapping,
     rawSizeBytes: run.rawSizeBytes,
     rawSha256: run.rawSha256,
+    pullTimeS: run.pullStartS !== null && run.pullEndS !== null ? [run.pullStartS, run.pullEndS] : null,
+    pullRows: run.pullFirstRow !== null && run.pullLastRow !== null ? [run.pullFirstRow, run.pullLastRow] : null,
+    rpmPerSpeed: run.rpmPerSpeed ? { ...run.rpmPerSpeed } : null,
     uploadedByName: run.uploadedBy?.name ?? null,
     dynoName: run.session?.dyno?.name ?? null,
-    mappingHelp: help && Array.isArray(help.headers) ? { headers: help.headers, previewRows: help.previewRows ?? [], suggestions: help.suggestions ?? {} } : null,
+    mappingHelp: help && Array.isArray(help.headers)
+      ? {
+          headers: help.headers,
+          previewRows: help.previewRows ?? [],
+          suggestions: help.suggestions ?? {},
+          ...(typeof help.speedColumn === 'string' ? { speedColumn: help.speedColumn, rpmPerSpeedHint: help.rpmPerSpeedHint } : {}),
+        }
+      : null,
   };
 }

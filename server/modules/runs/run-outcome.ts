@@ -27,11 +27,18 @@ export type RunOutcomeFields = Pick<
   | 'conditions'
   | 'columns'
   | 'warnings'
+  | 'rpmPerSpeed'
+  | 'pullCount'
+  | 'pullStartS'
+  | 'pullEndS'
+  | 'pullFirstRow'
+  | 'pullLastRow'
 >;
 
 /**
  * What an outcome writes on a run. A run that could not be read keeps no figures at all (no stale
  * peaks from an earlier reading), but keeps the standard and conditions that were asked for.
+ * The pull's index is the run's identity and is set when the run is made, never here.
  */
 export function outcomeFields(o: AnalysisOutcome): RunOutcomeFields {
   const r = o.result;
@@ -55,6 +62,12 @@ export function outcomeFields(o: AnalysisOutcome): RunOutcomeFields {
     conditions: o.conditions,
     columns: r ? { ...r.columns, units: r.units, confidence: r.confidence, droppedPoints: r.droppedPoints } : null,
     warnings: r ? r.warnings : [],
+    rpmPerSpeed: o.rpmPerSpeed ? { ...o.rpmPerSpeed } : null,
+    pullCount: o.pullCount,
+    pullStartS: r?.pull.timeRange ? r.pull.timeRange[0] : null,
+    pullEndS: r?.pull.timeRange ? r.pull.timeRange[1] : null,
+    pullFirstRow: r ? r.pull.sampleRange[0] : null,
+    pullLastRow: r ? r.pull.sampleRange[1] : null,
   };
 }
 

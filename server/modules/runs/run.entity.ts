@@ -15,9 +15,16 @@ export interface StoredCurve {
   afr: Record<string, number[]>;
 }
 
+/** Engine speed per road/roller speed for the gear used, for logs without an engine-speed column. */
+export interface StoredRpmPerSpeed {
+  ratio: number;
+  unit: 'mph' | 'km/h';
+}
+
 /**
  * One pull: the raw file as uploaded (kept in object storage, byte for byte) and what the
  * analysis engine made of it. Summary columns are copied out of the curve for sorting and search.
+ * A log holding several pulls is stored once; each pull is a run pointing at it (`pullIndex`).
  */
 export class Run extends ShopOwnedEntity {
   bike!: Bike;
@@ -30,6 +37,17 @@ export class Run extends ShopOwnedEntity {
   rawSizeBytes!: number;
   originalName!: string;
   contentType: string | null = null;
+  /** Which pull of the raw file this run is (0-based, time order) and how many the file held when last read. */
+  pullIndex = 0;
+  pullCount = 1;
+  /** Time-column values at the pull's first and last sample (null without a time column or a reading). */
+  pullStartS: number | null = null;
+  pullEndS: number | null = null;
+  /** 0-based data-row indices of the pull's first and last sample. */
+  pullFirstRow: number | null = null;
+  pullLastRow: number | null = null;
+  /** Engine-speed ratio given for a log without an engine-speed column. */
+  rpmPerSpeed: StoredRpmPerSpeed | null = null;
   status: RunStatus = 'failed';
   mapping: Record<string, unknown> | null = null;
   headerSignature: string | null = null;
@@ -73,7 +91,7 @@ export const RunSchema = new EntitySchema<Run, ShopOwnedEntity>({
     { properties: ['shop', 'stage'] },
     { properties: ['shop', 'peakPowerHp'] },
   ],
-  uniques: [{ properties: ['bike', 'rawSha256'] }],
+  uniques: [{ properties: ['bike', 'rawSha256', 'pullIndex'] }],
   properties: {
     bike: { kind: 'm:1', entity: () => Bike, deleteRule: 'cascade' },
     session: { kind: 'm:1', entity: () => DynoSession, nullable: true, deleteRule: 'set null' },
@@ -85,6 +103,13 @@ export const RunSchema = new EntitySchema<Run, ShopOwnedEntity>({
     rawSizeBytes: { type: 'integer', fieldName: 'raw_size_bytes' },
     originalName: { type: 'string', length: 300 },
     contentType: { type: 'string', length: 120, nullable: true },
+    pullIndex: { type: 'integer', default: 0 },
+    pullCount: { type: 'integer', default: 1 },
+    pullStartS: { type: 'double', nullable: true },
+    pullEndS: { type: 'double', nullable: true },
+    pullFirstRow: { type: 'integer', nullable: true },
+    pullLastRow: { type: 'integer', nullable: true },
+    rpmPerSpeed: { type: 'json', nullable: true },
     status: { type: 'string', length: 16 },
     mapping: { type: 'json', nullable: true },
     headerSignature: { type: 'string', length: 500, nullable: true },

@@ -4,8 +4,9 @@
  * one database transaction per file (its runs and their audit lines). A file that fails analysis
  * is still stored and listed ("nothing is lost").
  *
- * One analysed file gives a list of outcomes (`analyseUpload`) and each outcome becomes a run
- * pointing at the same stored raw file; today the list has one element.
+ * One analysed file gives a list of outcomes (`analyseUpload`), one per pull of the log, and each
+ * outcome becomes a run pointing at the same stored raw file (`pullIndex`). The duplicate check is
+ * per bike on the file's SHA-256: a file uploaded again answers every run it already made.
  */
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { UniqueConstraintViolationException } from '@mikro-orm/core';
@@ -13,7 +14,7 @@ import type { AppDeps } from '../../app-deps';
 import type { Actor } from '../../http/actor';
 import { AppError, conflict, notFound } from '../../lib/errors';
 import { discardObject } from '../../lib/storage/discard-object';
-import type { RunFileError, UploadResult } from '@shared/schemas/run';
+import type { RunFileError, RunSummaryDto, UploadResult } from '@shared/schemas/run';
 import { Run } from './run.entity';
 import { Bike } from '../bikes/bike.entity';
 import { Shop } from '../shops/shop.entity';
@@ -80,6 +81,7 @@ async function saveRuns(em: EntityManager, actor: Actor, { bike, session, stage 
         session: session ? tem.getReference(DynoSession, session.id) : null,
         stage: stage ? tem.getReference(Stage, stage.id) : null,
         sequence: await nextSequence(tem, bike.id, session?.id ?? null),
+        pullIndex: outcome.pullIndex,
         rawKey: stored.key,
         rawSha256: stored.sha256,
         rawSizeBytes: stored.size,
@@ -90,24 +92,18 @@ async function saveRuns(em: EntityManager, actor: Actor, { bike, session, stage 
       } as unknown as Run);
       applyOutcome(run, outcome);
       await tem.flush();
-      await recordAudit(tem, actor, 'run.upload', 'run', run.id, { file: stored.file.originalName, sha256: stored.sha256, status: run.status, bikeId: bike.id, sessionId: session?.id ?? null });
+      await recordAudit(tem, actor, 'run.upload', 'run', run.id, { file: stored.file.originalName, sha256: stored.sha256, status: run.status, bikeId: bike.id, sessionId: session?.id ?? null, pull: run.pullIndex + 1, pulls: run.pullCount });
       ids.push(run.id);
     }
     return ids;
   });
 }
 
-/** Per file, before the summaries are read: a run to answer with, or a finished result. */
-type Pending = { kind: 'run'; file: string; runId: string; duplicate: boolean } | { kind: 'done'; result: UploadResult };
+/** Per file, before the summaries are read: the runs to answer with, or a finished result. */
+/** `error`: for a fresh file none of whose pulls could be read, the reader's error with its details (mapping help). */
+type Pending = { kind: 'runs'; file: string; runIds: string[]; duplicate: boolean; error?: RunFileError } | { kind: 'done'; result: UploadResult };
 
 const resultOfError = (file: string, error: RunFileError, runId?: string): UploadResult => ({ file, ok: false, error, ...(runId ? { runId } : {}) });
-
-/** The outcome of a stored file whose runs committed: the first run answers for the file. */
-function pendingOfSaved(file: string, runIds: string[], outcomes: AnalysisOutcome[]): Pending {
-  const [runId] = runIds;
-  const [outcome] = outcomes;
-  return outcome.status === 'ready' ? { kind: 'run', file, runId, duplicate: false } : { kind: 'done', result: resultOfError(file, outcome.error!, runId) };
-}
 
 /**
  * Ingest files for one bike (and optionally a session and a stage). Answers one result per file,
@@ -127,17 +123,18 @@ export async function ingestFiles(em: EntityManager, deps: AppDeps, actor: Actor
   // One pass over each file (streamed from disk for temporary files), for the duplicate check.
   const hashes: string[] = [];
   for (const f of files) hashes.push(await sha256Of(f));
-  const existing = await em.find(Run, { bike: bike.id, rawSha256: { $in: [...new Set(hashes)] } }, { fields: ['id', 'rawSha256', 'deletedAt'] });
-  const known = new Map(existing.map((r) => [r.rawSha256, r.id]));
+  const existing = await em.find(Run, { bike: bike.id, rawSha256: { $in: [...new Set(hashes)] } }, { fields: ['id', 'rawSha256', 'pullIndex'], orderBy: { pullIndex: 'asc' } });
+  const known = new Map<string, string[]>();
+  for (const r of existing) known.set(r.rawSha256, [...(known.get(r.rawSha256) ?? []), r.id]);
 
   const pending: Pending[] = [];
   let stored = 0;
   for (let i = 0; i < files.length; i++) {
     const f = files[i];
     const sha = hashes[i];
-    const dupId = known.get(sha);
-    if (dupId) {
-      pending.push({ kind: 'run', file: f.originalName, runId: dupId, duplicate: true });
+    const dupIds = known.get(sha);
+    if (dupIds) {
+      pending.push({ kind: 'runs', file: f.originalName, runIds: dupIds, duplicate: true });
       continue;
     }
     const key = rawKeyFor(actor.shopId, bike.id, sha);
@@ -154,20 +151,23 @@ export async function ingestFiles(em: EntityManager, deps: AppDeps, actor: Actor
     try {
       const runIds = await saveRuns(em, actor, loaded, { file: f, key, sha256: sha, size }, outcomes);
       stored++;
-      known.set(sha, runIds[0]);
-      pending.push(pendingOfSaved(f.originalName, runIds, outcomes));
+      known.set(sha, runIds);
+      const unread = outcomes.every((o) => o.status !== 'ready') ? outcomes[0].error ?? undefined : undefined;
+      pending.push({ kind: 'runs', file: f.originalName, runIds, duplicate: false, ...(unread ? { error: unread } : {}) });
     } catch (err) {
       if (err instanceof UniqueConstraintViolationException) {
         // The same file arrived at the same moment in another request: it is in the archive.
-        const other = await em.fork().findOne(Run, { bike: bike.id, rawSha256: sha });
-        if (other) {
-          known.set(sha, other.id);
-          pending.push({ kind: 'run', file: f.originalName, runId: other.id, duplicate: true });
+        const others = await em.fork().find(Run, { bike: bike.id, rawSha256: sha }, { fields: ['id'], orderBy: { pullIndex: 'asc' } });
+        if (others.length) {
+          known.set(sha, others.map((o) => o.id));
+          pending.push({ kind: 'runs', file: f.originalName, runIds: others.map((o) => o.id), duplicate: true });
           continue;
         }
       }
       const why = (err instanceof Error ? err.message : String(err)).split(' - ').pop()!.slice(0, 300);
-      const fate = await discardObject(deps, key, `run row for ${f.originalName} did not commit: ${why}`);
+      // The same content may be in the archive through another request's runs: never remove an object a run points at.
+      const shared = (await em.fork().count(Run, { rawKey: key })) > 0;
+      const fate = shared ? 'kept (other runs point at it)' : await discardObject(deps, key, `run row for ${f.originalName} did not commit: ${why}`);
       console.error(`[pullbook] saving run ${f.originalName} failed (object ${fate}): ${why}`);
       pending.push({ kind: 'done', result: resultOfError(f.originalName, { code: 'SAVE_FAILED', message: 'The file could not be saved in the archive; nothing was kept. Try again.' }) });
     }
@@ -175,17 +175,26 @@ export async function ingestFiles(em: EntityManager, deps: AppDeps, actor: Actor
   return uploadResults(em, pending);
 }
 
+/** A file's result from its runs' summaries (in pull order): the first readable run answers for it. */
+export function fileResult(file: string, runs: RunSummaryDto[], duplicate: boolean, error?: RunFileError): UploadResult {
+  const pullCount = Math.max(runs.length, ...runs.map((r) => r.pullCount));
+  const many = runs.length > 1 ? { pullCount, runs } : { pullCount };
+  const ready = runs.find((r) => r.status === 'ready');
+  if (duplicate) {
+    const run = ready ?? runs[0];
+    const deleted = runs.some((r) => r.deletedAt);
+    const what = runs.length > 1 ? `${runs.length} runs from ${run.originalName}` : run.originalName;
+    return { file, ok: true, duplicate: true, run, ...many, message: `Already in the archive${deleted ? ' (as a deleted run; the owner can restore it)' : ''}: ${what}; nothing new was saved.` };
+  }
+  if (ready) return { file, ok: true, run: ready, ...many };
+  const [first] = runs;
+  return { ...resultOfError(file, error ?? first.error ?? { code: 'FAILED', message: 'Analysis failed' }, first.id), ...many };
+}
+
 /** One result per file, with the summaries of the runs read in one query. */
 async function uploadResults(em: EntityManager, pending: Pending[]): Promise<UploadResult[]> {
-  const ids = [...new Set(pending.flatMap((p) => (p.kind === 'run' ? [p.runId] : [])))];
+  const ids = [...new Set(pending.flatMap((p) => (p.kind === 'runs' ? p.runIds : [])))];
   const runs = ids.length ? await em.fork().find(Run, { id: { $in: ids } }, { populate: RUN_POPULATE as never }) : [];
   const summaries = new Map((await toRunSummaries(em, runs)).map((s) => [s.id, s]));
-  return pending.map((p): UploadResult => {
-    if (p.kind === 'done') return p.result;
-    const run = summaries.get(p.runId)!;
-    if (!p.duplicate && run.status !== 'ready') return resultOfError(p.file, run.error ?? { code: 'FAILED', message: 'Analysis failed' }, run.id);
-    return p.duplicate
-      ? { file: p.file, ok: true, duplicate: true, run, message: `Already in the archive${run.deletedAt ? ' (as a deleted run; the owner can restore it)' : ''}: ${run.originalName}; nothing new was saved.` }
-      : { file: p.file, ok: true, run };
-  });
+  return pending.map((p): UploadResult => (p.kind === 'done' ? p.result : fileResult(p.file, p.runIds.map((id) => summaries.get(id)!), p.duplicate, p.error)));
 }

@@ -90,7 +90,12 @@ export interface ComparisonWarning {
     | 'PRESSURE_APART'
     | 'CROSS_CHECK_MISMATCH'
     | 'LITTLE_OVERLAP'
-    | 'SEVERAL_BIKES';
+    | 'SEVERAL_BIKES'
+    // From the run-file engine's warnings (src/shared/analysis/warnings.ts):
+    | 'RUN_NEEDS_REVIEW'
+    | 'GLITCHES_DROPPED'
+    | 'PARTIAL_PULL'
+    | 'RPM_FROM_SPEED';
   message: string;
   runIds?: string[];
 }

@@ -125,11 +125,20 @@ export const columnMappingInput = z.object({
   torque: unitColumn(['lbft', 'nm', 'kgfm'] as const).optional(),
   power: unitColumn(['hp', 'kw', 'ps'] as const).optional(),
 }).refine((m) => m.torque || m.power, 'Map a torque or a power column (or both)');
+/** Engine speed per road/roller speed for the gear used (rpm per mph or per km/h), for logs without an engine-speed column. */
+export const rpmPerSpeedInput = z.object({
+  ratio: z.number({ message: 'Give the engine-speed ratio' }).positive('The ratio must be above zero').max(1000, 'At most 1000 rpm per unit of road speed'),
+  unit: z.enum(['mph', 'km/h']),
+});
+export type RpmPerSpeedDto = z.output<typeof rpmPerSpeedInput>;
 export const applyMappingInput = z.object({
-  mapping: columnMappingInput,
+  /** Columns by hand; may be left out when an engine-speed ratio is given and the rest is recognised. */
+  mapping: columnMappingInput.optional(),
+  /** For a log without an engine-speed column: compute engine speed from its road/roller speed column. */
+  rpmPerSpeed: rpmPerSpeedInput.optional(),
   /** Save as a named column layout, reused when the same header appears again. */
   saveLayoutName: z.string().trim().min(1).max(120).optional(),
-});
+}).refine((m) => m.mapping || m.rpmPerSpeed, 'Map the columns or give the engine-speed ratio');
 export const RUN_SORTS = ['createdAt', 'peakPowerHp', 'peakTorqueLbft'] as const;
 export const runListQuery = listQuery(RUN_SORTS).extend({
   bikeId: uuid.optional(),
@@ -172,6 +181,11 @@ export interface RunSummaryDto {
   tags: string[];
   note: string | null;
   isReference: boolean;
+  /** Which pull of its raw file this run is (0-based) and how many pulls the file holds. */
+  pullIndex: number;
+  pullCount: number;
+  /** Marked for a check by hand before its figures are used (warning GLITCHES_REVIEW). */
+  review: boolean;
   createdAt: string;
   deletedAt: string | null;
 }
@@ -183,10 +197,22 @@ export interface RunDetailDto extends RunSummaryDto {
   mapping: Record<string, unknown> | null;
   rawSizeBytes: number;
   rawSha256: string;
+  /** Where this run's pull lies in the log: time-column values and 0-based data rows (null when unknown). */
+  pullTimeS: [number, number] | null;
+  pullRows: [number, number] | null;
+  /** The engine-speed ratio used for a log without an engine-speed column. */
+  rpmPerSpeed: RpmPerSpeedDto | null;
   uploadedByName: string | null;
   dynoName: string | null;
   /** Present when status is needs-mapping: headers, preview rows and suggestions. */
-  mappingHelp: { headers: string[]; previewRows: string[][]; suggestions: Record<string, unknown> } | null;
+  mappingHelp: {
+    headers: string[];
+    previewRows: string[][];
+    suggestions: Record<string, unknown>;
+    /** NO_RPM_COLUMN with a road/roller speed column: its header, and how to give an engine-speed ratio. */
+    speedColumn?: string;
+    rpmPerSpeedHint?: string;
+  } | null;
 }
 /**
  * Why a file could not be read or saved; the run (when one was kept) still lists it. The server
@@ -198,9 +224,15 @@ export interface RunFileError {
   message: string;
   details?: unknown;
 }
+/**
+ * What one uploaded file became. A log may hold several pulls: `pullCount` tells how many were
+ * found and `runs` lists every run of the file (one per pull, in time order; each with its own
+ * status, warnings and error). `run` is the file's first readable run; a file none of whose
+ * pulls could be read answers ok: false with the first run's error.
+ */
 export type UploadResult =
-  | { file: string; ok: true; duplicate?: boolean; message?: string; run: RunSummaryDto }
-  | { file: string; ok: false; error: RunFileError; runId?: string };
+  | { file: string; ok: true; duplicate?: boolean; message?: string; run: RunSummaryDto; pullCount?: number; runs?: RunSummaryDto[] }
+  | { file: string; ok: false; error: RunFileError; runId?: string; pullCount?: number; runs?: RunSummaryDto[] };
 export interface UploadResponse {
   results: UploadResult[];
 }

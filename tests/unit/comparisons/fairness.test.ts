@@ -74,4 +74,19 @@ describe('comparison engine: fairness warnings', () => {
     expect(ws[0].runIds).toEqual(['b']);
     expect(codes(ws)).toContain('MIXED_CORRECTION');
   });
+
+  it('names runs the run-file engine flagged: review, dropped glitches, partial pull, engine speed from road speed', () => {
+    const review = prepare(engineRun({ id: 'r', label: 'Spiky', warnings: [{ code: 'GLITCHES_DROPPED' }, { code: 'GLITCHES_REVIEW' }] }), {});
+    const glitchy = prepare(engineRun({ id: 'g', label: 'Few spikes', warnings: [{ code: 'GLITCHES_DROPPED' }] }), {});
+    const partial = prepare(engineRun({ id: 'p', label: 'Short', warnings: [{ code: 'PULL_PARTIAL' }, { code: 'PULLS_FOUND' }] }), {});
+    const speed = prepare(engineRun({ id: 's', label: 'Road', warnings: [{ code: 'RPM_FROM_SPEED' }] }), {});
+    const clean = prepare(engineRun({ id: 'c', warnings: [{ code: 'PULLS_FOUND' }] }), {});
+    const ws = fairnessWarnings([clean, review, glitchy, partial, speed], clean);
+    expect(codes(ws)).toEqual(['RUN_NEEDS_REVIEW', 'GLITCHES_DROPPED', 'PARTIAL_PULL', 'RPM_FROM_SPEED']);
+    // A run marked for review is named once, under review, not again for its dropped glitches.
+    expect(ws.map((w) => w.runIds)).toEqual([['r'], ['g'], ['p'], ['s']]);
+    expect(ws[0].message).toContain('“Spiky” is marked for review');
+    // Only the pull-count note on clean runs: nothing to warn about.
+    expect(fairnessWarnings([clean, prepare(engineRun({ id: 'd', warnings: [{ code: 'PULLS_FOUND' }] }), {})], clean)).toEqual([]);
+  });
 });

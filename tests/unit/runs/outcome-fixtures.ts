@@ -27,7 +27,7 @@ export function readyOutcome(over: Partial<AnalysisResult> = {}): AnalysisOutcom
     glitches: { dropped: 0, droppedInLog: 0, review: false, ranges: [], rangeCount: 0 },
     ...over,
   };
-  return { status: 'ready', result, error: null, mapping: null, headerSignature: result.headerSignature, correction: 'sae-j1349', conditions: { temperatureC: 25, baroKpa: 99 } };
+  return { status: 'ready', result, error: null, mapping: null, headerSignature: result.headerSignature, correction: 'sae-j1349', conditions: { temperatureC: 25, baroKpa: 99 }, pullIndex: result.pull.index, pullCount: result.pull.count, rpmPerSpeed: null };
 }
 
 export function failedOutcome(code: 'NO_SWEEP' | 'NEEDS_MAPPING' = 'NO_SWEEP'): AnalysisOutcome {
@@ -39,5 +39,8 @@ export function failedOutcome(code: 'NO_SWEEP' | 'NEEDS_MAPPING' = 'NO_SWEEP'): 
     headerSignature: 'a|b',
     correction: 'iso-1585',
     conditions: { temperatureC: 20 },
+    pullIndex: 0,
+    pullCount: 1,
+    rpmPerSpeed: null,
   };
 }

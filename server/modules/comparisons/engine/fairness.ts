@@ -1,6 +1,7 @@
 /**
  * Fairness warnings: what makes a comparison less than like-for-like (mixed correction standards,
- * different or unknown dynos, air too far apart, failed cross-checks, little rpm overlap, several bikes).
+ * different or unknown dynos, air too far apart, failed cross-checks, what the run-file engine had
+ * to do to read a run, little rpm overlap, several bikes).
  */
 import { type ComparisonWarning, MAX_PRESSURE_APART_KPA, MAX_TEMPERATURE_APART_C, MIN_OVERLAP_FRACTION } from '@shared/schemas/comparison';
 import { cTo, kpaTo } from '@shared/analysis/units';
@@ -75,6 +76,7 @@ export function fairnessWarnings(all: Prepared[], baseline: Prepared): Compariso
       runIds: mismatch.map((x) => x.run.id),
     });
   }
+  out.push(...engineWarnings(all, list));
   for (const o of all) {
     if (o === baseline) continue;
     const lo = Math.max(o.summary.rpmMin, baseline.summary.rpmMin);
@@ -95,6 +97,50 @@ export function fairnessWarnings(all: Prepared[], baseline: Prepared): Compariso
       code: 'SEVERAL_BIKES',
       message: `The runs come from ${bikes.size} different bikes; differences include everything that differs between the bikes, not only the parts.`,
       runIds: ids,
+    });
+  }
+  return out;
+}
+
+const hasCode = (p: Prepared, code: string) => (p.run.warnings ?? []).some((w) => w.code === code);
+
+/**
+ * What the run-file engine flagged on the runs and that bears on the comparison: a run marked for
+ * a check by hand (too many glitches), glitches dropped, a pull aborted early, engine speed
+ * computed from road speed with a ratio.
+ */
+function engineWarnings(all: Prepared[], list: (ps: Prepared[]) => string): ComparisonWarning[] {
+  const out: ComparisonWarning[] = [];
+  const review = all.filter((p) => hasCode(p, 'GLITCHES_REVIEW'));
+  if (review.length) {
+    out.push({
+      code: 'RUN_NEEDS_REVIEW',
+      message: `${list(review)} ${review.length > 1 ? 'are' : 'is'} marked for review: more than a tenth of the samples were impossible engine-speed or load jumps and were dropped. Check the run's file and trace by hand before trusting its figures.`,
+      runIds: review.map((p) => p.run.id),
+    });
+  }
+  const glitches = all.filter((p) => hasCode(p, 'GLITCHES_DROPPED') && !hasCode(p, 'GLITCHES_REVIEW'));
+  if (glitches.length) {
+    out.push({
+      code: 'GLITCHES_DROPPED',
+      message: `In ${list(glitches)} a few samples with impossible engine-speed or load jumps were dropped before the curve was drawn; see the run's warnings for where.`,
+      runIds: glitches.map((p) => p.run.id),
+    });
+  }
+  const partial = all.filter((p) => hasCode(p, 'PULL_PARTIAL'));
+  if (partial.length) {
+    out.push({
+      code: 'PARTIAL_PULL',
+      message: `${list(partial)} ${partial.length > 1 ? 'are pulls' : 'is a pull'} aborted early (a partial sweep); figures above its last rpm are missing, not lower.`,
+      runIds: partial.map((p) => p.run.id),
+    });
+  }
+  const fromSpeed = all.filter((p) => hasCode(p, 'RPM_FROM_SPEED'));
+  if (fromSpeed.length) {
+    out.push({
+      code: 'RPM_FROM_SPEED',
+      message: `In ${list(fromSpeed)} engine speed was computed from road speed with a given ratio; the rpm axis is only right if that ratio fits the gear used.`,
+      runIds: fromSpeed.map((p) => p.run.id),
     });
   }
   return out;

@@ -30,6 +30,8 @@ export interface EngineRun {
   correctionFactor: number | null;
   conditions: Record<string, unknown> | null;
   identityStatus: string | null;
+  /** The run-file engine's warnings on the run (codes from src/shared/analysis/warnings.ts); absent = none known. */
+  warnings?: { code: string; message?: string }[];
   createdAt: Date;
   bike: { id: string; make: string; model: string; year: number | null };
   stage: { id: string; name: string; position: number } | null;

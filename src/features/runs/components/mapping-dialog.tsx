@@ -7,6 +7,7 @@ import { DialogActions, CheckboxField, cn, Dialog, ErrorState, FormError, Loadin
 import type { ApiErrorCodeOnClient } from '@/lib/api-client';
 import { runQueries } from '../api/runs/run-queries';
 import { useApplyMapping, type ApplyMapping } from '../api/runs/apply-mapping';
+import { checkSpeedRatio, NO_SPEED_RATIO, SpeedRatioFields, type SpeedRatioChoice } from './speed-ratio-fields';
 
 const TORQUE_UNITS = [
   { value: 'lbft', label: 'lb·ft' },
@@ -88,7 +89,10 @@ function numericColumn(rows: string[][], c: number): boolean {
 export function MappingDialog({ runId, fileName, open, onClose, onMapped, error }: { runId: string; fileName: string; open: boolean; onClose: () => void; onMapped?: (run: RunSummaryDto) => void; error?: Issue }) {
   const preview = useQuery({ ...runQueries.preview(runId), enabled: open });
   // The stored run knows why it was not read when the caller does not.
-  const run = useQuery({ ...runQueries.detail(runId), enabled: open && !error });
+  const run = useQuery({ ...runQueries.detail(runId), enabled: open });
+  const speedColumn = run.data?.mappingHelp?.speedColumn;
+  // Offered, not forced: a column read as road speed may still be engine speed under another name.
+  const [speed, setSpeed] = useState<SpeedRatioChoice>(NO_SPEED_RATIO);
   const reason = mappingReason(error ?? run.data?.error, preview.data?.needs ?? [], suggested(preview.data?.suggestions ?? {}, 'rpm').column);
   const apply = useApplyMapping();
   const [choice, setChoice] = useState<Choice>({ rpm: '', torque: '', torqueUnit: 'lbft', power: '', powerUnit: 'hp', save: false, layoutName: '' });
@@ -124,10 +128,18 @@ export function MappingDialog({ runId, fileName, open, onClose, onMapped, error 
   const columnOptions = headers.map((h, i) => ({ value: h, label: h || `Column ${i + 1}` }));
 
   const submit = async () => {
+    if (speedColumn && speed.use) {
+      const ratio = checkSpeedRatio(speed);
+      setProblem(ratio.problem);
+      if (!ratio.rpmPerSpeed) return;
+      return send({ rpmPerSpeed: ratio.rpmPerSpeed });
+    }
     const checked = check(choice);
     setProblem(checked.problem);
     if (!checked.mapping) return;
-    const body: ApplyMapping = { mapping: checked.mapping, saveLayoutName: choice.save ? choice.layoutName.trim() : undefined };
+    return send({ mapping: checked.mapping, saveLayoutName: choice.save ? choice.layoutName.trim() : undefined });
+  };
+  const send = async (body: ApplyMapping) => {
     try {
       const run = await apply.mutateAsync({ runId, ...body });
       if (run) onMapped?.(run);
@@ -153,7 +165,7 @@ export function MappingDialog({ runId, fileName, open, onClose, onMapped, error 
         <DialogActions
           onCancel={onClose}
           cancelLabel="Not now"
-          submitLabel="Read with these columns"
+          submitLabel={speedColumn && speed.use ? 'Read with this ratio' : 'Read with these columns'}
           busyLabel="Reading the file…"
           busy={apply.isPending}
           submit={{ onClick: submit }}
@@ -206,6 +218,12 @@ export function MappingDialog({ runId, fileName, open, onClose, onMapped, error 
               </div>
             )}
           </section>
+          {speedColumn && <SpeedRatioFields speedColumn={speedColumn} hint={run.data?.mappingHelp?.rpmPerSpeedHint} value={speed} onChange={(next) => {
+                setSpeed(next);
+                setProblem(null);
+              }} />}
+          {!(speedColumn && speed.use) && (
+          <>
           <div className="grid gap-4 md:grid-cols-3">
             <SelectField label="Engine speed (rpm) column" required placeholder="Choose a column…" options={columnOptions} value={choice.rpm} onChange={(e) => set('rpm', e.target.value)} />
             <div className="grid grid-cols-[1fr_7rem] gap-2">
@@ -222,6 +240,8 @@ export function MappingDialog({ runId, fileName, open, onClose, onMapped, error 
             <CheckboxField label="Save this layout for files with the same header" checked={choice.save} onChange={(e) => set('save', e.target.checked)} />
             {choice.save && <TextField label="Layout name" value={choice.layoutName} onChange={(e) => set('layoutName', e.target.value)} maxLength={120} hint="e.g. “Bay 2 export, no header names”" />}
           </div>
+          </>
+          )}
           <FormError error={problem ?? apply.error} title={problem ? 'Check the columns' : 'The file was not read'} />
         </div>
       )}

@@ -3,6 +3,7 @@ import { createColumnHelper } from '@tanstack/react-table';
 import type { RunSummaryDto } from '@shared/schemas/run';
 import { formatHp, formatRpm, formatTorque } from '@shared/format';
 import { paths } from '@/config/paths';
+import { RunFlags } from './run-status';
 
 /** Column pieces shared by the run tables (run list, session, bike page), so a run reads the same everywhere. */
 export const runColumn = createColumnHelper<RunSummaryDto>();
@@ -16,9 +17,14 @@ export const runNameColumn = () =>
     id: 'name',
     header: 'Run',
     cell: (c) => (
-      <Link to={paths.run(c.row.original.id)} className="font-semibold text-accent underline-offset-2 hover:underline">
-        {c.getValue()}
-      </Link>
+      <>
+        <Link to={paths.run(c.row.original.id)} className="font-semibold text-accent underline-offset-2 hover:underline">
+          {c.getValue()}
+        </Link>
+        <span className="mt-0.5 flex flex-wrap gap-1 empty:hidden">
+          <RunFlags run={c.row.original} />
+        </span>
+      </>
     ),
   });
 

@@ -21,3 +21,23 @@ export function CrossCheckBadge({ status }: { status: RunSummaryDto['identitySta
   if (status === 'mismatch') return <StatusBadge status="warning">Power and torque disagree</StatusBadge>;
   return <StatusBadge status="neutral">Not cross-checked</StatusBadge>;
 }
+
+/**
+ * What a run's engine warnings mean for trusting it, as badges: one pull of a log holding several,
+ * a partial pull, engine speed from road speed, and a run marked for review (too many glitches).
+ */
+export function RunFlags({ run }: { run: Pick<RunSummaryDto, 'pullIndex' | 'pullCount' | 'review' | 'warnings'> }) {
+  const has = (code: string) => run.warnings.some((w) => w.code === code);
+  return (
+    <>
+      {run.review && <StatusBadge status="error">Marked for review</StatusBadge>}
+      {run.pullCount > 1 && (
+        <StatusBadge status="neutral">
+          Pull {run.pullIndex + 1} of {run.pullCount}
+        </StatusBadge>
+      )}
+      {has('PULL_PARTIAL') && <StatusBadge status="warning">Partial pull</StatusBadge>}
+      {has('RPM_FROM_SPEED') && <StatusBadge status="info">rpm from road speed</StatusBadge>}
+    </>
+  );
+}

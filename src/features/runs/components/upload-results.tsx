@@ -11,6 +11,7 @@ import type { UploadItem } from '../api/runs/upload-runs';
 import { CrossCheckBadge } from './run-status';
 import { MappingDialog } from './mapping-dialog';
 import { StageSelect } from './stages/stage-select';
+import { PullResults } from './pull-results';
 
 export function PeakFigures({ run }: { run: Pick<RunSummaryDto, 'peakPowerHp' | 'peakPowerRpm' | 'peakTorqueLbft' | 'peakTorqueRpm'> }) {
   return (
@@ -97,6 +98,7 @@ function ResultBody({ item, bikeId, onResult }: { item: UploadItem; bikeId: stri
       />
     );
   }
+  if (r.runs && r.runs.length > 1) return <PullResults result={{ ...r, runs: r.runs }} />;
   if (r.ok && r.run.status !== 'ready') {
     return (
       <div className="space-y-1">

@@ -17,7 +17,7 @@ import { useRestoreRun } from '../api/runs/restore-run';
 import { displayCurve, mixtureChannels, POWER_LABEL, TORQUE_LABEL, type MixtureChoice, type PowerChoice, type TorqueChoice } from '../lib/display-curve';
 import { AfrChart, RunChart } from '../components/run-chart';
 import { CORRECTION_HINT, CORRECTION_OPTIONS } from '../lib/correction';
-import { CrossCheckBadge, RunStatusBadge } from '../components/run-status';
+import { CrossCheckBadge, RunFlags, RunStatusBadge } from '../components/run-status';
 import { MappingDialog } from '../components/mapping-dialog';
 import { RunEditForm } from '../components/run-edit-form';
 
@@ -212,6 +212,7 @@ function RunView({ run }: { run: RunDetailDto }) {
           <>
             <RunStatusBadge status={run.status} deleted={deleted} />
             {run.status === 'ready' && <CrossCheckBadge status={run.identityStatus} />}
+            <RunFlags run={run} />
             {run.stageName && <Badge tone="accent">Stage: {run.stageName}</Badge>}
             {run.isReference && <StatusBadge status="info">Reference run of its stage</StatusBadge>}
             {run.tags.map((t) => (
@@ -264,6 +265,11 @@ function RunView({ run }: { run: RunDetailDto }) {
           {run.error?.message ?? 'The file did not contain a usable pull.'} The original is kept and can be read again after a fix.
         </Caution>
       )}
+      {run.review && (
+        <Caution kind="notice" title="Marked for review">
+          More than a tenth of this pull's samples were impossible engine-speed or load jumps and were dropped. Check the file and the trace by hand before trusting these figures; comparisons and reports that use this run say so.
+        </Caution>
+      )}
       {run.status === 'ready' && run.curve && <CurveCard run={run} />}
       <div className="grid gap-5 md:grid-cols-2">
         <Facts run={run} />
@@ -271,7 +277,7 @@ function RunView({ run }: { run: RunDetailDto }) {
           {run.warnings.length ? (
             <ul className="space-y-2">
               {run.warnings.map((w) => (
-                <li key={w.code + w.message} className="flex gap-2">
+                <li key={w.code + w.message} className="flex gap-2" data-code={w.code}>
                   <Icon name="triangle" size={18} className="mt-0.5 shrink-0 text-warn" />
                   <span>{w.message}</span>
                 </li>

@@ -17,6 +17,7 @@ import { RunStatusBadge } from '../components/run-status';
 import { peakPowerColumn, peakTorqueColumn, runColumn, runNameColumn } from '../components/run-columns';
 import { StageSelect } from '../components/stages/stage-select';
 import { SafetyChecklist } from '../components/sessions/safety-checklist';
+import { PullFilesNote } from '../components/pull-results';
 import { CORRECTION_OPTIONS } from '../lib/correction';
 
 const col = runColumn;
@@ -147,6 +148,8 @@ export function SessionPage() {
         {runs.isError ? (
           <ErrorState error={runs.error} onRetry={() => runs.refetch()} />
         ) : (
+          <>
+          <PullFilesNote runs={runs.data?.items ?? []} />
           <DataTable
             caption="Runs of this session"
             className="rounded-none border-0"
@@ -166,6 +169,7 @@ export function SessionPage() {
               </span>
             }
           />
+          </>
         )}
       </Card>
     </div>
