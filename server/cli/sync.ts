@@ -56,11 +56,14 @@ async function main() {
   const agent = new SyncAgent({ server, token, folder, journalFile, settleMs, poll: values.poll, log: (line) => console.log(`${stamp()}  ${line}`) });
 
   let skipped = 0;
+  let fatal = false;
   agent.on((e) => {
     if (e.kind === 'skipped') skipped++;
     if (e.kind === 'token-refused') {
       console.error(`${stamp()}  The server refused this device token (${e.message}). It is wrong or has been revoked: ` + 'create a new one on the Dynos settings page and start the agent again.');
     }
+    if (e.kind === 'fatal') fatal = true;
+    if (e.kind === 'fatal') console.error(`${stamp()}  Stopped: ${e.message}. Nothing was marked as sent.`);
   });
   const stop = () => void agent.stop();
   process.on('SIGINT', stop);
@@ -72,7 +75,7 @@ async function main() {
     if (skipped) console.log(`${stamp()}  ${skipped} file${skipped === 1 ? ' was' : 's were'} sent before and skipped`);
   }, 2000).unref();
   const { tokenRefused } = await agent.done;
-  process.exit(tokenRefused ? 2 : 0);
+  process.exit(tokenRefused || fatal ? 2 : 0);
 }
 
 main().catch((err) => {

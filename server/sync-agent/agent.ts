@@ -13,7 +13,7 @@ import { watch, type FSWatcher } from 'chokidar';
 import { isRunFileName } from '@shared/run-files';
 import { Journal } from './journal';
 import { backoffDelayMs } from './backoff';
-import { sendRunFile, TokenRefusedError, type SendOutcome } from './sender';
+import { FatalSendError, sendRunFile, TokenRefusedError, type SendOutcome } from './sender';
 
 export interface AgentOptions {
   server: string;
@@ -36,7 +36,8 @@ export type AgentEvent =
   | { kind: 'skipped'; file: string }
   | { kind: 'refused'; file: string; line: string }
   | { kind: 'waiting'; file: string; reason: string; delayMs: number }
-  | { kind: 'token-refused'; message: string };
+  | { kind: 'token-refused'; message: string }
+  | { kind: 'fatal'; message: string };
 
 export class SyncAgent {
   private watcher?: FSWatcher;
@@ -138,11 +139,11 @@ export class SyncAgent {
       try {
         outcome = await sendRunFile({ server: this.opts.server, token: this.opts.token, fileName: path.basename(absPath), bytes });
       } catch (err) {
-        if (err instanceof TokenRefusedError) {
-          this.emit({ kind: 'token-refused', message: err.message });
+        if (err instanceof FatalSendError) {
+          this.emit(err instanceof TokenRefusedError ? { kind: 'token-refused', message: err.message } : { kind: 'fatal', message: err.message });
           this.stopped = true;
           await this.watcher?.close();
-          this.finish({ tokenRefused: true });
+          this.finish({ tokenRefused: err instanceof TokenRefusedError });
           return false;
         }
         throw err;

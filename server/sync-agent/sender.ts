@@ -6,12 +6,17 @@
 import { DEVICE_UPLOAD_PATH, type DeviceUploadResponse } from '@shared/schemas/device';
 import type { ApiErrorBody } from '@shared/errors';
 
-/** The token was refused (wrong, revoked, or its dyno removed): nothing will get through until it is replaced. */
-export class TokenRefusedError extends Error {
+/** Nothing will get through until a person fixes the set-up: the agent stops instead of retrying. */
+export class FatalSendError extends Error {
   constructor(readonly status: number, message: string) {
     super(message);
-    this.name = 'TokenRefusedError';
+    this.name = 'FatalSendError';
   }
+}
+
+/** The token was refused (wrong, revoked, or its dyno removed): nothing will get through until it is replaced. */
+export class TokenRefusedError extends FatalSendError {
+  name = 'TokenRefusedError';
 }
 
 export type SendOutcome =
@@ -48,6 +53,10 @@ export async function sendRunFile({ server, token, fileName, bytes, timeoutMs = 
   if (res.ok && body?.results) return { kind: 'sent', response: body };
   if (res.status === 401 || res.status === 403) {
     throw new TokenRefusedError(res.status, body?.error?.message ?? 'the server refused the device token');
+  }
+  if (res.status === 404) {
+    // The address answers but has no device upload route: a wrong --server, not a file problem.
+    throw new FatalSendError(404, `${new URL(DEVICE_UPLOAD_PATH, server).href} does not exist on this server; check --server`);
   }
   if (res.status === 429 || res.status >= 500 || !body) {
     const retryAfter = Number(res.headers.get('retry-after'));

@@ -8,8 +8,8 @@ import * as echarts from 'echarts/core';
 import { LineChart } from 'echarts/charts';
 import { AriaComponent, DataZoomComponent, GridComponent, LegendComponent, MarkLineComponent, TooltipComponent } from 'echarts/components';
 import { CanvasRenderer, SVGRenderer } from 'echarts/renderers';
-import ReactEChartsCore from 'echarts-for-react/lib/core';
-import type { EChartsReactProps } from 'echarts-for-react/lib/types';
+import ReactEChartsCore from 'echarts-for-react/esm/core';
+import type { EChartsReactProps } from 'echarts-for-react/esm/types';
 
 echarts.use([LineChart, GridComponent, TooltipComponent, LegendComponent, DataZoomComponent, MarkLineComponent, AriaComponent, CanvasRenderer, SVGRenderer]);
 

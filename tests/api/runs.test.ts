@@ -156,7 +156,7 @@ describe('duplicates and bad files', () => {
     expect(again.body.mapping).toMatchObject(mapping);
 
     // Forget the layout: the next such file waits for a mapping again.
-    const id = layouts.body.find((l: { name: string }) => l.name === 'Bay 3 export').id;
+    const id = layouts.body.items.find((l: { name: string }) => l.name === 'Bay 3 export').id;
     expect((await desk.delete(`/api/column-layouts/${id}`)).status).toBe(403);
     expect((await tuner.delete(`/api/column-layouts/${id}`)).status).toBe(204);
     const third = await upload(tuner, a.bike.id, [{ name: 'drum-3.csv', bytes: drum(302) }]);

@@ -199,6 +199,23 @@ describe('sync agent', () => {
   });
 });
 
+describe('sync agent against a server without the device route', () => {
+  it('stops with a clear message instead of marking files as sent or refused', async () => {
+    const app = express();
+    const server = await new Promise<http.Server>((resolve) => {
+      const s = app.listen(0, '127.0.0.1', () => resolve(s));
+    });
+    cleanups.push(() => new Promise<void>((r) => server.close(() => r())));
+    const { folder, journalFile } = setup();
+    fs.writeFileSync(path.join(folder, 'pull.csv'), 'rpm,torque\n2000,80\n');
+    const { agent, events } = startAgent(`http://127.0.0.1:${(server.address() as AddressInfo).port}`, folder, journalFile);
+    await agent.start();
+    expect((await agent.done).tokenRefused).toBe(false);
+    expect(events.find((e) => e.kind === 'fatal')).toMatchObject({ message: expect.stringContaining('/api/device/runs does not exist') });
+    expect(fs.existsSync(journalFile)).toBe(false);
+  });
+});
+
 describe('run-file names and backoff', () => {
   it('takes run-file endings only, never hidden or temporary files', () => {
     expect(['pull.csv', 'PULL.TXT', 'a/b/log.tsv', 'x.log', 'y.dat'].map(isRunFileName)).toEqual([true, true, true, true, true]);
