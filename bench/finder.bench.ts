@@ -9,8 +9,8 @@ import path from 'node:path';
 import pg from 'pg';
 import { STORAGE } from '../scripts/lib/paths.js';
 import { freePort, startLocalPostgres } from '../scripts/lib/local-services.js';
-import { LARGE_SEED_PASSWORD, seedLarge } from '../server/cli/seed-large.js';
-import { initOrm, migrateToLatest } from '../server/db/orm.js';
+import { LARGE_SEED_PASSWORD } from '../server/cli/seed-large.js';
+import { ensureLargeSeed } from './lib/large-seed.js';
 import { signIn, startBenchApp, type BenchApp } from './lib/app-server.js';
 import { loadTest, type LoadResult } from './lib/load.js';
 import { printTable } from './lib/table.js';
@@ -34,25 +34,7 @@ export async function run(): Promise<void> {
   const pgService = await startLocalPostgres({ baseDir: path.join(STORAGE, 'bench', 'postgres'), port: await freePort(), database: 'pullbook_large', label: 'bench-postgres' });
   let app: BenchApp | null = null;
   try {
-    const check = new pg.Client({ connectionString: pgService.url });
-    await check.connect();
-    const have = await check
-      .query(`select count(*)::int as n from bike b join shop s on s.id = b.shop_id where s.name like 'Large Seed Shop %'`)
-      .then((r) => r.rows[0].n as number)
-      .catch(() => 0);
-    await check.end();
-    // A database seeded by an earlier run may predate the latest migrations (they backfill).
-    const orm = await initOrm(pgService.url, { poolMax: 2 });
-    try {
-      await migrateToLatest(orm);
-    } finally {
-      await orm.close();
-    }
-    if (have !== BIKES) {
-      process.stdout.write(`seeding ${BIKES} bikes (seed:large)…\n`);
-      const r = await seedLarge(pgService.url, { bikes: BIKES });
-      process.stdout.write(`seeded ${r.bikes} bikes, ${r.stages} stages, ${r.parts} parts, ${r.runs} runs in ${(r.ms / 1000).toFixed(1)} s\n`);
-    }
+    await ensureLargeSeed(pgService.url, BIKES);
 
     app = await startBenchApp({ databaseUrl: pgService.url, poolMax: CONNECTIONS });
     const { baseUrl, settle } = app;

@@ -11,8 +11,8 @@ import path from 'node:path';
 import pg from 'pg';
 import { STORAGE } from '../scripts/lib/paths.js';
 import { freePort, startLocalPostgres } from '../scripts/lib/local-services.js';
-import { LARGE_SEED_PASSWORD, seedLarge } from '../server/cli/seed-large.js';
-import { initOrm, migrateToLatest } from '../server/db/orm.js';
+import { LARGE_SEED_PASSWORD } from '../server/cli/seed-large.js';
+import { ensureLargeSeed } from './lib/large-seed.js';
 import { signIn } from './lib/app-server.js';
 import { startAppProcess } from './lib/app-process.js';
 import { loadTest } from './lib/load.js';
@@ -31,24 +31,7 @@ async function ensureSeeded(adminUrl: string, database: string, bikes: number): 
   if (!exists) await admin.query(`create database "${database}"`);
   await admin.end();
   const url = adminUrl.replace(/\/[^/]+$/, `/${database}`);
-  const orm = await initOrm(url, { poolMax: 2 });
-  try {
-    await migrateToLatest(orm);
-  } finally {
-    await orm.close();
-  }
-  const check = new pg.Client({ connectionString: url });
-  await check.connect();
-  const have = await check
-    .query(`select count(*)::int as n from bike b join shop s on s.id = b.shop_id where s.name like 'Large Seed Shop %'`)
-    .then((r) => r.rows[0].n as number)
-    .catch(() => 0);
-  await check.end();
-  if (have !== bikes) {
-    process.stdout.write(`seeding ${bikes} bikes into ${database} (seed:large)…\n`);
-    const r = await seedLarge(url, { bikes });
-    process.stdout.write(`seeded ${r.bikes} bikes, ${r.runs} runs in ${(r.ms / 1000).toFixed(1)} s\n`);
-  }
+  await ensureLargeSeed(url, bikes);
   return url;
 }
 

@@ -582,3 +582,18 @@ export function syntheticLog(options: SyntheticLogOptions): SyntheticLog {
   for (const p of pulls) if (p.endRpm - p.startRpm > main.endRpm - main.startRpm) main = p;
   return { samples, engine, pulls, truth: { sweepStart: main.sweepStart, sweepEnd: main.sweepEnd, startRpm: main.startRpm, endRpm: main.endRpm, peakPower: main.peakPower, peakTorque: main.peakTorque } };
 }
+
+/** The usual multi-pull example (invented): two full sweeps and a third aborted at 3,400 rpm, with idling between. */
+export function threePullLog(seed: number): SyntheticLog {
+  return syntheticLog({
+    seed,
+    rpmNoise: 2,
+    torqueNoise: 0.05,
+    pulls: [
+      { startRpm: 2000, endRpm: 5800 },
+      { startRpm: 2200, endRpm: 6000 },
+      { startRpm: 2000, endRpm: 3400 },
+    ],
+    idleSeconds: 2,
+  });
+}

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, type TestApp, type TestShop } from '../support/test-app';
 import { sha256Hex as sha, uploadRuns as upload, type Agent } from '../support/run-fixtures';
-import { modelPeaks, renderRunFile, syntheticLog, syntheticRun, withGlitches, type SyntheticGlitch } from '@server/db/synthetic-runs';
+import { modelPeaks, renderRunFile, syntheticRun, threePullLog, withGlitches, type SyntheticGlitch } from '@server/db/synthetic-runs';
 import type { RunSummaryDto, UploadResult } from '@shared/schemas/run';
 import { Run } from '@server/modules/runs/run.entity';
 import { OrphanObject } from '@server/lib/storage/orphan-object.entity';
@@ -24,17 +24,7 @@ const within1pct = (value: number, truth: number) => Math.abs(value / truth - 1)
 const codes = (r: RunSummaryDto) => r.warnings.map((w) => w.code);
 
 // Three pulls: two full sweeps and one aborted early (invented figures).
-const LOG = syntheticLog({
-  seed: 3,
-  rpmNoise: 2,
-  torqueNoise: 0.05,
-  pulls: [
-    { startRpm: 2000, endRpm: 5800 },
-    { startRpm: 2200, endRpm: 6000 },
-    { startRpm: 2000, endRpm: 3400 },
-  ],
-  idleSeconds: 2,
-});
+const LOG = threePullLog(3);
 const LOG_BYTES = Buffer.from(renderRunFile(LOG).bytes);
 
 /** Peaks of a run divided back to uncorrected (the stored curve is uncorrected; no conditions here). */

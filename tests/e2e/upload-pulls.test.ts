@@ -8,10 +8,10 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { chromium, type Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { SAFETY_CHECKS } from '@shared/schemas/run';
 import { startBrowserHarness, type BrowserHarness } from '../support/browser';
-import { renderRunFile, syntheticLog, syntheticRun } from '@server/db/synthetic-runs';
+import { renderRunFile, syntheticRun, threePullLog } from '@server/db/synthetic-runs';
 import type { TestShop } from '../support/test-app';
 
 let h: BrowserHarness;
@@ -25,14 +25,7 @@ let roadFile: string;
 // The generator logs road speed as rpm / 46: 46 rpm per mph in that gear (invented).
 const ROAD_RUN = syntheticRun({ seed: 21, rpmNoise: 2, torqueNoise: 0.05 });
 
-/** As in upload.test.ts: this playwright-core refuses the harness's `--user-data-dir` argument. */
-function launchWithoutUserDataDir() {
-  const launch = chromium.launch.bind(chromium);
-  chromium.launch = (options = {}) => launch({ ...options, args: options.args?.filter((a) => !a.startsWith('--user-data-dir')) });
-}
-
 beforeAll(async () => {
-  launchWithoutUserDataDir();
   h = await startBrowserHarness();
   shop = await h.t.createShop('Ferrybank Dyno Bay');
   const tuner = await h.t.signIn(shop.users.tuner);
@@ -42,7 +35,7 @@ beforeAll(async () => {
   expect((await tuner.post(`/api/sessions/${sessionId}/safety-check`).send({ checks: SAFETY_CHECKS.map((c) => c.id) })).status).toBe(200);
 
   // Invented log: three pulls, the last aborted at 3,400 rpm.
-  const log = syntheticLog({ seed: 5, rpmNoise: 2, torqueNoise: 0.05, pulls: [{ startRpm: 2000, endRpm: 5800 }, { startRpm: 2200, endRpm: 6000 }, { startRpm: 2000, endRpm: 3400 }], idleSeconds: 2 });
+  const log = threePullLog(5);
   dir = fs.mkdtempSync(path.join(os.tmpdir(), 'pb-pulls-'));
   file = path.join(dir, NAME);
   fs.writeFileSync(file, renderRunFile(log).bytes);

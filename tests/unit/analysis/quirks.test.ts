@@ -16,6 +16,7 @@ import {
   modelTorqueLbft,
   renderRunFile,
   syntheticLog,
+  threePullLog,
   syntheticRun,
   withGlitches,
 } from '@server/db/synthetic-runs';
@@ -107,17 +108,7 @@ describe('glitch rejection', () => {
 });
 
 describe('several pulls in one log', () => {
-  const log = syntheticLog({
-    seed: 3,
-    rpmNoise: 2,
-    torqueNoise: 0.05,
-    pulls: [
-      { startRpm: 2000, endRpm: 5800 },
-      { startRpm: 2200, endRpm: 6000 },
-      { startRpm: 2000, endRpm: 3400 },
-    ],
-    idleSeconds: 2,
-  });
+  const log = threePullLog(3);
   const bytes = renderRunFile(log).bytes;
 
   it('splits the log into its three pulls, in time order, the aborted one marked partial', () => {
