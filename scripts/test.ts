@@ -97,6 +97,8 @@ async function main(): Promise<number> {
   const env: NodeJS.ProcessEnv = {
     ...process.env,
     NODE_ENV: 'test',
+    // Request lines would bury the test output; errors are still written.
+    LOG_LEVEL: process.env.LOG_LEVEL ?? 'error',
     TEST_DATABASE_TEMPLATE_URL: pg.url,
     S3_ENDPOINT: s3.url,
     S3_BUCKET: 'pullbook-test',

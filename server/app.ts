@@ -1,7 +1,7 @@
 import express from 'express';
 import fs from 'node:fs';
 import path from 'node:path';
-import { randomUUID } from 'node:crypto';
+import compression from 'compression';
 import { RequestContext } from '@mikro-orm/core';
 import type { AppDeps } from './app-deps';
 import { installSessions } from './http/session';
@@ -10,6 +10,7 @@ import { errorHandler } from './middleware/error-handler';
 import { allRouters } from './modules';
 import type { RegisteredRoute } from './http/api-router';
 import { AppError } from './lib/errors';
+import { httpLogger } from './lib/logger';
 
 export interface CreatedApp {
   app: express.Express;
@@ -27,8 +28,12 @@ export function createApp(deps: AppDeps, opts: { clientDir?: string } = {}): Cre
   app.disable('x-powered-by');
   app.set('query parser', 'extended');
 
+  // One JSON line per request (request id, user, shop, status, time); the id is answered in X-Request-Id.
+  app.use(httpLogger());
+  // Text answers (JSON, HTML, JS, CSS) go compressed to clients that accept it.
+  app.use(compression());
   app.use((req, res, next) => {
-    res.locals.requestId = req.get('x-request-id') ?? randomUUID().slice(0, 8);
+    res.locals.requestId = String(req.id);
     res.set('X-Content-Type-Options', 'nosniff');
     res.set('Referrer-Policy', 'same-origin');
     next();
@@ -49,6 +54,8 @@ export function createApp(deps: AppDeps, opts: { clientDir?: string } = {}): Cre
 
   if (opts.clientDir && fs.existsSync(path.join(opts.clientDir, 'index.html'))) {
     const clientDir = opts.clientDir;
+    // Source maps are built (hidden) for error reports but never served.
+    app.use((req, _res, next) => next(req.path.endsWith('.map') ? new AppError('NOT_FOUND', 'Not found', 404) : undefined));
     app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
     // Client-side routes (including the public /share/:token page) get the app shell.
     app.get('/{*splat}', (_req, res) => res.sendFile(path.join(clientDir, 'index.html')));

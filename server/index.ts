@@ -7,15 +7,16 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { ConfigError, loadConfig } from './config/env';
 import { startServer } from './main';
+import { logger } from './lib/logger';
 
 const root = path.dirname(path.dirname(fileURLToPath(import.meta.url)));
 
 try {
   const config = loadConfig();
   const server = await startServer(config, { clientDir: path.join(root, 'dist') });
-  console.log(`[pullbook] listening on ${server.url}`);
+  logger.info({ url: server.url }, 'listening');
   const stop = async (signal: string) => {
-    console.log(`[pullbook] ${signal}: shutting down`);
+    logger.info({ signal }, 'shutting down');
     await server.close();
     process.exit(0);
   };
@@ -23,7 +24,7 @@ try {
   process.once('SIGTERM', () => void stop('SIGTERM'));
 } catch (err) {
   if (err instanceof ConfigError) {
-    console.error(err.message);
+    logger.fatal(err.message);
     process.exit(2);
   }
   throw err;

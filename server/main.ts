@@ -9,6 +9,7 @@ import { createApp } from './app';
 import { runStartupTasks } from './startup';
 import { STARTUP_TASKS } from './startup-tasks';
 import { useNamedStatements } from './db/prepared-query';
+import { logger } from './lib/logger';
 
 /** Connect to the database, object storage and mail relay named by the config. */
 export async function buildDeps(config: AppConfig, opts: { poolMax?: number } = {}): Promise<AppDeps> {
@@ -42,7 +43,7 @@ export async function startServer(config: AppConfig, opts: { clientDir?: string;
   const deps = await buildDeps(config);
   if (opts.migrate !== false) {
     const applied = await migrateToLatest(deps.orm);
-    if (applied.length) console.log(`[pullbook] applied migrations: ${applied.join(', ')}`);
+    if (applied.length) logger.info({ migrations: applied }, 'applied migrations');
   }
   await runStartupTasks(deps, STARTUP_TASKS);
   const created = createApp(deps, { clientDir: opts.clientDir });

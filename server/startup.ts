@@ -1,4 +1,5 @@
 import type { AppDeps } from './app-deps';
+import { logger } from './lib/logger';
 
 /**
  * Work done once when a server starts (after migrations, before listening), e.g. removing
@@ -12,9 +13,9 @@ export async function runStartupTasks(deps: AppDeps, tasks: readonly StartupTask
   for (const task of tasks) {
     try {
       const note = await task.run(deps);
-      if (note) console.log(`[pullbook] ${task.name}: ${note}`);
+      if (note) logger.info({ task: task.name }, note);
     } catch (err) {
-      console.error(`[pullbook] start-up task ${task.name} failed:`, err);
+      logger.error({ err, task: task.name }, 'start-up task failed');
     }
   }
 }

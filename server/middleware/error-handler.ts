@@ -3,6 +3,7 @@ import { NotFoundError } from '@mikro-orm/core';
 import multer from 'multer';
 import type { ApiErrorBody, ApiErrorCode } from '@shared/errors';
 import { AppError } from '../lib/errors';
+import { logger, safeUrl } from '../lib/logger';
 
 /** Turns every failure into `{ error: { code, message, details } }`; internals never leak. */
 export function errorHandler(): express.ErrorRequestHandler {
@@ -25,7 +26,7 @@ export function errorHandler(): express.ErrorRequestHandler {
     } else if ((err as { type?: string }).type === 'entity.parse.failed') {
       appError = new AppError('BAD_JSON', 'Request body is not valid JSON', 400);
     } else {
-      console.error(`[${res.locals.requestId ?? '-'}] ${req.method} ${req.originalUrl} failed:`, err);
+      logger.error({ err, reqId: res.locals.requestId, method: req.method, url: safeUrl(req.originalUrl) }, 'request failed');
       appError = new AppError('INTERNAL', `Something went wrong on our side (reference ${res.locals.requestId ?? 'unknown'})`, 500);
     }
     if (appError.status === 429 && (appError.details as { retryAfterSeconds?: number })?.retryAfterSeconds) {

@@ -2,6 +2,7 @@ import fs from 'node:fs';
 import type express from 'express';
 import multer from 'multer';
 import type { AppConfig } from '../config/env';
+import { logger } from '../lib/logger';
 
 const mb = (bytes: number) => (bytes >= 1024 * 1024 ? `${(bytes / (1024 * 1024)).toFixed(bytes % (1024 * 1024) ? 1 : 0)} MB` : bytes >= 1024 ? `${Math.round(bytes / 1024)} KB` : `${bytes} bytes`);
 
@@ -59,7 +60,7 @@ export async function removeUploadedFiles(req: express.Request): Promise<void> {
       .filter((p): p is string => typeof p === 'string' && p.length > 0)
       .map((p) =>
         fs.promises.rm(p, { force: true }).catch((err: unknown) => {
-          console.error(`[pullbook] could not remove temporary upload ${p}:`, err);
+          logger.warn({ err, path: p }, 'could not remove a temporary upload');
         }),
       ),
   );

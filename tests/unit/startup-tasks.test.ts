@@ -2,6 +2,7 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import { runStartupTasks, type StartupTask } from '@server/startup';
 import { STARTUP_TASKS } from '@server/startup-tasks';
 import type { AppDeps } from '@server/app-deps';
+import { logger } from '@server/lib/logger';
 
 afterEach(() => vi.restoreAllMocks());
 
@@ -11,8 +12,8 @@ describe('start-up tasks', () => {
   });
 
   it('run one after another in list order; a failing task is logged and the next one still runs', async () => {
-    const log = vi.spyOn(console, 'log').mockImplementation(() => undefined);
-    const error = vi.spyOn(console, 'error').mockImplementation(() => undefined);
+    const log = vi.spyOn(logger, 'info').mockImplementation(() => undefined);
+    const error = vi.spyOn(logger, 'error').mockImplementation(() => undefined);
     const order: string[] = [];
     const task = (name: string, fail = false): StartupTask => ({
       name,
@@ -26,8 +27,12 @@ describe('start-up tasks', () => {
     });
     await runStartupTasks({} as AppDeps, [task('first'), task('second', true), task('third')]);
     expect(order).toEqual(['first', 'second', 'third']);
-    expect(log.mock.calls.map((c) => c[0])).toEqual(['[pullbook] first: first done', '[pullbook] third: third done']);
+    // One structured line per task that has something to say: the task's name and its note.
+    expect(log.mock.calls.map((c) => [c[0], c[1]])).toEqual([
+      [{ task: 'first' }, 'first done'],
+      [{ task: 'third' }, 'third done'],
+    ]);
     expect(error).toHaveBeenCalledTimes(1);
-    expect(String(error.mock.calls[0][0])).toContain('second');
+    expect(error.mock.calls[0][0]).toMatchObject({ task: 'second' });
   });
 });

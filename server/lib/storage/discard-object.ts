@@ -1,5 +1,6 @@
 import type { AppDeps } from '../../app-deps';
 import { OrphanObject } from './orphan-object.entity';
+import { logger } from '../logger';
 
 /**
  * Remove an object whose database row never committed (a run's raw file, a report's PDF); if the
@@ -16,7 +17,7 @@ export async function discardObject(deps: Pick<AppDeps, 'storage' | 'orm'>, key:
       await em.flush();
       return 'recorded';
     } catch (err) {
-      console.error(`[pullbook] could not remove or record orphan object ${key}:`, err);
+      logger.error({ err, key }, 'could not remove or record an orphan object');
       return 'lost';
     }
   }

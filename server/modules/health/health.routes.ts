@@ -1,6 +1,7 @@
 import { ApiRouter, reply } from '../../http/api-router';
 import type { AppDeps } from '../../app-deps';
 import type { HealthDto } from '@shared/schemas/common';
+import { logger } from '../../lib/logger';
 
 /** Try one dependency. The answer says only up or down: hosts, ports and driver errors go to the log, not to anonymous callers. */
 async function probe(name: string, check: () => Promise<unknown>, timeoutMs = 2000): Promise<{ ok: boolean }> {
@@ -9,7 +10,7 @@ async function probe(name: string, check: () => Promise<unknown>, timeoutMs = 20
     await Promise.race([check(), new Promise((_, reject) => (timer = setTimeout(() => reject(new Error('timed out')), timeoutMs)))]);
     return { ok: true };
   } catch (err) {
-    console.error(`[pullbook] health: ${name} is down:`, err instanceof Error ? err.message || err.name : err);
+    logger.warn({ part: name, reason: err instanceof Error ? err.message || err.name : String(err) }, 'health: a part is down');
     return { ok: false };
   } finally {
     clearTimeout(timer);

@@ -25,6 +25,7 @@ import { reprocessRunById } from './reprocess-run';
 import { runPreview } from './run-preview';
 import { contentDisposition, rawFile } from './raw-file';
 import { deleteLayout, listLayouts } from './column-layouts';
+import { logger } from '../../lib/logger';
 
 const blankToUndefined = (v: unknown) => (v === '' || v === null ? undefined : v);
 /** Text fields of the multipart upload. */
@@ -81,7 +82,7 @@ export function runRoutes(deps: AppDeps): ApiRouter[] {
       res.set('X-Content-SHA256', run.rawSha256);
       await new Promise<void>((resolve) => {
         obj.body.once('error', (err) => {
-          console.error(`[pullbook] reading ${run.rawKey} failed mid-download:`, err);
+          logger.error({ err, key: run.rawKey }, 'raw file download failed mid-stream');
           res.destroy(err);
           resolve();
         });

@@ -27,6 +27,7 @@ import { putRawFile, rawKeyFor, sha256Of, type IncomingFile } from './raw-store'
 import { analyseUpload, analysisContext, shopLayouts, type AnalysisOutcome } from './run-analysis';
 import { applyOutcome } from './run-outcome';
 import { nextSequence } from './run-sequence';
+import { logger } from '../../lib/logger';
 
 export type { IncomingFile } from './raw-store';
 
@@ -168,7 +169,7 @@ export async function ingestFiles(em: EntityManager, deps: AppDeps, actor: Actor
       // The same content may be in the archive through another request's runs: never remove an object a run points at.
       const shared = (await em.fork().count(Run, { rawKey: key })) > 0;
       const fate = shared ? 'kept (other runs point at it)' : await discardObject(deps, key, `run row for ${f.originalName} did not commit: ${why}`);
-      console.error(`[pullbook] saving run ${f.originalName} failed (object ${fate}): ${why}`);
+      logger.error({ file: f.originalName, object: fate, reason: why }, 'saving an uploaded run failed');
       pending.push({ kind: 'done', result: resultOfError(f.originalName, { code: 'SAVE_FAILED', message: 'The file could not be saved in the archive; nothing was kept. Try again.' }) });
     }
   }
