@@ -38,6 +38,9 @@ export function createApp(deps: AppDeps, opts: { clientDir?: string } = {}): Cre
     res.set('Referrer-Policy', 'same-origin');
     next();
   });
+  // Sign-in and account bodies are a few fields: a small cap keeps a large (deeply nested) body
+  // from costing the event loop a parse before any check. The 2 MB parser skips bodies parsed here.
+  app.use('/api/auth', express.json({ limit: '16kb' }));
   app.use('/api', express.json({ limit: '2mb' }));
   app.use('/api', sameOriginOnly(deps.config.PUBLIC_URL));
   // One EntityManager per request; services get it explicitly, never a global.
