@@ -10,8 +10,12 @@ import type { AppDeps } from '../app-deps';
 import { verifyCredentials } from '../modules/auth/auth.service';
 import type { Actor } from './actor';
 import { asQuery } from '../db/prepared-query';
+import { logger } from '../lib/logger';
+import { isDatabaseUnavailable } from '../lib/db-errors';
 
 export const SESSION_COOKIE = 'pullbook.sid';
+
+const isApiPath = (p: string) => p === '/api' || p.startsWith('/api/');
 /** Session rows (Migration20261201220500). */
 const SESSION_TABLE = 'http_session';
 
@@ -79,21 +83,38 @@ export function installSessions(app: express.Express, deps: AppDeps) {
     }
   }
   const pool = new pg.Pool({ connectionString: deps.config.DATABASE_URL, max: 10 });
+  // An idle connection cut by the server (restart, failover) is dropped by the pool and replaced
+  // on the next query; without a listener the 'error' event would end the process.
+  pool.on('error', (err) => logger.warn({ err }, 'session pool: an idle database connection was lost'));
   const secure = deps.config.PUBLIC_URL.startsWith('https://');
   if (secure) app.set('trust proxy', 1);
 
   app.use((_req, _res, next) => sessionLoad.run({}, next));
-  app.use(
-    session({
-      name: SESSION_COOKIE,
-      // No touch on every request: a session lasts 12 h from sign-in (a working day), and reads
-      // stay reads — one write per request would dominate the cost of light API calls.
-      store: new SessionStore({ pool, tableName: SESSION_TABLE, createTableIfMissing: false, pruneSessionInterval: 15 * 60, disableTouch: true }),
-      secret: deps.config.SESSION_SECRET,
-      resave: false,
-      saveUninitialized: false,
-      rolling: false,
-      cookie: { httpOnly: true, sameSite: 'lax', secure, maxAge: 12 * 3600 * 1000 },
+  const sessions = session({
+    name: SESSION_COOKIE,
+    // No touch on every request: a session lasts 12 h from sign-in (a working day), and reads
+    // stay reads — one write per request would dominate the cost of light API calls.
+    store: new SessionStore({
+      pool,
+      tableName: SESSION_TABLE,
+      createTableIfMissing: false,
+      pruneSessionInterval: 15 * 60,
+      disableTouch: true,
+      errorLog: (...args: unknown[]) => logger.warn({ detail: args.map(String) }, 'session store'),
+    }),
+    secret: deps.config.SESSION_SECRET,
+    resave: false,
+    saveUninitialized: false,
+    rolling: false,
+    cookie: { httpOnly: true, sameSite: 'lax', secure, maxAge: 12 * 3600 * 1000 },
+  });
+  // While the database is down, API requests fail (503 from the error handler), but the app
+  // shell and static files need no session: they are served without one.
+  app.use((req, res, next) =>
+    sessions(req, res, (err?: unknown) => {
+      if (!err || isApiPath(req.path) || !isDatabaseUnavailable(err)) return next(err);
+      logger.warn({ err, reqId: res.locals.requestId }, 'session not read (database unavailable); serving without it');
+      next();
     }),
   );
 
@@ -118,7 +139,9 @@ export function installSessions(app: express.Express, deps: AppDeps) {
   });
 
   app.use(passport.initialize());
-  app.use(passport.session());
+  const passportSession = passport.session();
+  // No session means it could not be read (see above): the request goes on signed out.
+  app.use((req, res, next) => (req.session ? passportSession(req, res, next) : next()));
 
   return { close: () => pool.end() };
 }

@@ -4,6 +4,7 @@ import multer from 'multer';
 import type { ApiErrorBody, ApiErrorCode } from '@shared/errors';
 import { AppError } from '../lib/errors';
 import { logger, safeUrl } from '../lib/logger';
+import { isDatabaseUnavailable } from '../lib/db-errors';
 
 /** Turns every failure into `{ error: { code, message, details } }`; internals never leak. */
 export function errorHandler(): express.ErrorRequestHandler {
@@ -25,6 +26,9 @@ export function errorHandler(): express.ErrorRequestHandler {
       appError = new AppError('BODY_TOO_LARGE', 'Request body is too large', 413);
     } else if ((err as { type?: string }).type === 'entity.parse.failed') {
       appError = new AppError('BAD_JSON', 'Request body is not valid JSON', 400);
+    } else if (isDatabaseUnavailable(err)) {
+      logger.warn({ err, reqId: res.locals.requestId, method: req.method, url: safeUrl(req.originalUrl) }, 'database unavailable');
+      appError = new AppError('DATABASE_UNAVAILABLE', 'The database cannot be reached right now; try again in a moment', 503);
     } else {
       logger.error({ err, reqId: res.locals.requestId, method: req.method, url: safeUrl(req.originalUrl) }, 'request failed');
       appError = new AppError('INTERNAL', `Something went wrong on our side (reference ${res.locals.requestId ?? 'unknown'})`, 500);

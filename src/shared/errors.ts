@@ -17,6 +17,7 @@ export const API_ERROR_CODES = [
   'RATE_LIMITED',
   'NOT_FOUND',
   'INTERNAL',
+  'DATABASE_UNAVAILABLE',
   // accounts
   'BAD_CREDENTIALS',
   'PASSWORD_WRONG',

@@ -45,15 +45,21 @@ function requireEnv(name: string) {
 
 let passwordHash: Promise<string> | undefined;
 
-export async function createTestApp(opts: { clientDir?: string; env?: Record<string, string> } = {}): Promise<TestApp> {
+/**
+ * `databaseUrl`: run on that (already migrated) database instead of a clone of the template; it
+ * is left in place on close.
+ */
+export async function createTestApp(opts: { clientDir?: string; env?: Record<string, string>; databaseUrl?: string } = {}): Promise<TestApp> {
   const templateUrl = requireEnv('TEST_DATABASE_TEMPLATE_URL');
   const dbName = `pbt_${randomBytes(6).toString('hex')}`;
-  const admin = new pg.Client({ connectionString: templateUrl.replace(/\/[^/]+$/, '/postgres') });
-  await admin.connect();
-  await admin.query(`create database "${dbName}" template pullbook_template`);
-  await admin.end();
+  if (!opts.databaseUrl) {
+    const admin = new pg.Client({ connectionString: templateUrl.replace(/\/[^/]+$/, '/postgres') });
+    await admin.connect();
+    await admin.query(`create database "${dbName}" template pullbook_template`);
+    await admin.end();
+  }
 
-  const config = loadConfig({ ...process.env, DATABASE_URL: templateUrl.replace(/\/[^/]+$/, `/${dbName}`), PUBLIC_URL: 'http://127.0.0.1:3999', ...opts.env });
+  const config = loadConfig({ ...process.env, DATABASE_URL: opts.databaseUrl ?? templateUrl.replace(/\/[^/]+$/, `/${dbName}`), PUBLIC_URL: 'http://127.0.0.1:3999', ...opts.env });
   const deps = await buildDeps(config, { poolMax: 5 });
   const created = createApp(deps, { clientDir: opts.clientDir });
   passwordHash ??= hashPassword(TEST_PASSWORD, 10);
@@ -88,6 +94,7 @@ export async function createTestApp(opts: { clientDir?: string; env?: Record<str
     async close() {
       await created.close();
       await deps.orm.close();
+      if (opts.databaseUrl) return;
       const c = new pg.Client({ connectionString: templateUrl.replace(/\/[^/]+$/, '/postgres') });
       await c.connect();
       // No FORCE: terminating a straggling connection surfaces as an unhandled error in the
