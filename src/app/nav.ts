@@ -16,6 +16,7 @@ export const NAV: NavItem[] = [
   { label: 'Customers', to: paths.customers, roles: ['owner', 'tuner', 'desk'] },
   { label: 'Bikes', to: paths.bikes, roles: ['owner', 'tuner', 'desk'] },
   { label: 'Comparisons', to: paths.comparisons, roles: ['owner', 'tuner', 'desk'] },
+  { label: 'Gain reports', to: paths.reports, roles: ['owner', 'tuner', 'desk'] },
   { label: 'Build finder', to: paths.finder, roles: ['owner', 'tuner', 'desk'] },
 ];
 

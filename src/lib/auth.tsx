@@ -1,9 +1,12 @@
 import { createContext, useContext, type ReactNode } from 'react';
+import { Link } from 'react-router-dom';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { STAFF, type Role } from '@shared/roles';
 import type { SignedInUser } from '@shared/schemas/auth';
 import { api, ApiError } from './api-client';
 import { authKeys } from './query-keys';
+import { usePageTitle } from './page-title';
+import { paths } from '@/config/paths';
 
 /** The user GET /api/auth/me answers with (the server's actor). */
 export type CurrentUser = SignedInUser;
@@ -93,16 +96,30 @@ export const SIGNED_IN_AS: Record<Role, string> = { owner: 'an owner', tuner: 'a
  */
 export function RequireRole({ roles, children }: { roles: readonly Role[]; children: ReactNode }) {
   const { user } = useAuth();
-  if (!hasRole(user, roles)) {
-    return (
-      <div role="alert" className="mx-auto max-w-xl rounded-card border border-line bg-paper-raised p-6 text-ink">
-        <h1 className="text-xl font-semibold">Not available for your role</h1>
-        <p className="mt-2 text-ink-muted">
-          This page is for {audienceOf(roles)}
-          {user ? `; you are signed in as ${SIGNED_IN_AS[user.role]}` : ''}. Use the navigation above to get back to your own pages.
-        </p>
-      </div>
-    );
-  }
+  if (!hasRole(user, roles)) return <NotForYourRole audience={audienceOf(roles)} />;
   return <>{children}</>;
+}
+
+/**
+ * The plain page for someone whose role may not see a screen (a guard above, or the API's 403
+ * under a route): who the page is for, who they are, and the way home. No "Try again": a retry
+ * cannot change the answer.
+ */
+export function NotForYourRole({ audience = 'shop staff' }: { audience?: string }) {
+  const { user } = useAuth();
+  usePageTitle('Not available for your role');
+  return (
+    <div role="alert" className="mx-auto max-w-xl rounded-card border border-line bg-paper-raised p-6 text-ink">
+      <h1 className="text-xl font-semibold">Not available for your role</h1>
+      <p className="mt-2 text-ink-muted">
+        This page is for {audience}
+        {user ? `; you are signed in as ${SIGNED_IN_AS[user.role]}` : ''}.
+      </p>
+      <p className="mt-4">
+        <Link to={paths.home} className="focus-ring rounded-control font-semibold text-accent underline">
+          Go to the start page
+        </Link>
+      </p>
+    </div>
+  );
 }

@@ -1,3 +1,4 @@
+import { usePageTitle } from './page-title';
 import type { ReactNode } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import type { QueryKey, UseQueryOptions } from '@tanstack/react-query';
@@ -54,6 +55,7 @@ export interface ServerListPageProps<TItem, TKey extends QueryKey> {
  * count and the "New …" button, search box, the table or its error, then the caller's dialogs.
  */
 export function ServerListPage<TItem, TKey extends QueryKey>(props: ServerListPageProps<TItem, TKey>) {
+  usePageTitle(props.title);
   const { search, onSearchChange, q, list, tableProps } = useServerTable({ defaultSort: props.defaultSort, query: props.query });
   const total = list.data?.total;
   const [one, many] = props.noun;

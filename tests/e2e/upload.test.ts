@@ -285,7 +285,7 @@ describe('uploading a dyno session', () => {
     const table = page.getByRole('table', { name: 'Runs of this session' });
     await expect.poll(() => table.locator('tbody tr').count()).toBe(3);
     expect(await page.getByText('Safety checks confirmed').first().isVisible()).toBe(true);
-    await table.getByRole('button', { name: 'Make pull-01.csv the reference run of Baseline' }).click();
+    await table.getByRole('button', { name: 'Make reference: pull-01.csv for Baseline' }).click();
     await expect.poll(() => table.getByText('Reference of Baseline').isVisible()).toBe(true);
     await h.screenshot(page, 'upload-07-session-page');
     const stages = await tuner.get('/api/stages').query({ bikeId: shop.bike.id });

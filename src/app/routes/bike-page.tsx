@@ -12,6 +12,7 @@ import { BikeStageTimeline } from '@/features/comparisons';
 import { BikeReportsSection } from '@/features/reports';
 import { SimilarBuilds, TypicalOutcomePanel } from '@/features/finder';
 import { bikeLabel } from '@shared/labels';
+import { usePageTitle } from '@/lib/page-title';
 
 /**
  * The bike page: the bike's identity first, then everything the archive holds about it.
@@ -23,6 +24,7 @@ export function BikePage() {
   const isStaff = hasRole(user, STAFF);
   const canEdit = hasRole(user, ['owner', 'desk']);
   const bike = useQuery(bikeQueries.detail(bikeId));
+  usePageTitle(bike.data ? bikeLabel(bike.data) : 'Bike');
   const [editing, setEditing] = useState(false);
 
   if (bike.isPending) return <LoadingState message="Loading the bike…" />;

@@ -20,11 +20,31 @@ export interface DialogProps {
   dismissible?: boolean;
   /** While true (e.g. saving), Esc, backdrop and the close button do nothing. */
   busy?: boolean;
-  /** Element to focus when opening; default the first focusable element. */
+  /**
+   * Element to focus when opening. Default: the first field of the body; without fields, the body's
+   * first control, else the footer's first button (Cancel). Never the × button: Enter pressed at once
+   * must not close a dialog unsaved.
+   */
   initialFocusRef?: RefObject<HTMLElement | null>;
   /** Hide the × button (ConfirmDialog has its own Cancel). */
   hideCloseButton?: boolean;
   className?: string;
+}
+
+const FIELD = 'input:not([type="hidden"]):not(:disabled), select:not(:disabled), textarea:not(:disabled)';
+const CONTROL = `${FIELD}, button:not(:disabled), a[href], [tabindex]:not([tabindex="-1"])`;
+
+function firstShown(root: Element | null, selector: string): HTMLElement | null {
+  if (!root) return null;
+  for (const el of root.querySelectorAll<HTMLElement>(selector)) if (el.getClientRects().length > 0) return el;
+  return null;
+}
+
+/** Where focus goes when a dialog opens without an `initialFocusRef` (see DialogProps). */
+export function defaultFocusTarget(dialog: HTMLElement): HTMLElement | null {
+  const body = dialog.querySelector('[data-dialog-body]');
+  const footer = dialog.querySelector('[data-dialog-footer]');
+  return firstShown(body, FIELD) ?? firstShown(body, CONTROL) ?? firstShown(footer, CONTROL);
 }
 
 const sizeClass = { sm: 'max-w-sm', md: 'max-w-lg', lg: 'max-w-2xl', xl: 'max-w-4xl' } as const;
@@ -66,7 +86,7 @@ export function Dialog({
       if (typeof dialog.showModal === 'function') dialog.showModal();
       else dialog.setAttribute('open', '');
     }
-    initialFocusRef?.current?.focus();
+    (initialFocusRef?.current ?? defaultFocusTarget(dialog))?.focus();
     const root = document.documentElement;
     const previousOverflow = root.style.overflow;
     root.style.overflow = 'hidden';
@@ -132,9 +152,9 @@ export function Dialog({
               />
             )}
           </header>
-          {children != null && <div className="min-h-0 flex-1 overflow-y-auto px-5 py-4">{children}</div>}
+          {children != null && <div data-dialog-body className="min-h-0 flex-1 overflow-y-auto px-5 py-4">{children}</div>}
           {footer != null && (
-            <footer className="flex flex-wrap items-center justify-end gap-2 border-t border-line px-5 py-3">{footer}</footer>
+            <footer data-dialog-footer className="flex flex-wrap items-center justify-end gap-2 border-t border-line px-5 py-3">{footer}</footer>
           )}
         </div>
       )}

@@ -24,7 +24,12 @@ function messageOf(error: unknown): string | undefined {
   return undefined;
 }
 
-/** A failed load: what went wrong and a way to try again. */
+/** A refusal (HTTP 403, e.g. a customer on a staff screen): asking again gets the same answer. */
+function isRefusal(error: unknown): boolean {
+  return Boolean(error && typeof error === 'object' && 'status' in error && error.status === 403);
+}
+
+/** A failed load: what went wrong and a way to try again (none for a refusal, which a retry cannot change). */
 export function ErrorState({
   title = "This didn't load",
   message,
@@ -40,7 +45,7 @@ export function ErrorState({
       <Icon name="octagon" size={36} strokeWidth={1.5} className="mb-3 text-loss" />
       <p className="text-lg font-semibold text-ink">{title}</p>
       <p className="mt-1 max-w-md text-ink-muted">{text}</p>
-      {onRetry && (
+      {onRetry && !isRefusal(error) && (
         <Button className="mt-4" onClick={onRetry} loading={isRetrying} icon={<Icon name="refresh" size={18} />}>
           {retryLabel}
         </Button>

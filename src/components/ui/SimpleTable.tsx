@@ -1,4 +1,4 @@
-import type { ReactNode } from 'react';
+import { useId, type ReactNode } from 'react';
 import { cn } from './cn';
 
 /** A header cell: its text, or the text and whether the column holds numbers (right-aligned). */
@@ -6,8 +6,11 @@ export type SimpleColumn = ReactNode | { label: ReactNode; numeric?: boolean; cl
 
 export interface SimpleTableProps {
   columns: readonly SimpleColumn[];
-  /** Accessible name, read by screen readers only. */
-  caption?: ReactNode;
+  /**
+   * Accessible name, read by screen readers only. It also names the scroll box, which is a
+   * focusable region so keyboard users can scroll a wide or tall table.
+   */
+  caption: ReactNode;
   /** The scroll box around the table, e.g. "overflow-x-auto". */
   className?: string;
   /** Minimum width of the table before the box scrolls, e.g. "min-w-[32rem]". */
@@ -28,10 +31,13 @@ function isColumnSpec(c: SimpleColumn): c is { label: ReactNode; numeric?: boole
 
 /** A small static table (figures, a short list) with the kit's header look; DataTable is for sorting and paging. */
 export function SimpleTable({ columns, caption, className, minWidth, pad = 'px-3', stickyHead, bodyClassName = 'num', children }: SimpleTableProps) {
+  const captionId = useId();
   return (
-    <div className={className}>
+    <div className={className} role="region" aria-labelledby={captionId} tabIndex={0}>
       <table className={cn('w-full text-sm', minWidth)}>
-        {caption && <caption className="sr-only">{caption}</caption>}
+        <caption id={captionId} className="sr-only">
+          {caption}
+        </caption>
         <thead className={cn(stickyHead && 'sticky top-0', 'bg-paper-sunk text-left text-ink-muted')}>
           <tr>
             {columns.map((c, i) => {

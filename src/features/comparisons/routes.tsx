@@ -1,5 +1,7 @@
 import type { ReactNode } from 'react';
 import type { RouteObject } from 'react-router-dom';
+import { STAFF } from '@shared/roles';
+import { RequireRole } from '@/lib/auth';
 import { paths } from '@/config/paths';
 
 /** What the app layer adds to comparison screens (other features' parts, composed in src/app). */
@@ -12,7 +14,20 @@ export interface ComparisonExtras {
 export function comparisonRoutes(extras: ComparisonExtras = {}): RouteObject[] {
   return [
     { path: paths.comparisons, lazy: async () => ({ Component: (await import('./pages/comparisons-page')).default }) },
-    { path: paths.newComparison, lazy: async () => ({ Component: (await import('./pages/comparison-builder-page')).default }) },
+    {
+      // The builder asks staff-only endpoints: a customer who types the address is told plainly.
+      path: paths.newComparison,
+      lazy: async () => {
+        const ComparisonBuilderPage = (await import('./pages/comparison-builder-page')).default;
+        return {
+          element: (
+            <RequireRole roles={STAFF}>
+              <ComparisonBuilderPage />
+            </RequireRole>
+          ),
+        };
+      },
+    },
     {
       path: paths.comparison(),
       lazy: async () => {

@@ -6,6 +6,7 @@ import { Button, DataTable, ErrorState, PageHeader, SelectField } from '@/compon
 import { formatCount, formatDateTime } from '@shared/format';
 import { paths } from '@/config/paths';
 import { adminQueries, type AuditEntry } from '../api/admin-queries';
+import { usePageTitle } from '@/lib/page-title';
 
 /** Kinds of change the log can be narrowed to, by the first part of the action ("run.upload" → run). */
 const ACTION_TYPES = [
@@ -190,6 +191,7 @@ const columns = [
 
 /** Owner only: the guard is the settings layout route (../routes.tsx). */
 export default function AuditPage() {
+  usePageTitle('Audit log');
   const [params, setParams] = useSearchParams();
   const type = ACTION_TYPES.find((t) => t.value === params.get('type')) ?? ACTION_TYPES[0];
   const audit = useInfiniteQuery(adminQueries.audit(type.prefixes));

@@ -4,6 +4,7 @@ import { createColumnHelper } from '@tanstack/react-table';
 import { Button, Caution, DataTable, Dialog, ErrorState, LoadingState, PageHeader } from '@/components/ui';
 import { formatDateTime, formatFileSize } from '@shared/format';
 import { adminQueries, outboxAttachmentUrl, type OutboxItem } from '../api/admin-queries';
+import { usePageTitle } from '@/lib/page-title';
 
 function Attachments({ message }: { message: OutboxItem }) {
   if (!message.attachments.length) return <span className="text-ink-subtle">None</span>;
@@ -23,6 +24,7 @@ function Attachments({ message }: { message: OutboxItem }) {
 
 /** Owner only: the guard is the settings layout route (../routes.tsx). */
 export default function OutboxPage() {
+  usePageTitle('Outbox');
   const outbox = useQuery(adminQueries.outbox());
   const [openId, setOpenId] = useState<string | null>(null);
   const col = createColumnHelper<OutboxItem>();

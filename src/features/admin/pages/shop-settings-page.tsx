@@ -8,6 +8,7 @@ import { Button, Card, ErrorState, FormError, LoadingState, PageHeader, SelectFi
 import { applyFieldErrors } from '@/lib/api-client';
 import { shopQuery } from '@/lib/shop-query';
 import { useUpdateShop } from '../api/update-shop';
+import { usePageTitle } from '@/lib/page-title';
 
 const CORRECTION_LABELS: Record<CorrectionStandard, string> = {
   none: 'None — observed figures as measured',
@@ -30,6 +31,7 @@ const CORRECTION_SELECT: SelectOption[] = Object.entries(CORRECTION_LABELS).map(
 
 /** Owner only: the guard is the settings layout route (../routes.tsx). */
 export default function ShopSettingsPage() {
+  usePageTitle('Shop settings');
   const shop = useQuery({ ...shopQuery(), staleTime: 0 });
   return (
     <>

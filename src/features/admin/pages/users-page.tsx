@@ -16,6 +16,7 @@ import { adminQueries, type UserDto } from '../api/admin-queries';
 import { useInviteUser } from '../api/invite-user';
 import { useUpdateUser } from '../api/update-user';
 import { useResendInvite } from '../api/resend-invite';
+import { usePageTitle } from '@/lib/page-title';
 
 const staffOptions = STAFF.map((r) => ({ value: r, label: ROLE_LABELS[r] }));
 const staffInviteForm = inviteUserInput.pick({ name: true, email: true }).extend({ role: z.enum(['owner', 'tuner', 'desk']) });
@@ -23,6 +24,7 @@ type InviteValues = z.input<typeof staffInviteForm>;
 
 /** Owner only: the guard is the settings layout route (../routes.tsx). */
 export default function UsersPage() {
+  usePageTitle('Users');
   const users = useQuery(adminQueries.users());
   return (
     <>

@@ -1,7 +1,9 @@
 import type { ReactNode } from 'react';
+import { PRODUCT_NAME, usePageTitle } from '@/lib/page-title';
 
 /** The frame of the signed-out pages: the name, one card, nothing else to distract. */
 export function AuthLayout({ title, subtitle, children, footer }: { title: string; subtitle?: ReactNode; children: ReactNode; footer?: ReactNode }) {
+  usePageTitle(title, PRODUCT_NAME);
   return (
     <div className="flex min-h-screen flex-col items-center bg-paper px-4 py-10 md:justify-center">
       <main className="w-full max-w-md">

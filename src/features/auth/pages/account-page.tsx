@@ -7,6 +7,7 @@ import { Card, FormError, PageHeader, SubmitRow, TextField, useToast } from '@/c
 import { useFormSubmit } from '@/lib/use-form-submit';
 import { useCurrentUser } from '@/lib/auth';
 import { useChangePassword } from '../api/change-password';
+import { usePageTitle } from '@/lib/page-title';
 
 const changePasswordForm = changePasswordInput
   .extend({ confirm: z.string() })
@@ -14,6 +15,7 @@ const changePasswordForm = changePasswordInput
 type Values = z.input<typeof changePasswordForm>;
 
 export default function AccountPage() {
+  usePageTitle('My account');
   const user = useCurrentUser();
   const toast = useToast();
   const change = useChangePassword();

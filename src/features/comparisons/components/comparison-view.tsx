@@ -212,7 +212,7 @@ function RunsTable({ preview, units }: { preview: ComparisonPreview; units: Retu
   const airUnits = useShopUnits();
   return (
     <Card title="Runs in this comparison" flush>
-      <SimpleTable columns={['Run', { label: 'Peak power', numeric: true }, { label: 'Peak torque', numeric: true }, 'Correction', 'Air', 'Dyno']} className="overflow-x-auto" minWidth="min-w-[40rem]">
+      <SimpleTable columns={['Run', { label: 'Peak power', numeric: true }, { label: 'Peak torque', numeric: true }, 'Correction', 'Air', 'Dyno']} caption="Runs in this comparison" className="overflow-x-auto" minWidth="min-w-[40rem]">
         {preview.runs.map((r, i) => (
           <tr key={r.runId} className="border-t border-line">
             <th scope="row" className="px-3 py-2 text-left font-medium">
@@ -250,7 +250,7 @@ function RepeatabilityTable({ preview }: { preview: ComparisonPreview }) {
       {preview.repeatability.length === 0 ? (
         <p className="px-4 py-3 text-ink-muted md:px-5">No stage here has two or more runs yet, so the spread is unknown. Make a second pull of each stage to know what is real.</p>
       ) : (
-        <SimpleTable columns={['Stage', { label: 'Runs', numeric: true }, { label: 'Peak power spread', numeric: true }, { label: 'Peak torque spread', numeric: true }, { label: 'Largest deviation', numeric: true }]} className="overflow-x-auto" minWidth="min-w-[32rem]">
+        <SimpleTable columns={['Stage', { label: 'Runs', numeric: true }, { label: 'Peak power spread', numeric: true }, { label: 'Peak torque spread', numeric: true }, { label: 'Largest deviation', numeric: true }]} caption="Run-to-run spread of each stage" className="overflow-x-auto" minWidth="min-w-[32rem]">
           {preview.repeatability.map((s) => (
             <tr key={s.stageId} className="border-t border-line">
               <th scope="row" className="px-3 py-2 text-left font-medium">{s.stageName}</th>

@@ -36,7 +36,7 @@ export function RunPicker({ bikeId, selected, baselineRunId, onToggle, onBaselin
       {runs.length === 0 ? (
         <p className="px-4 py-3 text-ink-muted">No runs on file for this bike yet.</p>
       ) : (
-        <SimpleTable columns={[{ label: 'Compare', className: 'w-20' }, { label: 'Baseline', className: 'w-20' }, 'Run', 'Stage', { label: 'Peak power', numeric: true }, 'Date']} className="max-h-80 overflow-auto" minWidth="min-w-[36rem]" stickyHead>
+        <SimpleTable columns={[{ label: 'Compare', className: 'w-20' }, { label: 'Baseline', className: 'w-20' }, 'Run', 'Stage', { label: 'Peak power', numeric: true }, 'Date']} caption={`Runs of ${bikeLabel}`} className="max-h-80 overflow-auto" minWidth="min-w-[36rem]" stickyHead>
           {runs.map((r) => {
             const on = selected.includes(r.id);
             const ready = r.status === 'ready';

@@ -13,6 +13,7 @@ import { ComparisonView } from '../components/comparison-view';
 import { RunPicker } from '../components/run-picker';
 import { SaveComparisonDialog } from '../components/save-comparison-dialog';
 import { bikeLabel } from '@shared/labels';
+import { usePageTitle } from '@/lib/page-title';
 
 const UNIT_LABELS: Record<ComparisonUnits, string> = { 'hp-lbft': 'hp and lb·ft', 'kw-nm': 'kW and N·m' };
 const BAND_WIDTHS = [250, 500, 1000, 1500, 2000];
@@ -25,6 +26,7 @@ const list = (v: string | null) => (v ? v.split(',').map((s) => s.trim()).filter
  * against the latest stage's.
  */
 export default function ComparisonBuilderPage() {
+  usePageTitle('New comparison');
   const [params] = useSearchParams();
   const navigate = useNavigate();
   const presetRuns = list(params.get('runIds'));

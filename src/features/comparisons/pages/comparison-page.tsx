@@ -10,6 +10,7 @@ import { paths } from '@/config/paths';
 import { comparisonQueries } from '../api/comparison-queries';
 import { useDeleteComparison } from '../api/delete-comparison';
 import { ComparisonView } from '../components/comparison-view';
+import { usePageTitle } from '@/lib/page-title';
 
 /**
  * A saved comparison with its figures computed now. Customers see their own bikes' comparisons read-only.
@@ -21,6 +22,7 @@ export default function ComparisonPage({ actions }: { actions?: (comparisonId: s
   const isStaff = hasRole(user, STAFF);
   const canDelete = hasRole(user, WORKSHOP);
   const q = useQuery(comparisonQueries.detail(comparisonId));
+  usePageTitle(q.data?.comparison.name ?? 'Comparison');
   const del = useDeleteComparison();
   const toast = useToast();
   const navigate = useNavigate();

@@ -4,9 +4,11 @@ import { EmptyState, ErrorState, Icon, LoadingState, PageHeader, SimpleTable } f
 import { formatDate } from '@shared/format';
 import { paths } from '@/config/paths';
 import { comparisonQueries } from '../api/comparison-queries';
+import { usePageTitle } from '@/lib/page-title';
 
 /** Saved comparisons, newest first (optionally `?bikeId=`). */
 export default function ComparisonsPage() {
+  usePageTitle('Comparisons');
   const [params] = useSearchParams();
   const bikeId = params.get('bikeId') ?? undefined;
   const q = useQuery(comparisonQueries.list({ bikeId }));

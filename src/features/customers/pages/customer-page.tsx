@@ -13,10 +13,12 @@ import { useDeleteCustomer } from '../api/delete-customer';
 import { CustomerFormDialog } from '../components/customer-form-dialog';
 import { PortalAccessDialog } from '../components/portal-access-dialog';
 import { bikeLabel } from '@shared/labels';
+import { usePageTitle } from '@/lib/page-title';
 
 export default function CustomerPage() {
   const { customerId = '' } = useParams();
   const customer = useQuery(customerQueries.detail(customerId));
+  usePageTitle(customer.data?.name ?? 'Customer');
 
   if (customer.isPending) return <LoadingState message="Loading the customer…" />;
   if (customer.isError) {

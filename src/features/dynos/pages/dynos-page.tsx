@@ -7,11 +7,13 @@ import { useCurrentUser } from '@/lib/auth';
 import { DYNO_KIND_LABELS, dynoQueries } from '../api/dyno-queries';
 import { useDeleteDyno } from '../api/delete-dyno';
 import { DynoFormDialog } from '../components/dyno-form-dialog';
+import { usePageTitle } from '@/lib/page-title';
 
 const col = createColumnHelper<DynoDto>();
 
 /** Settings → Dynos: the shop's equipment, managed by the owner. */
 export function DynosPage() {
+  usePageTitle('Dynos');
   const user = useCurrentUser();
   const toast = useToast();
   const dynos = useQuery(dynoQueries.list());

@@ -90,7 +90,7 @@ export function TypicalOutcomePanel({ bikeId, category: initialCategory = 'cylin
               </Caution>
             )}
             {d.count > 0 && (
-              <div className="overflow-x-auto">
+              <div className="overflow-x-auto" role="region" aria-labelledby={headingId} tabIndex={0}>
                 <table className="min-w-full text-sm" aria-labelledby={headingId}>
                   <caption id={headingId} className="sr-only">
                     Gain added by the stage with this change

@@ -5,9 +5,11 @@ import { formatCount } from '@shared/format';
 import { finderQueries, type FinderFilters } from '../api/finder-queries';
 import { FinderFiltersForm } from '../components/finder-filters-form';
 import { BuildResultsTable, type BuildSort } from '../components/build-results-table';
+import { usePageTitle } from '@/lib/page-title';
 
 /** Build finder: search the shop's past builds; filters live in the URL so a search can be shared. */
 export default function FinderPage() {
+  usePageTitle('Build finder');
   const [params, setParams] = useSearchParams();
   const filters: FinderFilters = Object.fromEntries(params.entries());
   const sort: BuildSort = (filters.sort as BuildSort) || (filters.engine ? 'similarity' : 'gain');

@@ -8,9 +8,11 @@ import { shopQuery } from '@/lib/shop-query';
 import { homeQueries } from '../api/home-queries';
 import { FiguresNotice } from '../components/cautions';
 import { bikeTitle } from '../components/bike-title';
+import { usePageTitle } from '@/lib/page-title';
 
 /** A rider's start page: their own bikes, read-only, each leading to its history. */
 export default function MyBikesPage() {
+  usePageTitle('My bikes');
   const user = useCurrentUser();
   const bikes = useQuery(homeQueries.myBikes());
   const shop = useQuery(shopQuery());

@@ -9,9 +9,11 @@ import { paths } from '@/config/paths';
 import { homeQueries } from '../api/home-queries';
 import { DynoCaution, EngineCaution } from '../components/cautions';
 import { bikeTitle } from '../components/bike-title';
+import { usePageTitle } from '@/lib/page-title';
 
 /** Staff start page: find someone, jump to the usual jobs, see what came in lately. */
 export default function TodayPage() {
+  usePageTitle('Today');
   const user = useCurrentUser();
   const navigate = useNavigate();
   const [search, setSearch] = useState('');

@@ -67,7 +67,7 @@ export function SharePanel({ reportId, canManage }: { reportId: string; canManag
         ) : links.data.length === 0 ? (
           <EmptyState icon="inbox" title="No share links yet" message="Create one, or send the report: sending adds a link to the e-mail." />
         ) : (
-          <div className="overflow-x-auto">
+          <div className="overflow-x-auto" role="region" aria-label="Share links" tabIndex={0}>
             <table className="w-full text-sm">
               <thead>
                 <tr className="border-b border-line text-left text-ink-subtle">

@@ -14,6 +14,7 @@ import { DeliveryLog } from '../components/delivery-log';
 import { displayUnits, powerGain, type DisplayUnits } from '@shared/units-display';
 import { costCoverage, type ReportCost } from '@shared/schemas/report';
 import { formatMoney } from '@shared/format';
+import { usePageTitle } from '@/lib/page-title';
 
 const linkButton = (variant: 'primary' | 'secondary') => cn(buttonBaseClass, buttonSizeClass.md, buttonVariantClass[variant]);
 
@@ -32,6 +33,7 @@ export default function ReportPage() {
   const { reportId = '' } = useParams();
   const [search, setSearch] = useSearchParams();
   const q = useQuery(reportQueries.detail(reportId));
+  usePageTitle(q.data ? `Gain report ${q.data.number}` : 'Gain report');
   const { user } = useAuth();
   const staff = hasRole(user, ['owner', 'tuner', 'desk']);
   const [sendOpen, setSendOpen] = useState(search.get('action') === 'send');

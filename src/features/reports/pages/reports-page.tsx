@@ -2,10 +2,12 @@ import { useQuery } from '@tanstack/react-query';
 import { Card, EmptyState, ErrorState, LoadingState, PageHeader } from '@/components/ui';
 import { reportQueries } from '../api/report-queries';
 import { ReportList } from '../components/report-list';
+import { usePageTitle } from '@/lib/page-title';
 
 /** Every report of the shop (customers: their own), newest first. */
 export default function ReportsPage() {
   const q = useQuery(reportQueries.list());
+  usePageTitle('Gain reports');
   return (
     <div className="space-y-6">
       <PageHeader title="Gain reports" subtitle="Every version the shop generated, newest first." />

@@ -7,6 +7,7 @@ import { reportQueries } from '../api/report-queries';
 import { ReportChart } from '../components/report-chart';
 import { HeadlineFigures } from '../components/gain-figures';
 import { powerValue, torqueValue, displayUnits } from '@shared/units-display';
+import { usePageTitle } from '@/lib/page-title';
 
 function NotValid({ rateLimited }: { rateLimited: boolean }) {
   return (
@@ -25,6 +26,7 @@ function NotValid({ rateLimited }: { rateLimited: boolean }) {
 export default function SharePage() {
   const { token = '' } = useParams();
   const q = useQuery(reportQueries.publicShare(token));
+  usePageTitle('Gain report', q.data?.shopName ?? null);
   if (q.isPending) return <LoadingState message="Loading the report…" />;
   if (q.isError) return <NotValid rateLimited={q.error instanceof ApiError && q.error.status === 429} />;
   const s = q.data;
@@ -68,7 +70,7 @@ export default function SharePage() {
         <h2 id="runs-title" className="text-lg font-semibold">
           Runs
         </h2>
-        <div className="overflow-x-auto">
+        <div className="overflow-x-auto" role="region" aria-labelledby="runs-title" tabIndex={0}>
           <table className="w-full text-sm">
             <thead>
               <tr className="border-b border-line text-left text-ink-subtle">

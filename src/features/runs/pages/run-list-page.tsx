@@ -11,6 +11,7 @@ import { bikeLabel, lookupQueries, runQueries, type RunFilters } from '../api/ru
 import { stageQueries } from '../api/stages/stage-queries';
 import { RUN_STATUS_LABELS, RunStatusBadge } from '../components/run-status';
 import { peakPowerColumn, peakTorqueColumn, runColumn, runName } from '../components/run-columns';
+import { usePageTitle } from '@/lib/page-title';
 
 const col = runColumn;
 const FILTER_KEYS = ['bikeId', 'customerId', 'stageId', 'tag', 'status', 'from', 'to'] as const;
@@ -75,6 +76,7 @@ const columns = [
 
 /** Every run of the shop, filtered and sorted on the server; the URL keeps the filters. */
 export function RunListPage() {
+  usePageTitle('Runs');
   const user = useCurrentUser();
   const [params, setParams] = useSearchParams();
   const filters = useMemo(() => filtersFrom(params), [params]);

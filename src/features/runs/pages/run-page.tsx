@@ -20,6 +20,7 @@ import { CORRECTION_HINT, CORRECTION_OPTIONS } from '../lib/correction';
 import { CrossCheckBadge, RunFlags, RunStatusBadge } from '../components/run-status';
 import { MappingDialog } from '../components/mapping-dialog';
 import { RunEditForm } from '../components/run-edit-form';
+import { usePageTitle } from '@/lib/page-title';
 
 const STANDARD_OPTIONS = CORRECTION_OPTIONS;
 const STOICH = formatNumber(GASOLINE_STOICH_AFR, { decimals: 1 });
@@ -328,6 +329,7 @@ function RunView({ run }: { run: RunDetailDto }) {
 export function RunPage() {
   const { runId = '' } = useParams();
   const run = useQuery(runQueries.detail(runId));
+  usePageTitle(run.data ? (run.data.label ?? run.data.originalName) : 'Run');
   if (run.isLoading) return <LoadingState message="Loading the run…" />;
   if (run.isError)
     return (

@@ -19,6 +19,7 @@ import { StageSelect } from '../components/stages/stage-select';
 import { SafetyChecklist } from '../components/sessions/safety-checklist';
 import { PullFilesNote } from '../components/pull-results';
 import { CORRECTION_OPTIONS } from '../lib/correction';
+import { usePageTitle } from '@/lib/page-title';
 
 const col = runColumn;
 
@@ -34,7 +35,7 @@ function ReferenceCell({ run, stages, canEdit }: { run: RunSummaryDto; stages: S
     <Button
       size="sm"
       loading={setRef.isPending}
-      aria-label={`Make ${run.label ?? run.originalName} the reference run of ${stage.name}`}
+      aria-label={`Make reference: ${run.label ?? run.originalName} for ${stage.name}`}
       onClick={() =>
         setRef.mutate(
           { stageId: stage.id, runId: run.id },
@@ -85,6 +86,7 @@ export function SessionPage() {
   const user = useCurrentUser();
   const canEdit = WORKSHOP.includes(user.role);
   const session = useQuery(sessionQueries.detail(sessionId));
+  usePageTitle(session.data ? `Session of ${formatDateTime(session.data.startedAt)}` : 'Session');
   const bikeId = session.data?.bikeId ?? '';
   const bike = useQuery({ ...lookupQueries.bike(bikeId), enabled: Boolean(bikeId) });
   const runs = useQuery({ ...runQueries.list({ sessionId, pageSize: 200, sort: 'createdAt' }), enabled: Boolean(sessionId) });

@@ -16,6 +16,7 @@ import { SessionForm } from '../components/sessions/session-form';
 import { CORRECTION_OPTIONS } from '../lib/correction';
 import { SafetyChecklist } from '../components/sessions/safety-checklist';
 import { UploadResults } from '../components/upload-results';
+import { usePageTitle } from '@/lib/page-title';
 
 const ACCEPT = ['.csv', '.txt', '.tsv', '.log', '.dat'];
 const MAX_BYTES = 50_000_000;
@@ -238,5 +239,6 @@ function UploadScreen() {
 
 /** The upload screen; the route admits only the tuner and the owner (RequireRole in routes.tsx). */
 export function UploadPage() {
+  usePageTitle('Upload runs');
   return <UploadScreen />;
 }

@@ -61,7 +61,7 @@ function StageItem({ stage, index, canEdit, onEdit, onDelete }: { stage: StageDt
         {stage.referenceRunId ? <div className="mt-2"><ReferenceRun runId={stage.referenceRunId} /></div> : <p className="mt-2 text-sm text-ink-subtle">No reference run chosen yet (choose one on a session page).</p>}
         {stage.parts.length === 0 && <p className="mt-2 text-sm text-ink-muted">No parts or work recorded for this stage.</p>}
         {stage.parts.length > 0 && (
-          <div className="mt-3 overflow-x-auto">
+          <div className="mt-3 overflow-x-auto" role="region" aria-label={`Parts of ${stage.name}`} tabIndex={0}>
             <table className="min-w-full text-sm">
               <caption className="sr-only">Parts of {stage.name}</caption>
               <thead>
