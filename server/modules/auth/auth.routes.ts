@@ -77,8 +77,8 @@ export function authRoutes(deps: AppDeps) {
     access: 'signed-in',
     summary: 'Change own password',
     body: changePasswordInput,
-    handler: async ({ em, actor, body }): Promise<OkDto> => {
-      await changePassword(em, actor, body.currentPassword, body.newPassword, deps.config.BCRYPT_ROUNDS);
+    handler: async ({ em, actor, body, req }): Promise<OkDto> => {
+      await changePassword(em, actor, body.currentPassword, body.newPassword, deps.config.BCRYPT_ROUNDS, req.sessionID);
       return { ok: true };
     },
   });

@@ -6,12 +6,15 @@ import { hitRateLimit, resetRateLimit } from '../../lib/rate-limit';
 import type { Mailer } from '../../lib/mail/mailer';
 import type { Actor } from '../../http/actor';
 import { AuthToken, User, type AuthTokenPurpose } from '../users/user.entity';
+import { judgePassword } from '@shared/password-policy';
 
 /** Attempts allowed per account and per client address in 15 minutes. */
 export const LOGIN_LIMITS = {
   perAccount: { limit: 10, windowSeconds: 15 * 60 },
   perIp: { limit: 50, windowSeconds: 15 * 60 },
 };
+/** Wrong current passwords allowed on the change form per user in 15 minutes (our own limit, like sign-in's). */
+export const CHANGE_PASSWORD_LIMIT = { limit: 5, windowSeconds: 15 * 60 };
 const TOKEN_LIFETIME_MS: Record<AuthTokenPurpose, number> = {
   invite: 7 * 24 * 3600 * 1000,
   reset: 60 * 60 * 1000,
@@ -74,25 +77,52 @@ export async function peekToken(em: EntityManager, token: string) {
   return row;
 }
 
-/** Use a token to set a password (invitation or reset). */
+/**
+ * Refuses a new password the policy (src/shared/password-policy.ts) judges too weak, or built from
+ * the person's own name or e-mail, with a field message on `field`.
+ */
+export function assertStrongPassword(password: string, userInputs: string[], field: string) {
+  const { ok, problem } = judgePassword(password, userInputs);
+  if (ok) return;
+  const message = problem ?? 'Choose a stronger password.';
+  throw new AppError('VALIDATION_FAILED', `Invalid body: ${field} — ${message}`, 400, { fields: [{ path: field, message }] });
+}
+
+/** Signs the user out everywhere except the session `keepSid` (when given). */
+export async function endOtherSessions(em: EntityManager, userId: string, keepSid?: string) {
+  await em.getConnection().execute(`delete from http_session where sess->'passport'->>'user' = ? and sid <> ?`, [userId, keepSid ?? '']);
+}
+
+/** Use a token to set a password (invitation or reset); every session of the user ends. */
 export async function consumeToken(em: EntityManager, token: string, password: string, rounds: number, name?: string): Promise<User> {
   const row = await peekToken(em, token);
+  assertStrongPassword(password, [row.user.name, row.user.email, ...(name ? [name] : [])], 'password');
   // Mark used atomically so two concurrent submissions cannot both succeed.
   const claimed = await em.nativeUpdate(AuthToken, { id: row.id, usedAt: null }, { usedAt: new Date() });
   if (claimed !== 1) throw badToken();
   row.user.passwordHash = await hashPassword(password, rounds);
   if (name && row.purpose === 'invite') row.user.name = name;
   await em.flush();
+  await endOtherSessions(em, row.user.id);
   return row.user;
 }
 
-export async function changePassword(em: EntityManager, actor: Actor, current: string, next: string, rounds: number) {
+/**
+ * Change one's own password. Tries are rate-limited per user before any hashing (a right one
+ * clears the count); the user's other sessions end, the one at `currentSid` stays signed in.
+ */
+export async function changePassword(em: EntityManager, actor: Actor, current: string, next: string, rounds: number, currentSid: string) {
+  const limitKey = `password-change:${actor.id}`;
+  await hitRateLimit(em, limitKey, CHANGE_PASSWORD_LIMIT, 'Too many wrong passwords; wait a few minutes and try again');
   const user = await em.findOneOrFail(User, actor.id);
   if (!user.passwordHash || !(await bcrypt.compare(current, user.passwordHash))) {
     throw new AppError('PASSWORD_WRONG', 'The current password is not right', 400, { fields: [{ path: 'currentPassword', message: 'Not right' }] });
   }
+  await resetRateLimit(em, limitKey);
+  assertStrongPassword(next, [user.name, user.email], 'newPassword');
   user.passwordHash = await hashPassword(next, rounds);
   await em.flush();
+  await endOtherSessions(em, user.id, currentSid);
 }
 
 /** Send a reset link if the account exists; says nothing either way (no account discovery). */

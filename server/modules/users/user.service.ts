@@ -6,7 +6,8 @@ import { wholePage, type Page } from '@shared/schemas/common';
 import type { Mailer } from '../../lib/mail/mailer';
 import type { InviteUserInput, UserDto } from '@shared/schemas/auth';
 import type { Role } from '@shared/roles';
-import { User } from './user.entity';
+import { AuthToken, User } from './user.entity';
+import { ShareLink } from '../reports/report.entity';
 import { Customer } from '../customers/customer.entity';
 import { Shop } from '../shops/shop.entity';
 import { issueToken } from '../auth/auth.service';
@@ -90,6 +91,13 @@ export async function updateUser(em: EntityManager, actor: Actor, id: string, pa
     if (patch.name !== undefined) found.name = patch.name;
     if (patch.role !== undefined) found.role = patch.role;
     if (patch.disabled !== undefined) found.disabled = patch.disabled;
+    if (patch.disabled && !before.disabled) {
+      // A disabled user's share links stop working and their unused invitation or reset links die
+      // (for good: enabling the user again brings neither back).
+      const now = new Date();
+      await tx.nativeUpdate(ShareLink, { createdBy: found.id, revokedAt: null }, { revokedAt: now });
+      await tx.nativeUpdate(AuthToken, { user: found.id, usedAt: null }, { usedAt: now });
+    }
     await recordAudit(tx, actor, 'user.update', 'user', found.id, { before, after: { name: found.name, role: found.role, disabled: found.disabled } });
     return found;
   });
