@@ -7,6 +7,7 @@ import { Card, FormError, PageHeader, SubmitRow, TextField, useToast } from '@/c
 import { useFormSubmit } from '@/lib/use-form-submit';
 import { useCurrentUser } from '@/lib/auth';
 import { useChangePassword } from '../api/change-password';
+import { PasswordMeter } from '../components/password-meter';
 import { usePageTitle } from '@/lib/page-title';
 
 const changePasswordForm = changePasswordInput
@@ -51,6 +52,7 @@ export default function AccountPage() {
             <input type="text" name="username" autoComplete="username" value={user.email} readOnly hidden />
             <TextField label="Current password" type="password" autoComplete="current-password" error={errors.currentPassword} {...form.register('currentPassword')} />
             <TextField label="New password" type="password" autoComplete="new-password" hint="At least 10 characters." error={errors.newPassword} {...form.register('newPassword')} />
+            <PasswordMeter password={form.watch('newPassword')} userInputs={[user.email, user.name]} />
             <TextField label="Type the password again" type="password" autoComplete="new-password" error={errors.confirm} {...form.register('confirm')} />
             <SubmitRow busy={change.isPending} busyLabel="Saving…">
               Change password

@@ -9,6 +9,7 @@ import { Button, ErrorState, FormError, LoadingState, TextField, useToast, field
 import { ApiError, applyFieldErrors } from '@/lib/api-client';
 import { paths } from '@/config/paths';
 import { AuthLayout } from '../components/auth-layout';
+import { PasswordMeter } from '../components/password-meter';
 import { authQueries, type TokenInfo } from '../api/auth-queries';
 import { useSetPassword } from '../api/set-password';
 
@@ -103,6 +104,7 @@ function SetPasswordForm({ token, info, isInvite, title }: { token: string; info
         <input type="text" name="username" autoComplete="username" value={info.email} readOnly hidden />
         {isInvite && <TextField label="Your name" autoComplete="name" hint="As the shop will see it. Change it if it is not right." error={errors.name} {...form.register('name')} />}
         <TextField label="New password" type="password" autoComplete="new-password" hint="At least 10 characters." error={errors.password} {...form.register('password')} />
+        <PasswordMeter password={form.watch('password')} userInputs={[info.email, info.name, form.watch('name')]} />
         <TextField label="Type the password again" type="password" autoComplete="new-password" error={errors.confirm} {...form.register('confirm')} />
         <Button type="submit" variant="primary" fullWidth loading={setPassword.isPending} loadingText="Saving…">
           {isInvite ? 'Set password and sign in' : 'Change password and sign in'}
