@@ -143,7 +143,7 @@ describe('generating a report', () => {
 
   it('prints shop, customer, bike, stages and costs, conditions, note, cautions and page numbers', async () => {
     const text = pdfText((await binary(desk.get(first.pdfUrl))).body as Buffer);
-    for (const s of ['Northgate Cycle Works', '14 Foundry Lane, Millbrook', '555-0142', a.customer.name, 'Testmake Own', 'Baseline', 'Stage 1', 'Stage 2', 'Two-into-one stainless system', '$899.00', '$720.00', 'SAE J1349', '25.0 °C', '99.0 kPa', 'Re-torque the exhaust clamps', 'ISO 4106', 'emissions', 'warranty', 'insurance', 'local law', 'Page 1 of 2', 'Page 2 of 2']) {
+    for (const s of ['Northgate Cycle Works', '14 Foundry Lane, Millbrook', '555-0142', a.customer.name, 'Testmake Own', 'Baseline', 'Stage 1', 'Stage 2', 'Two-into-one stainless system', '$899.00', '$720.00', 'SAE J1349', 'Re-torque the exhaust clamps', 'ISO 4106', 'emissions', 'warranty', 'insurance', 'local law', 'Page 1 of 2', 'Page 2 of 2']) {
       expect(text, s).toContain(s);
     }
     // Cost of the work after the baseline ÷ peak power gain: (899 + 180 + 450 + 549 + 720) / 18.5 = $151 per hp.
@@ -151,6 +151,17 @@ describe('generating a report', () => {
     expect(text).toContain(`$${Math.round(costDollars / (PEAKS_HP.stage2 - PEAKS_HP.baseline))}`);
     expect(text).toMatch(/Baseline: 2 runs|Repeatability|run-to-run/);
   });
+
+  it('prints the air conditions in the shop’s units (°F and inHg here) and says what correction was done', async () => {
+    const text = pdfText((await binary(desk.get(first.pdfUrl))).body as Buffer);
+    // 25 °C × 9/5 + 32 = 77.0 °F; 99 kPa ÷ 3.38638 kPa/inHg (32 °F) = 29.235 inHg (NIST SP 811).
+    expect(text).toContain('77.0 °F');
+    expect(text).toContain('29.23 inHg');
+    expect(text).not.toContain('25.0 °C');
+    expect(text).not.toContain('99.0 kPa');
+    expect(text).toContain('Corrected to SAE J1349');
+  });
+
 
   it('embeds the shop logo as an image', async () => {
     const file = path.join(os.tmpdir(), `pb-img-${process.pid}.pdf`);
@@ -193,6 +204,9 @@ describe('generating a report', () => {
       expect(powerIn(18.5, 'metric')).toBeCloseTo(13.795, 3);
       expect(torqueIn(1, 'metric')).toBeCloseTo(1.355818, 6);
       expect(text).toContain('+13.8 kW');
+      // Air in the metric shop's own units: the stored 25 °C and 99 kPa.
+      expect(text).toContain('25.0 °C');
+      expect(text).toContain('99.0 kPa');
       expect(text).not.toContain(' hp ');
       renderPage1(pdf, 'report-page1-metric-a4');
     } finally {
@@ -378,5 +392,20 @@ describe('cost per hp with a stage left out of the comparison (hand-computed)', 
     expect(st2.vsBaseline.peakPowerHp).toBeCloseTo(detail.data.cost.gainHp, 6);
     // 279 800 / 18.5 = 15 124.3 cents per hp.
     expect(st2.cumulativeCostPerHp.peakCents).toBeCloseTo(279_800 / 18.5, 0);
+  });
+});
+
+describe('a comparison printed as measured', () => {
+  it('names an uncorrected comparison in plain words, never "Corrected to Uncorrected"', async () => {
+    const tuner = await t.signIn(a.users.tuner);
+    const { r0, r2 } = scenario.runs;
+    const cmp = await tuner.post('/api/comparisons').send({ name: 'As measured', runIds: [r0.id, r2.id], baselineRunId: r0.id, options: { correction: 'none' } });
+    expect(cmp.status).toBe(201);
+    const res = await desk.post('/api/reports').send({ comparisonId: cmp.body.id });
+    expect(res.status).toBe(201);
+    const text = pdfText((await binary(desk.get(res.body.pdfUrl))).body as Buffer);
+    expect(text).toContain('Uncorrected (as measured)');
+    expect(text).not.toContain('Corrected to Uncorrected');
+    expect(text).not.toContain('corrected every run to Uncorrected');
   });
 });

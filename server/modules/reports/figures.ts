@@ -33,3 +33,17 @@ export function costPerPower(totalCostCents: number, gainHp: number, units: Unit
   if (!(gain > 0) || !(totalCostCents > 0)) return null;
   return `${formatMoney(totalCostCents / 100 / gain, { wholeUnits: true })} per ${unitLabels(units).power}`;
 }
+
+/**
+ * What was done to the printed figures, in plain words, from each run's correction standard
+ * ('none' = printed as measured) and its label: "Uncorrected (as measured)", "Corrected to SAE
+ * J1349", or, when the runs differ, "Each run corrected to its own standard: SAE J1349, DIN 70020".
+ */
+export function correctionHeadline(runs: readonly { correctionStandard: string; correctionLabel: string }[]): string {
+  const ids = [...new Set(runs.map((r) => r.correctionStandard))];
+  const labelOf = (id: string) => runs.find((r) => r.correctionStandard === id)?.correctionLabel ?? id;
+  if (!ids.length || (ids.length === 1 && ids[0] === 'none')) return 'Uncorrected (as measured)';
+  if (ids.length === 1) return `Corrected to ${labelOf(ids[0])}`;
+  const names = ids.map((id) => (id === 'none' ? 'uncorrected (as measured)' : labelOf(id)));
+  return `Each run corrected to its own standard: ${names.join(', ')}`;
+}

@@ -185,7 +185,12 @@ export function fileResult(file: string, runs: RunSummaryDto[], duplicate: boole
     const run = ready ?? runs[0];
     const deleted = runs.some((r) => r.deletedAt);
     const what = runs.length > 1 ? `${runs.length} runs from ${run.originalName}` : run.originalName;
-    return { file, ok: true, duplicate: true, run, ...many, message: `Already in the archive${deleted ? ' (as a deleted run; the owner can restore it)' : ''}: ${what}; nothing new was saved.` };
+    const archived = `Already in the archive${deleted ? ' (as a deleted run; the owner can restore it)' : ''}: ${what}; nothing new was saved.`;
+    if (ready) return { file, ok: true, duplicate: true, run, ...many, message: archived };
+    // The stored copy was never read: say so, and why, so the upload screen offers the mapping again.
+    const why = run.error?.message ?? 'it could not be analysed';
+    const next = run.status === 'needs-mapping' ? ' Choose its columns to read it.' : ' It stays in the archive and can be read again later.';
+    return { file, ok: true, duplicate: true, run, ...many, message: `${archived} The stored copy could not be read: ${why}${/[.!?]$/.test(why) ? '' : '.'}${next}` };
   }
   if (ready) return { file, ok: true, run: ready, ...many };
   const [first] = runs;

@@ -7,9 +7,10 @@ import type { ReactNode } from 'react';
 import { palette } from '@shared/theme';
 import { formatDate, formatNumber, formatRpmRange } from '@shared/format';
 import { PART_CATEGORY_LABELS, type PartCategory } from '@shared/parts';
-import { costPerPower, fmtMoneyCents, fmtPctChange, fmtPower, fmtPowerGain, fmtRpm, fmtTorque, fmtTorqueGain, unitLabels } from '../figures';
+import { correctionHeadline, costPerPower, fmtMoneyCents, fmtPctChange, fmtPower, fmtPowerGain, fmtRpm, fmtTorque, fmtTorqueGain, unitLabels } from '../figures';
 import { headlineGain, type ReportData } from '../report-data';
 import { costCoverage } from '@shared/schemas/report';
+import { formatAirTemperature, formatBarometric } from '@shared/units-display';
 import { LegendSwatch, OverlayChart } from './chart';
 import { PDF_FONT } from './fonts';
 
@@ -147,7 +148,7 @@ export function GainReportDocument({ data, logo }: { data: ReportData; logo?: Re
   const contentWidth = (data.paperSize === 'a4' ? 595.28 : 612) - 80;
   const date = formatDate(data.createdAt, { timeZone: 'UTC' });
   const perPower = data.cost ? costPerPower(data.cost.totalCostCents, data.cost.gainHp, u) : null;
-  const standards = [...new Set(data.runs.map((r) => r.correctionLabel))];
+  const corrected = correctionHeadline(data.runs);
 
   return (
     <Document title={`Gain report ${data.number} v${data.version} — ${bikeLine(data.bike)}`} author={data.shop.name} subject="Dyno gain report" creator="Pullbook" producer="Pullbook" language="en">
@@ -191,7 +192,7 @@ export function GainReportDocument({ data, logo }: { data: ReportData; logo?: Re
           <View style={s.col}>
             <Text style={s.label}>Compared</Text>
             <Text style={{ fontSize: 11, fontWeight: 500 }}>{finalRun ? `${runLabel(finalRun.label)} against ${runLabel(baseline?.label ?? 'baseline')}` : data.comparison.name}</Text>
-            <Text style={s.muted}>{`Corrected to ${standards.join(', ')}`}</Text>
+            <Text style={s.muted}>{corrected}</Text>
           </View>
         </View>
 
@@ -336,8 +337,8 @@ export function GainReportDocument({ data, logo }: { data: ReportData; logo?: Re
               runLabel(r.label),
               r.recordedAt ? formatDate(r.recordedAt, { timeZone: 'UTC' }) : '—',
               [r.dynoName, r.dynoKind].filter(Boolean).join(', ') || '—',
-              r.conditions.temperatureC !== null ? `${formatNumber(r.conditions.temperatureC, { decimals: 1 })} °C` : '—',
-              r.conditions.baroKpa !== null ? `${formatNumber(r.conditions.baroKpa, { decimals: 1 })} kPa` : '—',
+              formatAirTemperature(r.conditions.temperatureC, u, '—'),
+              formatBarometric(r.conditions.baroKpa, u, '—'),
               r.conditions.humidityPct !== null ? `${formatNumber(r.conditions.humidityPct)}%` : '—',
               `${r.correctionLabel}${r.correctionFactor !== null ? ` · ${formatNumber(r.correctionFactor, { decimals: 3 })}` : ''}`,
             ])}
@@ -364,7 +365,7 @@ export function GainReportDocument({ data, logo }: { data: ReportData; logo?: Re
             Dyno figures depend on the type of dyno, the correction standard and the conditions on the day. Compare only like with like: the same dyno, the same correction standard, similar conditions. Figures from another shop or another dyno are not directly comparable with these.
           </Text>
           <Text style={s.caution}>
-            {`Motorcycle engine test practice is covered by ISO 4106. This shop corrected every run to ${standards.join(', ')}, shown above with each run's conditions and correction factor.`}
+            {`Motorcycle engine test practice is covered by ISO 4106. ${corrected}; each run's conditions and correction factor are shown above.`}
           </Text>
           <Text style={s.caution}>
             Modifications may affect emissions compliance, noise limits, the maker's warranty and your insurance. Use on public roads is governed by local law; ask the shop which parts are approved where you ride. Leaner mixtures and more power raise engine temperatures: follow the engine maker's specifications and have work done by licensed technicians.

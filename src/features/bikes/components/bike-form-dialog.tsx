@@ -1,9 +1,9 @@
-import { useId, useState } from 'react';
+import { useId, useState, type ChangeEvent } from 'react';
 import { useForm, useWatch, type Control } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { bikeFormSchema, type BikeDto, type BikeFormValues } from '@shared/schemas/bike';
-import { cubicInchesToCc } from '@shared/displacement';
+import { cubicInchesToCc, guessDisplacementUnit } from '@shared/displacement';
 import type { ShopDto } from '@shared/schemas/shop';
 import { FormDialog, NumberField, SearchInput, SelectField, TextAreaField, TextField, cn, useDebouncedValue } from '@/components/ui';
 import { useSaveDialogSubmit } from '@/lib/use-form-submit';
@@ -110,13 +110,14 @@ function BikeFormDialogBody({ onClose, bike, customerId, onSaved }: BikeFormDial
         <datalist id={listId}>
           {families.data?.map((f) => <option key={f} value={f} />)}
         </datalist>
-        <DisplacementInput control={form.control} register={form.register} error={errors.displacement?.message} />
+        <DisplacementInput control={form.control} register={form.register} setValue={form.setValue} error={errors.displacement?.message} />
         <TextAreaField label="Notes" rows={3} error={errors.notes} {...form.register('notes')} />
     </FormDialog>
   );
 }
 
 type Register = ReturnType<typeof useForm<BikeFormValues, unknown, BikeFormData>>['register'];
+type SetValue = ReturnType<typeof useForm<BikeFormValues, unknown, BikeFormData>>['setValue'];
 
 /** Search box plus a native select, so a shop with hundreds of customers still finds one fast. */
 function CustomerPicker({ control, register, error, initialName }: { control: Control<BikeFormValues, unknown, BikeFormData>; register: ReturnType<Register>; error?: string; initialName?: string }) {
@@ -145,9 +146,23 @@ function CustomerPicker({ control, register, error, initialName }: { control: Co
   );
 }
 
-/** The number, a cm³ / in³ switch, and the same size in the other unit so a slip is obvious. */
-function DisplacementInput({ control, register, error }: { control: Control<BikeFormValues, unknown, BikeFormData>; register: Register; error?: string }) {
+/**
+ * The number, a cm³ / in³ switch, and the same size in the other unit so a slip is obvious. A size
+ * typed as cubic inches that only makes sense as cm³ (e.g. 1746) switches the unit to cm³ and says so.
+ */
+function DisplacementInput({ control, register, setValue, error }: { control: Control<BikeFormValues, unknown, BikeFormData>; register: Register; setValue: SetValue; error?: string }) {
   const [value, unit] = useWatch({ control, name: ['displacement', 'displacementUnit'] });
+  const [guessed, setGuessed] = useState(false);
+  const field = register('displacement');
+  const onSizeChange = (e: ChangeEvent<HTMLInputElement>) => {
+    const typed = Number(e.target.value);
+    const likely = e.target.value.trim() === '' ? unit : guessDisplacementUnit(typed, unit ?? 'cc');
+    if (likely !== unit) {
+      setValue('displacementUnit', likely);
+      setGuessed(true);
+    }
+    return field.onChange(e);
+  };
   const n = typeof value === 'number' ? value : Number(value);
   const cc = value === '' || value == null || !Number.isFinite(n) || n <= 0 ? null : unit === 'ci' ? cubicInchesToCc(n) : n;
   const groupId = useId();
@@ -169,8 +184,9 @@ function DisplacementInput({ control, register, error }: { control: Control<Bike
         label="Displacement"
         unit={unit === 'ci' ? 'in³' : 'cm³'}
         error={error}
-        hint={cc !== null ? `= ${formatCc(cc)} = ${formatCubicInches(cc)}` : 'Enter it as the maker quotes it; Pullbook stores cm³.'}
-        {...register('displacement')}
+        hint={cc !== null ? `${guessed && unit === 'cc' ? 'Read as cm³ (too large for cubic inches): ' : ''}= ${formatCc(cc)} = ${formatCubicInches(cc)}` : 'Enter it as the maker quotes it; Pullbook stores cm³.'}
+        {...field}
+        onChange={onSizeChange}
       />
       <fieldset aria-describedby={`${groupId}-hint`}>
         <legend className="mb-1.5 text-sm font-semibold text-ink">Unit</legend>

@@ -19,7 +19,7 @@ function prefilledMessage(r: ReportDetail) {
  * with the server's own schema (@shared/schemas/report) before sending; the server's field errors
  * land on the same fields.
  */
-export function SendReportDialog({ report, open, onClose }: { report: ReportDetail; open: boolean; onClose: () => void }) {
+export function SendReportDialog({ report, open, onClose, onSent }: { report: ReportDetail; open: boolean; onClose: () => void; onSent?: (shareUrl: string) => void }) {
   const send = useSendReport(report.id);
   const toast = useToast();
   const form = useForm<SendValues, unknown, z.output<typeof sendInput>>({
@@ -30,7 +30,8 @@ export function SendReportDialog({ report, open, onClose }: { report: ReportDeta
   const { errors } = form.formState;
 
   const { onSubmit, alert } = useFormSubmit(form, async (values) => {
-    await send.mutateAsync(values);
+    const sent = await send.mutateAsync(values);
+    onSent?.(sent.shareUrl);
     toast.success(`Report sent to ${values.to}`);
     onClose();
   });

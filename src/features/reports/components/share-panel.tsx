@@ -15,14 +15,18 @@ const EXPIRY_OPTIONS = [
 ];
 const TONE = { active: 'gain', expired: 'neutral', revoked: 'loss' } as const;
 
-/** Share links of a report: create (and copy the new link once), list with views, revoke. */
-export function SharePanel({ reportId, canManage }: { reportId: string; canManage: boolean }) {
+/**
+ * Share links of a report: create (and copy the new link once), list with views, revoke. `sentLink`
+ * is the link the last send put in the e-mail, shown the same way.
+ */
+export function SharePanel({ reportId, canManage, sentLink = null }: { reportId: string; canManage: boolean; sentLink?: string | null }) {
   const links = useQuery(reportQueries.shares(reportId));
   const create = useCreateShare(reportId);
   const revoke = useRevokeShare(reportId);
   const toast = useToast();
   const [days, setDays] = useState('30');
-  const [fresh, setFresh] = useState<string | null>(null);
+  const [created, setCreated] = useState<string | null>(null);
+  const fresh = created ?? sentLink;
   const [confirm, setConfirm] = useState<ShareLinkView | null>(null);
 
   const copy = async (url: string) => {
@@ -42,7 +46,7 @@ export function SharePanel({ reportId, canManage }: { reportId: string; canManag
           <Button
             variant="primary"
             loading={create.isPending}
-            onClick={() => create.mutate({ expiresInDays: Number(days) }, { onSuccess: (l) => setFresh(l.url), onError: (e) => toast.error(e.message) })}
+            onClick={() => create.mutate({ expiresInDays: Number(days) }, { onSuccess: (l) => setCreated(l.url), onError: (e) => toast.error(e.message) })}
           >
             Create link
           </Button>
@@ -50,7 +54,7 @@ export function SharePanel({ reportId, canManage }: { reportId: string; canManag
       ) : null}
       {fresh ? (
         <div className="mt-3 rounded-control border border-line bg-accent-soft p-3" role="status">
-          <p className="m-0 text-sm font-medium">New link — copy it now; for safety it is shown only once.</p>
+          <p className="m-0 text-sm font-medium">{created ? 'New link — copy it now; for safety it is shown only once.' : 'Link sent with the e-mail — copy it now; for safety it is shown only once.'}</p>
           <div className="mt-2 flex flex-wrap items-center gap-2">
             <input readOnly value={fresh} aria-label="New share link" className="min-w-0 flex-1 rounded-control border border-line-strong bg-paper-raised px-2 py-1 font-mono text-sm" onFocus={(e) => e.currentTarget.select()} />
             <Button size="sm" onClick={() => void copy(fresh)}>

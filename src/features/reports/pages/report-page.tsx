@@ -37,6 +37,7 @@ export default function ReportPage() {
   const { user } = useAuth();
   const staff = hasRole(user, ['owner', 'tuner', 'desk']);
   const [sendOpen, setSendOpen] = useState(search.get('action') === 'send');
+  const [sentLink, setSentLink] = useState<string | null>(null);
 
   if (q.isPending) return <LoadingState message="Loading the report…" />;
   if (q.isError) return <ErrorState error={q.error} onRetry={() => void q.refetch()} title="This report could not be loaded" />;
@@ -125,7 +126,7 @@ export default function ReportPage() {
               .
             </p>
           </Card>
-          {staff ? <SharePanel reportId={r.id} canManage /> : null}
+          {staff ? <SharePanel reportId={r.id} canManage sentLink={sentLink} /> : null}
           {staff ? <DeliveryLog reportId={r.id} /> : null}
         </div>
       </div>
@@ -133,7 +134,7 @@ export default function ReportPage() {
       <Card title="Chart">
         <ReportChart runs={r.data.runs} curves={r.data.curves} units={units} summary={r.data.summary} />
       </Card>
-      {staff ? <SendReportDialog key={String(sendOpen)} report={r} open={sendOpen} onClose={closeSend} /> : null}
+      {staff ? <SendReportDialog key={String(sendOpen)} report={r} open={sendOpen} onClose={closeSend} onSent={setSentLink} /> : null}
     </div>
   );
 }

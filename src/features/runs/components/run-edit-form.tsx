@@ -40,6 +40,14 @@ export function RunEditForm({ run }: { run: RunDetailDto }) {
   useEffect(() => {
     form.reset({ stageId: run.stageId ?? '', label: run.label ?? '', tags: run.tags.join(', '), note: run.note ?? '' });
   }, [run, form]);
+  // The select is uncontrolled: a value set before its option exists shows "No stage". Once the
+  // stage list has rendered, give the select its value again (keeping what is typed elsewhere).
+  useEffect(() => {
+    if (stages.data) form.setValue('stageId', form.getValues('stageId'));
+  }, [stages.data, form]);
+  // Until the list arrives, the run's own stage is an option, so it shows from the first paint.
+  const stageOptions = (stages.data ?? []).map((s) => ({ value: s.id, label: s.name }));
+  if (run.stageId && !stageOptions.some((o) => o.value === run.stageId)) stageOptions.unshift({ value: run.stageId, label: run.stageName ?? 'Loading…' });
   const submit = form.handleSubmit(async (v) => {
     try {
       await update.mutateAsync({ id: run.id, ...v });
@@ -54,7 +62,7 @@ export function RunEditForm({ run }: { run: RunDetailDto }) {
         <SelectField
           label="Stage"
           placeholder="No stage"
-          options={(stages.data ?? []).map((s) => ({ value: s.id, label: s.name }))}
+          options={stageOptions}
           {...form.register('stageId')}
           error={form.formState.errors.stageId}
         />

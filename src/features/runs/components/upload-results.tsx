@@ -102,8 +102,8 @@ function ResultBody({ item, bikeId, onResult }: { item: UploadItem; bikeId: stri
   if (r.ok && r.run.status !== 'ready') {
     return (
       <div className="space-y-1">
-        {r.duplicate && <StatusBadge status="info">Already in the archive — not added again</StatusBadge>}
-        <KeptFile item={item} runId={r.run.id} message={r.run.error?.message ?? ''} onMapped={(run) => onResult({ file: r.file, ok: true, run })} />
+        {r.duplicate && <StatusBadge status="info">Already in the archive — the stored copy could not be read</StatusBadge>}
+        <KeptFile item={item} runId={r.run.id} message={(r.duplicate ? r.message : undefined) ?? r.run.error?.message ?? ''} onMapped={(run) => onResult({ file: r.file, ok: true, run })} />
       </div>
     );
   }
