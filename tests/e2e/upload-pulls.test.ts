@@ -8,9 +8,8 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Page } from 'playwright-core';
 import { SAFETY_CHECKS } from '@shared/schemas/run';
-import { startBrowserHarness, type BrowserHarness } from '../support/browser';
+import { startBrowserHarness, visible, type BrowserHarness } from '../support/browser';
 import { renderRunFile, syntheticRun, threePullLog } from '@server/db/synthetic-runs';
 import type { TestShop } from '../support/test-app';
 
@@ -47,10 +46,6 @@ afterAll(async () => {
   await h?.close();
   if (dir) fs.rmSync(dir, { recursive: true, force: true });
 });
-
-async function visible(page: Page, text: string | RegExp) {
-  await expect.poll(() => page.getByText(text).first().isVisible(), { timeout: 15_000 }).toBe(true);
-}
 
 describe('uploading a log with several pulls', () => {
   it('shows "3 pulls found" with each pull as a run, on the upload screen and the session page', async () => {

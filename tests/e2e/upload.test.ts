@@ -9,9 +9,9 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { chromium, type Page } from 'playwright-core';
+import { chromium } from 'playwright-core';
 import { SAFETY_CHECKS } from '@shared/schemas/run';
-import { startBrowserHarness, type BrowserHarness } from '../support/browser';
+import { startBrowserHarness, visible, type BrowserHarness } from '../support/browser';
 import { syntheticRunFile, type SyntheticRun } from '@server/db/synthetic-runs';
 import type { TestShop } from '../support/test-app';
 
@@ -76,10 +76,6 @@ afterAll(async () => {
   await h?.close();
   if (dir) fs.rmSync(dir, { recursive: true, force: true });
 });
-
-async function visible(page: Page, text: string | RegExp) {
-  await expect.poll(() => page.getByText(text).first().isVisible(), { timeout: 15_000 }).toBe(true);
-}
 
 function numberIn(text: string, re: RegExp): number {
   const m = re.exec(text);

@@ -7,6 +7,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import type { AddressInfo } from 'node:net';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import { expect } from 'vitest';
 import { createTestApp, TEST_PASSWORD, type TestApp } from './test-app';
 
 export const ARTIFACTS = path.resolve('tests/artifacts');
@@ -73,4 +74,9 @@ export async function startBrowserHarness(): Promise<BrowserHarness> {
     },
   };
   return harness;
+}
+
+/** Waits (up to 15 s) until some element with this text is visible. */
+export async function visible(page: Page, text: string | RegExp) {
+  await expect.poll(() => page.getByText(text).first().isVisible(), { timeout: 15_000 }).toBe(true);
 }
