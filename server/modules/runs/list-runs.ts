@@ -1,51 +1,80 @@
-/** The run list: filters, search, sort and page over the runs the actor may see. */
+/** The run list: filters, search, sort and page over the runs the actor may see (SQL read model: run-list-sql.ts). */
 import type { EntityManager } from '@mikro-orm/postgresql';
-import type { FilterQuery } from '@mikro-orm/core';
-import type { z } from 'zod';
 import type { Actor } from '../../http/actor';
-import { containsPattern } from '../../db/sql-text';
-import { parseSort, type Page } from '@shared/schemas/common';
-import type { RunSummaryDto, runListQuery } from '@shared/schemas/run';
-import { Run } from './run.entity';
-import { RUN_POPULATE, toRunSummaries } from './run-dto';
-import { runScope } from './run-scope';
+import type { ApiErrorCode } from '@shared/errors';
+import { bikeLabel } from '@shared/labels';
+import type { Page } from '@shared/schemas/common';
+import type { CorrectionId, RunStatusId, RunSummaryDto } from '@shared/schemas/run';
+import { cappedCountSql, encodeCursor, estimateSql, EXACT_TOTAL_LIMIT, pageSql, type RunListQuery, type RunListRow } from './run-list-sql';
 
-export type RunListQuery = z.output<typeof runListQuery>;
+export type { RunListQuery } from './run-list-sql';
 
-/** Deleted runs are listed only for an owner who asks (`includeDeleted=true`). */
-export async function listRuns(em: EntityManager, actor: Actor, query: RunListQuery): Promise<Page<RunSummaryDto>> {
-  const where = { ...(runScope(actor, { includeDeleted: query.includeDeleted === true && actor.role === 'owner' }) as Record<string, unknown>) };
-  const and: Record<string, unknown>[] = [];
-  if (query.bikeId) and.push({ bike: query.bikeId });
-  if (query.customerId) and.push({ bike: { customer: query.customerId } });
-  if (query.stageId) and.push({ stage: query.stageId });
-  if (query.sessionId) and.push({ session: query.sessionId });
-  if (query.status) and.push({ status: query.status });
-  if (query.tag) and.push({ tags: { $contains: [query.tag] } });
-  if (query.from) and.push({ createdAt: { $gte: new Date(`${query.from}T00:00:00Z`) } });
-  if (query.to) and.push({ createdAt: { $lt: new Date(new Date(`${query.to}T00:00:00Z`).getTime() + 86_400_000) } });
-  if (query.q) {
-    const like = containsPattern(query.q);
-    and.push({
-      $or: [
-        { originalName: { $ilike: like } },
-        { label: { $ilike: like } },
-        { note: { $ilike: like } },
-        { bike: { make: { $ilike: like } } },
-        { bike: { model: { $ilike: like } } },
-        { bike: { customer: { name: { $ilike: like } } } },
-        { stage: { name: { $ilike: like } } },
-      ],
-    });
-  }
-  if (and.length) where.$and = and;
-  const { field, dir } = parseSort(query.sort, '-createdAt');
-  const order = field === 'createdAt' ? dir : (`${dir} nulls last` as const);
-  const [rows, total] = await em.findAndCount(Run, where as FilterQuery<Run>, {
-    populate: RUN_POPULATE as never,
-    orderBy: [{ [field]: order }, { createdAt: 'desc' }, { id: 'asc' }],
-    limit: query.pageSize,
-    offset: (query.page - 1) * query.pageSize,
-  });
-  return { items: await toRunSummaries(em, rows), total, page: query.page, pageSize: query.pageSize };
+const iso = (v: Date | string) => (v instanceof Date ? v : new Date(v)).toISOString();
+
+export function toRunListItem(r: RunListRow): RunSummaryDto {
+  const warnings = r.warnings ?? [];
+  return {
+    id: r.id,
+    bikeId: r.bike_id,
+    bikeLabel: bikeLabel(r),
+    customerName: r.customer_name ?? '',
+    sessionId: r.session_id,
+    stageId: r.stage_id,
+    stageName: r.stage_name,
+    label: r.label,
+    sequence: r.sequence,
+    originalName: r.original_name,
+    status: r.status as RunStatusId,
+    peakPowerHp: r.peak_power_hp,
+    peakPowerRpm: r.peak_power_rpm,
+    peakTorqueLbft: r.peak_torque_lbft,
+    peakTorqueRpm: r.peak_torque_rpm,
+    rpmMin: r.rpm_min,
+    rpmMax: r.rpm_max,
+    identityStatus: r.identity_status as RunSummaryDto['identityStatus'],
+    correctionStandard: r.correction_standard as CorrectionId | null,
+    correctionFactor: r.correction_factor,
+    warnings,
+    error: r.error_code ? { code: r.error_code as ApiErrorCode, message: r.error_message ?? '' } : null,
+    tags: r.tags ?? [],
+    note: r.note,
+    isReference: r.is_reference,
+    pullIndex: r.pull_index,
+    pullCount: r.pull_count,
+    review: warnings.some((w) => w.code === 'GLITCHES_REVIEW'),
+    createdAt: iso(r.created_at),
+    deletedAt: r.deleted_at ? iso(r.deleted_at) : null,
+  };
+}
+
+/**
+ * How many rows match: exact up to EXACT_TOTAL_LIMIT (a bounded walk), beyond that the planner's
+ * estimate (never below what the pages have already shown). `exact` says which.
+ */
+async function matchingTotal(em: EntityManager, actor: Actor, query: RunListQuery, atLeast: number): Promise<{ total: number; exact: boolean }> {
+  const conn = em.getConnection();
+  const capped = cappedCountSql(actor, query);
+  const [{ n }] = (await conn.execute(capped.sql, capped.params)) as { n: number }[];
+  if (n <= EXACT_TOTAL_LIMIT) return { total: n, exact: true };
+  const est = estimateSql(actor, query);
+  const [row] = (await conn.execute(est.sql, est.params)) as { 'QUERY PLAN': [{ Plan: { 'Plan Rows': number } }] }[];
+  const planned = Math.round(row['QUERY PLAN'][0].Plan['Plan Rows']);
+  return { total: Math.max(planned, n, atLeast), exact: false };
+}
+
+/**
+ * One page of runs. `cursor` (from the previous page's `nextCursor`) pages by keyset; without it
+ * `page` pages by offset. Deleted runs are listed only for an owner who asks (`includeDeleted=true`).
+ */
+export async function listRuns(em: EntityManager, actor: Actor, query: RunListQuery & { cursor?: string }): Promise<Page<RunSummaryDto>> {
+  const { sql, params, spec } = pageSql(actor, query);
+  const rows = (await em.getConnection().execute(sql, params)) as RunListRow[];
+  const more = rows.length > query.pageSize;
+  const shown = rows.slice(0, query.pageSize);
+  const last = shown[shown.length - 1];
+  const nextCursor = more && last ? encodeCursor({ sort: spec.name, key: last.sort_key, createdAt: last.created_at_text, id: last.id }) : null;
+  const page = query.cursor ? 1 : query.page;
+  const before = query.cursor ? 0 : (query.page - 1) * query.pageSize;
+  const { total, exact } = await matchingTotal(em, actor, query, before + shown.length + (more ? 1 : 0));
+  return { items: shown.map(toRunListItem), total, ...(exact ? {} : { totalIsEstimate: true }), page, pageSize: query.pageSize, nextCursor };
 }

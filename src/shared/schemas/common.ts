@@ -69,6 +69,8 @@ export interface Page<T> {
   page: number;
   pageSize: number;
   nextCursor?: string | null;
+  /** Set (true) when `total` is an estimate: lists that count exactly only up to a bound. */
+  totalIsEstimate?: boolean;
 }
 
 /** A whole list in the page shape (lists that are short by nature: a bike's stages, a run's reports). */

@@ -150,6 +150,8 @@ export const runListQuery = listQuery(RUN_SORTS).extend({
   from: z.string().date().optional(),
   to: z.string().date().optional(),
   includeDeleted: queryBoolean.optional(),
+  /** The previous page's `nextCursor`: keyset paging (then `page` is ignored). */
+  cursor: z.string().max(500).optional(),
 });
 export interface RunWarning {
   code: string;
