@@ -46,7 +46,7 @@ async function sampleIds(url: string) {
     const sessions = (await db.query(`select id from dyno_session where shop_id = $1 order by id limit 20`, [shop])).rows.map((r) => r.id as string);
     const runs = (await db.query(`select id from run where shop_id = $1 order by id limit 20`, [shop])).rows.map((r) => r.id as string);
     const runCount = (await db.query(`select count(*)::int as n from run where shop_id = $1`, [shop])).rows[0].n as number;
-    return { bikes, customers, sessions, runs, runCount };
+    return { bikes, customers, sessions, runs, runCount, cursors: [] as string[] };
   } finally {
     await db.end();
   }
@@ -57,11 +57,14 @@ function routes(ids: Awaited<ReturnType<typeof sampleIds>>): { name: string; pat
   const each = (list: string[], f: (id: string) => string) => (list.length ? list.map(f) : []);
   const all: { name: string; paths: string[] }[] = [
     { name: 'GET /api/auth/me (reference)', paths: ['/api/auth/me'] },
+    { name: 'Today: recent customers and bikes', paths: ['/api/customers?sort=-createdAt&page=1&pageSize=5', '/api/bikes?sort=-createdAt&page=1&pageSize=5'] },
     { name: 'runs, first page', paths: ['/api/runs'] },
     { name: 'runs, page 400', paths: ['/api/runs?page=400'] },
-    { name: 'runs, search', paths: ['/api/runs?q=vantor', '/api/runs?q=stage%202', '/api/runs?q=corvane'] },
+    { name: 'runs, next page by cursor', paths: ids.cursors.map((c) => `/api/runs?cursor=${c}`) },
+    { name: 'runs, search', paths: ['/api/runs?q=vantor', '/api/runs?q=stage%202', '/api/runs?q=corvane', '/api/runs?q=rider%201234'] },
+    { name: 'runs, search engine family and tags', paths: ['/api/runs?q=kestrel%20v2', '/api/runs?q=customer-present', '/api/runs?q=inline-4%20600'] },
     { name: 'runs, sorted', paths: ['/api/runs?sort=-peakPowerHp', '/api/runs?sort=peakTorqueLbft', '/api/runs?sort=createdAt'] },
-    { name: 'runs, filtered', paths: [...each(ids.bikes.slice(0, 5), (id) => `/api/runs?bikeId=${id}`), ...each(ids.customers.slice(0, 5), (id) => `/api/runs?customerId=${id}`), '/api/runs?status=ready', '/api/runs?from=2024-01-01&to=2024-06-30'] },
+    { name: 'runs, filtered', paths: [...each(ids.bikes.slice(0, 5), (id) => `/api/runs?bikeId=${id}`), ...each(ids.customers.slice(0, 5), (id) => `/api/runs?customerId=${id}`), '/api/runs?status=ready', '/api/runs?status=failed', '/api/runs?tag=reference', '/api/runs?from=2024-01-01&to=2024-06-30'] },
     { name: 'bikes', paths: ['/api/bikes', '/api/bikes?page=100', '/api/bikes?sort=-createdAt&pageSize=5'] },
     { name: 'bikes, search', paths: ['/api/bikes?q=corvane', '/api/bikes?q=ridge', '/api/bikes?q=vantor%20103'] },
     { name: 'customers', paths: ['/api/customers', '/api/customers?page=50', '/api/customers?sort=-createdAt&pageSize=5'] },
@@ -70,11 +73,12 @@ function routes(ids: Awaited<ReturnType<typeof sampleIds>>): { name: string; pat
     { name: 'bike page: stages', paths: each(ids.bikes, (id) => `/api/stages?bikeId=${id}`) },
     { name: 'bike page: gains by stage', paths: each(ids.bikes, (id) => `/api/comparisons/timeline?bikeId=${id}`) },
     { name: 'bike page: sessions', paths: each(ids.bikes, (id) => `/api/sessions?bikeId=${id}`) },
+    { name: 'sessions', paths: ['/api/sessions'] },
     { name: 'session page', paths: each(ids.sessions, (id) => `/api/sessions/${id}`) },
     { name: 'run page', paths: each(ids.runs, (id) => `/api/runs/${id}`) },
     { name: 'comparisons', paths: ['/api/comparisons', ...each(ids.bikes.slice(0, 5), (id) => `/api/comparisons?bikeId=${id}`)] },
     { name: 'reports', paths: ['/api/reports', ...each(ids.bikes.slice(0, 5), (id) => `/api/reports?bikeId=${id}`)] },
-    { name: 'audit log', paths: ['/api/audit'] },
+    { name: 'audit log', paths: ['/api/audit', '/api/audit?kinds=run', '/api/audit?kinds=report,comparison'] },
   ];
   return all.filter((r) => r.paths.length > 0);
 }
@@ -85,6 +89,17 @@ async function measureSize(adminUrl: string, bikes: number) {
   const app = await startAppProcess(url, CONNECTIONS * 2);
   try {
     const cookie = await signIn(app.baseUrl, 'owner1@large.test', LARGE_SEED_PASSWORD);
+    // Keyset cursors as the list hands them out: a few pages deep in each order.
+    for (const sort of ['-createdAt', '-peakPowerHp', 'peakTorqueLbft']) {
+      let cursor: string | null = null;
+      for (let page = 0; page < 4; page++) {
+        const qs: string = cursor ? `&cursor=${encodeURIComponent(cursor)}` : '';
+        const body = (await (await fetch(`${app.baseUrl}/api/runs?sort=${sort}${qs}`, { headers: { cookie } })).json()) as { nextCursor?: string | null };
+        cursor = body.nextCursor ?? null;
+        if (!cursor) break;
+        ids.cursors.push(`${encodeURIComponent(cursor)}&sort=${sort}`);
+      }
+    }
     const list = routes(ids);
     for (const r of list) for (const p of r.paths) await fetch(app.baseUrl + p, { headers: { cookie } }); // warm-up
     const results: { name: string; requests: number; errors: number; p50: number; p975: number }[] = [];

@@ -48,6 +48,10 @@ export interface SeedLargeResult {
   stages: number;
   parts: number;
   runs: number;
+  sessions: number;
+  comparisons: number;
+  reports: number;
+  auditEntries: number;
   ms: number;
 }
 
@@ -114,7 +118,7 @@ export async function seedLarge(url: string, opts: { bikes?: number; log?: (s: s
       select id, shop_id, customer_id, make, model, 2008 + (n % 17), family, cc, cylinders, now(), now() from seed_bike`);
     // Four stages: baseline, bolt-ons, then cam and heads (in either order), gains cumulative vs baseline.
     await q('stages', `create temp table seed_stage on commit drop as
-      select gen_random_uuid() as id, sb.id as bike_id, sb.shop_id, sb.n, k.pos, sb.base_hp, sb.day0 + k.pos * 35 as day,
+      select gen_random_uuid() as id, gen_random_uuid() as session_id, sb.id as bike_id, sb.shop_id, sb.n, k.pos, sb.base_hp, sb.day0 + k.pos * 35 as day,
              case k.pos when 0 then null
                         when 1 then round((sb.base_hp * (0.07 + 0.05 * sb.r1))::numeric, 1)::float8
                         when 2 then round((sb.base_hp * (0.07 + 0.05 * sb.r1 + 0.09 + 0.06 * sb.r2))::numeric, 1)::float8
@@ -141,12 +145,18 @@ export async function seedLarge(url: string, opts: { bikes?: number; log?: (s: s
     await q('stage costs', `update stage s set total_cost_cents = c.total
         from (select p.stage_id, sum(p.part_cost_cents + p.labour_cost_cents)::int as total from part p join seed_stage st on st.id = p.stage_id group by p.stage_id) c
        where c.stage_id = s.id`);
+    // One dyno per shop; one session per stage (the day the stage was measured), run by the owner.
+    await q('dynos', `insert into dyno (id, shop_id, name, kind, created_at) select gen_random_uuid(), id, 'Bay ' || (i + 1), 'inertia', now() from seed_shop`);
+    await q('sessions', `insert into dyno_session (id, shop_id, bike_id, started_at, dyno_id, operator_id, ambient_temp_c, baro_kpa, humidity_pct, correction_standard, notes, created_at)
+      select st.session_id, st.shop_id, st.bike_id, st.day + interval '9 hours', d.id, u.id, 18 + (st.n % 15), 99 + (st.n % 30) / 10.0, 30 + (st.n % 40),
+             'sae-j1349', case when st.n % 7 = 0 then 'Fan on, second gear' else null end, st.day + interval '9 hours'
+        from seed_stage st join dyno d on d.shop_id = st.shop_id join app_user u on u.shop_id = st.shop_id and u.role = 'owner'`);
     // Ten runs a bike: 3 at the baseline, 2 + 2 at the middle stages, 3 at the last.
     const runsPerBike = 10;
     await q('runs', `insert into run (id, shop_id, bike_id, session_id, stage_id, label, sequence, raw_key, raw_sha256, raw_size_bytes, original_name, content_type, status,
                                  peak_power_hp, peak_power_rpm, peak_torque_lbft, peak_torque_rpm, rpm_min, rpm_max, points, correction_standard, correction_factor,
                                  warnings, tags, note, created_at, updated_at)
-      select gen_random_uuid(), st.shop_id, st.bike_id, null, st.id, 'Pull ' || (r.i + 1), r.i + 1, 'seed/' || st.id || '/' || r.i, md5(st.id::text || r.i) || md5(r.i || st.id::text), 40000,
+      select gen_random_uuid(), st.shop_id, st.bike_id, st.session_id, st.id, 'Pull ' || (r.i + 1), r.i + 1, 'seed/' || st.id || '/' || r.i, md5(st.id::text || r.i) || md5(r.i || st.id::text), 40000,
              'pull-' || (r.i + 1) || '.csv', 'text/csv', 'ready',
              round((st.base_hp + coalesce(st.gain, 0) + (random() - 0.5))::numeric, 2)::float8, 5200 + (st.n % 9) * 100,
              round(((st.base_hp + coalesce(st.gain, 0)) * 1.15 + (random() - 0.5))::numeric, 2)::float8, 3200 + (st.n % 7) * 100,
@@ -154,22 +164,46 @@ export async function seedLarge(url: string, opts: { bikes?: number; log?: (s: s
              '[]'::jsonb,
              case when r.i = r.last then array['reference'] when st.n % 11 = 0 then array['customer-present'] else '{}'::text[] end,
              case (st.n + r.i) % 9 when 0 then 'Pinging above 3,800 rpm; pulled timing' when 3 then 'Lean at the top end, richened' when 5 then 'Repeat pull, cooling fan on' else null end,
-             now(), now()
+             st.day + interval '9 hours 20 minutes' + r.i * interval '7 minutes', now()
         from seed_stage st
         cross join lateral (select g as i, case st.pos when 0 then 2 when 3 then 2 else 1 end as last
                               from generate_series(0, case st.pos when 0 then 2 when 3 then 2 else 1 end) g) r`);
     await q('reference runs', `update stage s set reference_run_id = r.id
         from run r join seed_stage st on st.id = r.stage_id
        where r.stage_id = s.id and r.tags @> array['reference']`);
+    // A saved comparison per bike (baseline reference run against the last stage's), a gain
+    // report for every other bike, and the audit lines those and the uploads would have written.
+    await q('comparisons', `insert into comparison (id, shop_id, name, bike_id, baseline_run_id, run_ids, options, note, created_by_id, created_at)
+      select gen_random_uuid(), sb.shop_id, 'Baseline vs Stage 3', sb.id, s0.reference_run_id, jsonb_build_array(s0.reference_run_id, s3.reference_run_id),
+             $1::jsonb, null, u.id, s3.date + interval '12 hours'
+        from seed_bike sb
+        join stage s0 on s0.bike_id = sb.id and s0.position = 0
+        join stage s3 on s3.bike_id = sb.id and s3.position = 3
+        join app_user u on u.shop_id = sb.shop_id and u.role = 'owner'`, [JSON.stringify({ correction: 'sae-j1349', smooth: 0, units: 'imperial', bandWidthRpm: 500 })]);
+    await q('reports', `insert into report (id, shop_id, bike_id, comparison_id, number, version, pdf_key, pdf_sha256, pdf_size_bytes, technician_note, summary, created_by_id, created_at)
+      select gen_random_uuid(), c.shop_id, c.bike_id, c.id, 'R-' || to_char(c.created_at, 'YYYY') || '-' || lpad((row_number() over (partition by c.shop_id order by c.created_at, c.id))::text, 6, '0'),
+             1, 'seed/reports/' || c.id || '.pdf', md5(c.id::text) || md5(c.bike_id::text), 120000, null, null, c.created_by_id, c.created_at + interval '10 minutes'
+        from comparison c join seed_bike sb on sb.id = c.bike_id where sb.n % 2 = 0`);
+    await q('audit lines', `insert into audit_entry (id, shop_id, user_id, action, entity_type, entity_id, details, created_at)
+      select gen_random_uuid(), x.shop_id, u.id, x.action, x.entity_type, x.entity_id::text, null, x.at
+        from (select r.shop_id, 'run.upload' as action, 'run' as entity_type, r.id as entity_id, r.created_at as at from run r join seed_bike sb on sb.id = r.bike_id
+              union all select s.shop_id, 'session.create', 'session', s.id, s.started_at from dyno_session s join seed_bike sb on sb.id = s.bike_id
+              union all select c.shop_id, 'comparison.create', 'comparison', c.id, c.created_at from comparison c join seed_bike sb on sb.id = c.bike_id
+              union all select rp.shop_id, 'report.create', 'report', rp.id, rp.created_at from report rp join seed_bike sb on sb.id = rp.bike_id) x
+        join app_user u on u.shop_id = x.shop_id and u.role = 'owner'`);
     await db.query(`select set_config('pullbook.build_index_deferred', 'off', true)`);
-    await q('statistics', `analyze bike, stage, part, run`);
+    await q('statistics', `analyze bike, stage, part, run, dyno_session, comparison, report, audit_entry`);
     await q('build index', `select build_index_refresh(array(select id from seed_bike))`);
     await db.query('commit');
     const counts = await db.query(`select (select count(*) from shop where name like 'Large Seed Shop %')::int as shops,
         (select count(*) from bike b join shop s on s.id = b.shop_id where s.name like 'Large Seed Shop %')::int as bikes,
         (select count(*) from stage b join shop s on s.id = b.shop_id where s.name like 'Large Seed Shop %')::int as stages,
         (select count(*) from part b join shop s on s.id = b.shop_id where s.name like 'Large Seed Shop %')::int as parts,
-        (select count(*) from run b join shop s on s.id = b.shop_id where s.name like 'Large Seed Shop %')::int as runs`);
+        (select count(*) from run b join shop s on s.id = b.shop_id where s.name like 'Large Seed Shop %')::int as runs,
+        (select count(*) from dyno_session b join shop s on s.id = b.shop_id where s.name like 'Large Seed Shop %')::int as sessions,
+        (select count(*) from comparison b join shop s on s.id = b.shop_id where s.name like 'Large Seed Shop %')::int as comparisons,
+        (select count(*) from report b join shop s on s.id = b.shop_id where s.name like 'Large Seed Shop %')::int as reports,
+        (select count(*) from audit_entry b join shop s on s.id = b.shop_id where s.name like 'Large Seed Shop %')::int as "auditEntries"`);
     await q('vacuum analyze', 'vacuum analyze');
     const c = counts.rows[0] as Omit<SeedLargeResult, 'ms'>;
     if (runsPerBike * bikes !== c.runs) log(`  note: ${c.runs} runs for ${bikes} bikes`);
@@ -192,7 +226,7 @@ if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) 
   const bikes = Number(argValue('--bikes') ?? 10_000);
   console.log(`[seed:large] ${bikes} bikes into ${url.replace(/\/\/[^@]*@/, '//…@')}`);
   seedLarge(url, { bikes, log: (s) => console.log(s) }).then(
-    (r) => console.log(`[seed:large] ${r.shops} shops, ${r.bikes} bikes, ${r.stages} stages, ${r.parts} parts, ${r.runs} runs in ${(r.ms / 1000).toFixed(1)} s; sign in as owner1@large.test / ${LARGE_SEED_PASSWORD}`),
+    (r) => console.log(`[seed:large] ${r.shops} shops, ${r.bikes} bikes, ${r.stages} stages, ${r.parts} parts, ${r.runs} runs, ${r.sessions} sessions, ${r.comparisons} comparisons, ${r.reports} reports, ${r.auditEntries} audit lines in ${(r.ms / 1000).toFixed(1)} s; sign in as owner1@large.test / ${LARGE_SEED_PASSWORD}`),
     (e) => {
       console.error(`[seed:large] failed: ${e instanceof Error ? e.message : String(e)}`);
       process.exit(1);
