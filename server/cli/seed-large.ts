@@ -24,6 +24,9 @@ export const DEFAULT_LARGE_URL = 'postgres://pullbook@127.0.0.1:55432/pullbook_l
 export const LARGE_SEED_PASSWORD = 'large-seed-password';
 export const LARGE_SEED_SHOPS = 4;
 
+/** Row triggers that keep run.search_text; the seed writes the column itself. */
+const SEARCH_TRIGGERS = [['run', 'run_search_text_fill'], ['bike', 'run_search_text_bike'], ['customer', 'run_search_text_customer'], ['stage', 'run_search_text_stage']] as const;
+
 /** Invented engines: family, make, model stem, base cm³, cylinders, stock peak hp at the wheel. */
 const ENGINES: [string, string, string, number, number, number][] = [
   ['Vantor 88', 'Corvane', 'Ridgeline', 1450, 2, 62],
@@ -94,6 +97,9 @@ export async function seedLarge(url: string, opts: { bikes?: number; log?: (s: s
     await db.query('begin');
     // The build_index triggers wait; one refresh of the seeded bikes at the end does their work once.
     await db.query(`select set_config('pullbook.build_index_deferred', 'on', true)`);
+    // The run list's search-text triggers (Migration20261202170000) wait too: the runs insert
+    // writes search_text itself, in bulk. ALTER TABLE inside the transaction: a rollback restores them.
+    for (const [table, trigger] of SEARCH_TRIGGERS) await db.query(`alter table "${table}" disable trigger "${trigger}"`);
     await q('remove earlier seed', `delete from shop where name like 'Large Seed Shop %'`);
     await db.query(`select setseed(0.4242)`);
     await q('shops', `create temp table seed_shop on commit drop as select gen_random_uuid() as id, i from generate_series(0, ${LARGE_SEED_SHOPS - 1}) i`);
@@ -155,19 +161,26 @@ export async function seedLarge(url: string, opts: { bikes?: number; log?: (s: s
     const runsPerBike = 10;
     await q('runs', `insert into run (id, shop_id, bike_id, session_id, stage_id, label, sequence, raw_key, raw_sha256, raw_size_bytes, original_name, content_type, status,
                                  peak_power_hp, peak_power_rpm, peak_torque_lbft, peak_torque_rpm, rpm_min, rpm_max, points, correction_standard, correction_factor,
-                                 warnings, tags, note, created_at, updated_at)
+                                 warnings, tags, note, created_at, updated_at, search_text)
       select gen_random_uuid(), st.shop_id, st.bike_id, st.session_id, st.id, 'Pull ' || (r.i + 1), r.i + 1, 'seed/' || st.id || '/' || r.i, md5(st.id::text || r.i) || md5(r.i || st.id::text), 40000,
              'pull-' || (r.i + 1) || '.csv', 'text/csv', 'ready',
              round((st.base_hp + coalesce(st.gain, 0) + (random() - 0.5))::numeric, 2)::float8, 5200 + (st.n % 9) * 100,
              round(((st.base_hp + coalesce(st.gain, 0)) * 1.15 + (random() - 0.5))::numeric, 2)::float8, 3200 + (st.n % 7) * 100,
              1800, 6200, 0, 'sae-j1349', 1 + (random() - 0.5) * 0.04,
              '[]'::jsonb,
-             case when r.i = r.last then array['reference'] when st.n % 11 = 0 then array['customer-present'] else '{}'::text[] end,
-             case (st.n + r.i) % 9 when 0 then 'Pinging above 3,800 rpm; pulled timing' when 3 then 'Lean at the top end, richened' when 5 then 'Repeat pull, cooling fan on' else null end,
-             st.day + interval '9 hours 20 minutes' + r.i * interval '7 minutes', now()
+             r.tags, r.note,
+             st.day + interval '9 hours 20 minutes' + r.i * interval '7 minutes', now(),
+             -- As run_search_text_of() writes it: file, label, note, tags, make, model, family, customer, stage.
+             concat_ws(' ', 'pull-' || (r.i + 1) || '.csv', 'Pull ' || (r.i + 1), r.note, array_to_string(r.tags, ' '), sb.make, sb.model, sb.family, 'Seed rider ' || sc.c,
+                       (array['Baseline','Stage 1','Stage 2','Stage 3'])[st.pos + 1])
         from seed_stage st
+        join seed_bike sb on sb.id = st.bike_id
+        join seed_customer sc on sc.id = sb.customer_id
         cross join lateral (select g as i, case st.pos when 0 then 2 when 3 then 2 else 1 end as last
-                              from generate_series(0, case st.pos when 0 then 2 when 3 then 2 else 1 end) g) r`);
+                              from generate_series(0, case st.pos when 0 then 2 when 3 then 2 else 1 end) g) r0
+        cross join lateral (select r0.i, r0.last,
+                                   case when r0.i = r0.last then array['reference'] when st.n % 11 = 0 then array['customer-present'] else '{}'::text[] end as tags,
+                                   case (st.n + r0.i) % 9 when 0 then 'Pinging above 3,800 rpm; pulled timing' when 3 then 'Lean at the top end, richened' when 5 then 'Repeat pull, cooling fan on' else null end as note) r`);
     await q('reference runs', `update stage s set reference_run_id = r.id
         from run r join seed_stage st on st.id = r.stage_id
        where r.stage_id = s.id and r.tags @> array['reference']`);
@@ -192,6 +205,7 @@ export async function seedLarge(url: string, opts: { bikes?: number; log?: (s: s
               union all select rp.shop_id, 'report.create', 'report', rp.id, rp.created_at from report rp join seed_bike sb on sb.id = rp.bike_id) x
         join app_user u on u.shop_id = x.shop_id and u.role = 'owner'`);
     await db.query(`select set_config('pullbook.build_index_deferred', 'off', true)`);
+    for (const [table, trigger] of SEARCH_TRIGGERS) await db.query(`alter table "${table}" enable trigger "${trigger}"`);
     await q('statistics', `analyze bike, stage, part, run, dyno_session, comparison, report, audit_entry`);
     await q('build index', `select build_index_refresh(array(select id from seed_bike))`);
     await db.query('commit');

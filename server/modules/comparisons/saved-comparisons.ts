@@ -1,6 +1,5 @@
 /** Use cases: saved comparisons — create, get (with figures computed now), list, delete. */
 import type { EntityManager } from '@mikro-orm/postgresql';
-import type { FilterQuery } from '@mikro-orm/core';
 import type { Actor } from '../../http/actor';
 import { tenantScope } from '../../http/tenant-scope';
 import { AppError, notFound } from '../../lib/errors';
@@ -90,12 +89,7 @@ export async function getComparison(em: EntityManager, actor: Actor, id: string,
 }
 
 /** Saved comparisons, newest first, optionally of one bike. */
-export async function listComparisons(em: EntityManager, actor: Actor, query: { bikeId?: string }): Promise<ComparisonDto[]> {
-  const where = tenantScope<Comparison>(actor, 'bike.customer') as Record<string, unknown>;
-  if (query.bikeId) where.bike = { ...((where.bike as object | undefined) ?? {}), id: query.bikeId };
-  const rows = await em.find(Comparison, where as FilterQuery<Comparison>, { populate: ['bike', 'createdBy'], orderBy: { createdAt: 'desc' }, limit: 500 });
-  return rows.map(toDto);
-}
+export { listComparisons } from './list-comparisons';
 
 export async function deleteComparison(em: EntityManager, actor: Actor, id: string): Promise<void> {
   const c = await findComparison(em, actor, id);

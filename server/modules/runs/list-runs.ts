@@ -5,7 +5,8 @@ import type { ApiErrorCode } from '@shared/errors';
 import { bikeLabel } from '@shared/labels';
 import type { Page } from '@shared/schemas/common';
 import type { CorrectionId, RunStatusId, RunSummaryDto } from '@shared/schemas/run';
-import { cappedCountSql, encodeCursor, estimateSql, EXACT_TOTAL_LIMIT, pageSql, type RunListQuery, type RunListRow } from './run-list-sql';
+import { boundedTotal } from '../../db/bounded-total';
+import { encodeCursor, pageSql, totalFromWhere, type RunListQuery, type RunListRow } from './run-list-sql';
 
 export type { RunListQuery } from './run-list-sql';
 
@@ -48,21 +49,6 @@ export function toRunListItem(r: RunListRow): RunSummaryDto {
 }
 
 /**
- * How many rows match: exact up to EXACT_TOTAL_LIMIT (a bounded walk), beyond that the planner's
- * estimate (never below what the pages have already shown). `exact` says which.
- */
-async function matchingTotal(em: EntityManager, actor: Actor, query: RunListQuery, atLeast: number): Promise<{ total: number; exact: boolean }> {
-  const conn = em.getConnection();
-  const capped = cappedCountSql(actor, query);
-  const [{ n }] = (await conn.execute(capped.sql, capped.params)) as { n: number }[];
-  if (n <= EXACT_TOTAL_LIMIT) return { total: n, exact: true };
-  const est = estimateSql(actor, query);
-  const [row] = (await conn.execute(est.sql, est.params)) as { 'QUERY PLAN': [{ Plan: { 'Plan Rows': number } }] }[];
-  const planned = Math.round(row['QUERY PLAN'][0].Plan['Plan Rows']);
-  return { total: Math.max(planned, n, atLeast), exact: false };
-}
-
-/**
  * One page of runs. `cursor` (from the previous page's `nextCursor`) pages by keyset; without it
  * `page` pages by offset. Deleted runs are listed only for an owner who asks (`includeDeleted=true`).
  */
@@ -75,6 +61,8 @@ export async function listRuns(em: EntityManager, actor: Actor, query: RunListQu
   const nextCursor = more && last ? encodeCursor({ sort: spec.name, key: last.sort_key, createdAt: last.created_at_text, id: last.id }) : null;
   const page = query.cursor ? 1 : query.page;
   const before = query.cursor ? 0 : (query.page - 1) * query.pageSize;
-  const { total, exact } = await matchingTotal(em, actor, query, before + shown.length + (more ? 1 : 0));
+  // Exact up to 1 000 matches (a bounded walk), else the planner's estimate, flagged.
+  const all = totalFromWhere(actor, query);
+  const { total, exact } = await boundedTotal(em, all.sql, all.params, { atLeast: before + shown.length + (more ? 1 : 0) });
   return { items: shown.map(toRunListItem), total, ...(exact ? {} : { totalIsEstimate: true }), page, pageSize: query.pageSize, nextCursor };
 }

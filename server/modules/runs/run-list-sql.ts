@@ -24,9 +24,6 @@ import { Sql } from '../builds/build-sql';
 
 export type RunListQuery = z.output<typeof runListQuery>;
 
-/** Above this many matching rows the total is the planner's estimate, not a count. */
-export const EXACT_TOTAL_LIMIT = 1000;
-
 interface SortSpec {
   /** The first ORDER BY expression (over `r`), as its index holds it. */
   key: string;
@@ -148,17 +145,10 @@ export function pageSql(actor: Actor, query: RunListQuery & { cursor?: string })
   return { sql, params: s.params, spec };
 }
 
-/** Counts matching rows up to EXACT_TOTAL_LIMIT + 1 (a bounded walk). */
-export function cappedCountSql(actor: Actor, query: RunListQuery): { sql: string; params: unknown[] } {
+/** FROM … WHERE of every run the list matches (for boundedTotal; the cursor does not narrow it). */
+export function totalFromWhere(actor: Actor, query: RunListQuery): { sql: string; params: unknown[] } {
   const s = new Sql();
-  const sql = `select count(*)::int as n from (select 1 from run r where ${whereOf(s, actor, query)} limit ${EXACT_TOTAL_LIMIT + 1}) x`;
-  return { sql, params: s.params };
-}
-
-/** The statement whose planned row count is the estimate of a large total. */
-export function estimateSql(actor: Actor, query: RunListQuery): { sql: string; params: unknown[] } {
-  const s = new Sql();
-  return { sql: `explain (format json) select 1 from run r where ${whereOf(s, actor, query)}`, params: s.params };
+  return { sql: `from run r where ${whereOf(s, actor, query)}`, params: s.params };
 }
 
 /** A row of pageSql. */
