@@ -12,7 +12,8 @@
  * Then the overlay of the 12 runs in the browser (the built client, Debian's Chromium through
  * playwright-core): the comparison page opened afresh five times, each time the time from the
  * chart option being built to ECharts' first finished frame (performance marks
- * 'pb:overlay-option' → measure 'pb:overlay-render', set in comparison-charts.tsx). Reported.
+ * 'pb:overlay-option' → measures 'pb:overlay-first-frame' and 'pb:overlay-render', set in
+ * comparison-charts.tsx). Target: median of the finished frame < 150 ms.
  */
 import path from 'node:path';
 import { randomBytes } from 'node:crypto';
@@ -41,9 +42,11 @@ function load(baseUrl: string, cookie: string, body: string) {
 }
 
 const BROWSER_RENDERS = 5;
+/** The 12-run overlay, option built → finished frame, median of the page opened afresh. */
+const OVERLAY_TARGET_MS = 150;
 
-/** Opens the 12-run comparison page `times` times and returns each overlay render time (ms). */
-async function overlayRenderTimes(baseUrl: string, email: string, runIds: string[], times: number): Promise<number[]> {
+/** Opens the 12-run comparison page `times` times; each time, option built → first frame and → finished frame (ms). */
+async function overlayRenderTimes(baseUrl: string, email: string, runIds: string[], times: number): Promise<{ finished: number; firstFrame: number }[]> {
   const browser = await chromium.launch({ executablePath: '/usr/bin/chromium', headless: true, args: ['--no-sandbox', '--disable-gpu', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'] });
   try {
     const context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
@@ -54,11 +57,16 @@ async function overlayRenderTimes(baseUrl: string, email: string, runIds: string
     await page.getByLabel('Password').fill(PASSWORD);
     await page.getByRole('button', { name: 'Sign in' }).click();
     await page.waitForURL((u) => !u.pathname.startsWith('/login'));
-    const out: number[] = [];
+    const out: { finished: number; firstFrame: number }[] = [];
     for (let i = 0; i < times; i++) {
       await page.goto(`${baseUrl}/comparisons/new?runIds=${runIds.join(',')}&baselineRunId=${runIds[0]}`);
       await page.waitForFunction(() => performance.getEntriesByName('pb:overlay-render').length > 0, undefined, { timeout: 30_000 });
-      out.push(await page.evaluate(() => performance.getEntriesByName('pb:overlay-render')[0].duration));
+      out.push(
+        await page.evaluate(() => ({
+          finished: performance.getEntriesByName('pb:overlay-render')[0].duration,
+          firstFrame: performance.getEntriesByName('pb:overlay-first-frame')[0]?.duration ?? Number.NaN,
+        })),
+      );
     }
     return out;
   } finally {
@@ -110,9 +118,12 @@ export async function run(): Promise<void> {
       rows.push([c.name, String(r.requests), String(r.errors), r.medianMs.toFixed(1), r.p95Ms.toFixed(1), c.targetMs === null ? 'reported' : `< ${c.targetMs} ms`, ok ? 'ok' : 'OVER TARGET']);
     }
     await app.settle();
-    const renders = await overlayRenderTimes(baseUrl, email, ids, BROWSER_RENDERS);
-    renders.sort((x, y) => x - y);
-    rows.push([`overlay of 12 runs in the browser`, String(renders.length), '—', percentile(renders, 0.5).toFixed(1), `max ${renders[renders.length - 1].toFixed(1)}`, 'reported', 'ok']);
+    const marks = await overlayRenderTimes(baseUrl, email, ids, BROWSER_RENDERS);
+    const renders = marks.map((m) => m.finished).sort((x, y) => x - y);
+    const firstFrames = marks.map((m) => m.firstFrame).sort((x, y) => x - y);
+    rows.push([`overlay of 12 runs: first frame`, String(firstFrames.length), '—', percentile(firstFrames, 0.5).toFixed(1), `max ${firstFrames[firstFrames.length - 1].toFixed(1)}`, 'reported', 'ok']);
+    const overlayOk = percentile(renders, 0.5) < OVERLAY_TARGET_MS;
+    rows.push([`overlay of 12 runs: finished frame`, String(renders.length), '—', percentile(renders, 0.5).toFixed(1), `max ${renders[renders.length - 1].toFixed(1)}`, `median < ${OVERLAY_TARGET_MS} ms`, overlayOk ? 'ok' : 'OVER TARGET']);
     printTable(rows);
     process.stdout.write(`${CONNECTIONS} concurrent connections, ${DURATION_S} s per case; each run 81 points (2,000–6,000 rpm, 50 rpm grid), 4 runs per stage for the spread; curves from the read model's cache after the first request\n`);
   } finally {
