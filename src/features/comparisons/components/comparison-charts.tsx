@@ -104,6 +104,15 @@ export function OverlayChart({ preview, units, onReady, height = 440 }: { previe
     };
   }, [preview, units]);
   const ref = useChart(onReady, option, height);
+  useEffect(() => {
+    // Without the entry animation ECharts draws the frame and reports it finished inside
+    // setOption (it flushes synchronously), before the chart's event handlers are bound; the
+    // chart component has done that by the time this effect runs, so the frame is finished now.
+    if (option.animation === false) {
+      overlayEvents.rendered();
+      overlayEvents.finished();
+    }
+  }, [option]);
   return (
     <div>
       <ReactECharts ref={ref} option={option} notMerge style={{ height, width: '100%' }} opts={{ renderer: 'canvas' }} onEvents={overlayEvents} />
