@@ -99,6 +99,7 @@ describe('bay capture with the real sync agent', () => {
     token = (await shown.textContent()) ?? '';
     expect(token).toMatch(/^pbd_[A-Za-z0-9_-]{40,}$/);
     await visible(page, 'it is shown only once');
+    await page.screenshot({ path: path.join(ARTIFACTS, 'bay-device-token.png') });
     await page.context().close();
   });
 
@@ -146,6 +147,11 @@ describe('bay capture with the real sync agent', () => {
     // The board's event stream reconnects by itself and shows the pull.
     await expect.poll(pullRows, { timeout: 20_000 }).toBe(2);
     expect(await runsInArchive()).toBe(2);
+    // A 10-inch tablet in landscape, at arm's length.
+    await board.setViewportSize({ width: 1180, height: 820 });
+    await visible(board, /2 pulls within/);
+    await board.screenshot({ path: path.join(ARTIFACTS, 'bay-board-tablet.png') });
+    await board.setViewportSize({ width: 1280, height: 800 });
   });
 
   it('puts the next file in the inbox once the dyno is cleared', async () => {
@@ -159,5 +165,14 @@ describe('bay capture with the real sync agent', () => {
     await visible(board, 'pull-03.csv');
     await visible(board, 'Bay 2 roller');
     await board.screenshot({ path: path.join(ARTIFACTS, 'bay-inbox.png'), fullPage: true });
+  });
+
+  it('puts the bike back on the dyno from the bike page in one tap', async () => {
+    await board.goto(`${baseUrl}/bikes/${shop.bike.id}`);
+    await board.getByRole('button', { name: 'Put on dyno' }).click();
+    await visible(board, 'On Bay 2 roller now');
+    await board.getByRole('link', { name: 'Bay board' }).last().click();
+    await expect.poll(() => board.getByTestId('on-dyno').textContent()).toBe('2020 Testmake Own');
+    await expect.poll(pullRows).toBe(2); // today's session again, with its two pulls
   });
 });

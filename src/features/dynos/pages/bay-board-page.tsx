@@ -141,25 +141,27 @@ function SessionCautions({ board, canSet }: { board: BayBoardDto; canSet: boolea
     <>
       {!session.safetyConfirmedAt && (
         <Caution title="Bay checklist not confirmed for this session">
-          <ul>
-            {SAFETY_CHECKS.map((c) => (
-              <li key={c.id}>{c.label}</li>
-            ))}
-          </ul>
-          {canSet && (
-            <Button variant="primary" size="lg" className="mt-2" loading={confirm.isPending} onClick={() => confirm.mutate(session.id)}>
-              All six checks done
-            </Button>
-          )}
+          <div className="flex flex-wrap items-end gap-4">
+            <ul className="grid flex-1 gap-x-8 md:grid-cols-2">
+              {SAFETY_CHECKS.map((c) => (
+                <li key={c.id}>{c.label}</li>
+              ))}
+            </ul>
+            {canSet && (
+              <Button variant="primary" size="lg" loading={confirm.isPending} onClick={() => confirm.mutate(session.id)}>
+                All six checks done
+              </Button>
+            )}
+          </div>
         </Caution>
       )}
       {session.conditionsToConfirm && (
         <Caution kind="notice" title="Conditions to confirm">
-          This session uses the shop’s default correction without measured temperature, pressure and humidity. Enter them on the{' '}
+          No measured temperature, pressure or humidity yet (the shop’s default correction is used): enter them on the{' '}
           <Link className="text-accent underline" to={paths.session(session.id)}>
             session page
-          </Link>{' '}
-          so the pulls are corrected properly.
+          </Link>
+          .
         </Caution>
       )}
     </>
