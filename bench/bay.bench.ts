@@ -104,7 +104,8 @@ export async function run(): Promise<void> {
     await page.getByRole('button', { name: 'Sign in' }).click();
     await page.waitForURL((u) => !u.pathname.startsWith('/login'));
     await page.goto(`${baseUrl}/bay/${dyno.id}`);
-    await page.waitForFunction(() => document.querySelector('[data-testid=live-state]')?.textContent === 'Live');
+    // Page-side expressions as strings: the bench compiles without the DOM's types.
+    await page.waitForFunction(`document.querySelector('[data-testid=live-state]')?.textContent === 'Live'`);
 
     const agent = startAgentProcess({ server: baseUrl, token, folder, journal: path.join(work, 'journal.json') });
     stopAgent = () => agent.stop();
@@ -116,7 +117,7 @@ export async function run(): Promise<void> {
       const bytes = syntheticRunFile({ seed: 500 + i }).bytes;
       const t0 = performance.now();
       fs.writeFileSync(path.join(folder, `bench-pull-${String(i + 1).padStart(2, '0')}.csv`), bytes);
-      await page.waitForFunction((n) => document.querySelectorAll('[data-testid=bay-pull]').length >= n, i + 1, { polling: 25, timeout: 30_000 });
+      await page.waitForFunction(`document.querySelectorAll('[data-testid=bay-pull]').length >= ${i + 1}`, undefined, { polling: 25, timeout: 30_000 });
       times.push(performance.now() - t0);
       await new Promise((r) => setTimeout(r, 300));
     }
