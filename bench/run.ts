@@ -15,6 +15,7 @@ const BENCHES: { name: string; load: () => Promise<{ run: () => Promise<void> }>
   { name: 'run upload', load: () => import('./upload.bench.js') },
   { name: 'comparison preview', load: () => import('./comparison.bench.js') },
   { name: 'archive scale (everyday pages)', load: () => import('./scale.bench.js') },
+  { name: 'bay capture (file saved → pull shown)', load: () => import('./bay.bench.js') },
 ];
 
 const only = process.argv.slice(2);

@@ -11,6 +11,8 @@ import { allRouters } from './modules';
 import type { RegisteredRoute } from './http/api-router';
 import { AppError } from './lib/errors';
 import { httpLogger } from './lib/logger';
+import { deviceBearerGate } from './modules/device/device-auth';
+import { closeLiveFeed } from './lib/live/live-feed';
 
 export interface CreatedApp {
   app: express.Express;
@@ -49,6 +51,8 @@ export function createApp(deps: AppDeps, opts: { clientDir?: string } = {}): Cre
     res.locals.em = em;
     RequestContext.create(em, next);
   });
+  // Device tokens (Bearer) are read before sessions and accepted on the device upload route only.
+  app.use(deviceBearerGate());
   const sessions = installSessions(app, deps);
 
   const routers = allRouters(deps);
@@ -68,6 +72,8 @@ export function createApp(deps: AppDeps, opts: { clientDir?: string } = {}): Cre
   return {
     app,
     routes: routers.flatMap((r) => r.routes),
-    close: () => sessions.close(),
+    close: async () => {
+      await Promise.all([sessions.close(), closeLiveFeed(deps)]);
+    },
   };
 }

@@ -12,6 +12,8 @@ import { AuditEntrySchema } from '../modules/audit/audit-entry.entity';
 import { ComparisonSchema } from '../modules/comparisons/comparison.entity';
 import { ReportSchema, ReportDeliverySchema, ShareLinkSchema } from '../modules/reports/report.entity';
 import { OrphanObjectSchema } from '../lib/storage/orphan-object.entity';
+import { DeviceTokenSchema } from '../modules/device/device-token.entity';
+import { InboxItemSchema } from '../modules/device/inbox-item.entity';
 
 export const entities = [
   ShopSchema,
@@ -32,4 +34,6 @@ export const entities = [
   ReportDeliverySchema,
   ShareLinkSchema,
   OrphanObjectSchema,
+  DeviceTokenSchema,
+  InboxItemSchema,
 ];

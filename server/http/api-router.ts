@@ -11,8 +11,9 @@ import type { AppDeps } from '../app-deps';
  * - a list of roles: signed-in users with one of them
  * - 'signed-in': any signed-in user (services still scope by shop and customer)
  * - 'public': anyone, signed in or not (sign-in, health, share links)
+ * - 'device': a dyno's sync agent with a device token (Bearer), and nobody else
  */
-export type Access = readonly Role[] | 'signed-in' | 'public';
+export type Access = readonly Role[] | 'signed-in' | 'public' | 'device';
 
 type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
 
@@ -61,7 +62,7 @@ interface BaseSpec<B, Q, P, A extends Access> {
   before?: express.RequestHandler[];
 }
 
-type ActorFor<A extends Access> = A extends 'public' ? Actor | null : Actor;
+type ActorFor<A extends Access> = A extends 'public' ? Actor | null : A extends 'device' ? Actor | null : Actor;
 
 /** A JSON route: typed input in, a typed response (or nothing, 204) out. */
 export interface JsonRouteSpec<B, Q, P, A extends Access, R> extends BaseSpec<B, Q, P, A> {
@@ -102,8 +103,15 @@ function parseOrThrow<T>(schema: ZodType<T, ZodTypeDef, unknown> | undefined, va
 }
 
 /** Checks the caller against a route's access rule: 401 when signed out, 403 for a wrong role. */
-export function checkAccess(access: Access, actor: Actor | null) {
+export function checkAccess(access: Access, actor: Actor | null, isDevice = false) {
   if (access === 'public') return;
+  if (access === 'device') {
+    // A person is never a device: signed in, the answer is 403; signed out and without a token, 401.
+    if (isDevice) return;
+    if (actor) throw forbidden('Only a dyno’s sync agent (device token) may use this route');
+    throw unauthenticated();
+  }
+  if (isDevice) throw forbidden();
   if (!actor) throw unauthenticated();
   if (access === 'signed-in') return;
   if (!access.includes(actor.role)) throw forbidden();
@@ -125,8 +133,8 @@ export class ApiRouter {
 
   route<B = undefined, Q = undefined, P = Record<string, string>, A extends Access = Access, R = unknown>(spec: RouteSpec<B, Q, P, A, R>) {
     this.routes.push({ method: spec.method, path: this.prefix + spec.path, access: spec.access, summary: spec.summary });
-    const guard: express.RequestHandler = (req, _res, next) => {
-      checkAccess(spec.access, (req.user as Actor | undefined) ?? null);
+    const guard: express.RequestHandler = (req, res, next) => {
+      checkAccess(spec.access, (req.user as Actor | undefined) ?? null, res.locals.device !== undefined);
       next();
     };
     const handle: express.RequestHandler = async (req, res) => {
@@ -134,7 +142,7 @@ export class ApiRouter {
       const query = parseOrThrow(spec.query, req.query, 'query');
       const body = parseOrThrow(spec.body, req.body ?? {}, 'request body');
       const ctx = {
-        actor: (req.user as Actor | undefined) ?? null,
+        actor: spec.access === 'device' ? null : ((req.user as Actor | undefined) ?? null),
         body,
         query,
         params,

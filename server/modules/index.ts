@@ -20,6 +20,7 @@ import { runRoutes } from './runs/run.routes';
 import { comparisonRoutes } from './comparisons/comparison.routes';
 import { reportRoutes } from './reports/report.routes';
 import { buildRoutes } from './builds/build.routes';
+import { deviceRoutes } from './device/device.routes';
 
 export function allRouters(deps: AppDeps): ApiRouter[] {
   return [
@@ -34,6 +35,7 @@ export function allRouters(deps: AppDeps): ApiRouter[] {
     ...dynoRoutes(deps),
     ...sessionRoutes(deps),
     ...stageRoutes(deps),
+    ...deviceRoutes(deps), // before runs: /api/runs/inbox
     ...runRoutes(deps),
     ...comparisonRoutes(deps),
     ...reportRoutes(deps),

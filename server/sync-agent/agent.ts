@@ -179,7 +179,12 @@ export class SyncAgent {
 
 /** "2 runs in 2019 Testmake Own (session …)" or "the inbox (nothing on the dyno)". */
 export function describeSent(response: import('@shared/schemas/device').DeviceUploadResponse): string {
-  const where = response.landing.kind === 'dyno' ? response.landing.bikeLabel : 'the inbox (nothing was on the dyno)';
+  const landing = response.landing;
+  if (landing.kind === 'inbox') {
+    const pulls = `${landing.pulls} pull${landing.pulls === 1 ? '' : 's'}`;
+    return landing.duplicate ? `the inbox: already waiting there (${pulls}); nothing new was kept` : `the inbox (nothing was on the dyno): ${pulls}, waiting to be assigned`;
+  }
+  const where = landing.bikeLabel;
   const ok = response.results.filter((r) => r.ok);
   const dup = ok.filter((r) => r.ok && r.duplicate).length;
   const failed = response.results.length - ok.length;

@@ -18,6 +18,8 @@ export const NAV: NavItem[] = [
   { label: 'Comparisons', to: paths.comparisons, roles: ['owner', 'tuner', 'desk'] },
   { label: 'Gain reports', to: paths.reports, roles: ['owner', 'tuner', 'desk'] },
   { label: 'Build finder', to: paths.finder, roles: ['owner', 'tuner', 'desk'] },
+  { label: 'Bay board', to: paths.bay, roles: ['owner', 'tuner', 'desk'] },
+  { label: 'Inbox', to: paths.inbox, roles: ['owner', 'tuner', 'desk'] },
 ];
 
 export const ADMIN_NAV: NavItem[] = [

@@ -11,6 +11,7 @@ import { bikeRoutes } from '@/features/bikes/routes';
 import { adminRoutes } from '@/features/admin/routes';
 import { runRoutes } from '@/features/runs/routes';
 import { dynoRoutes } from '@/features/dynos/routes';
+import { inboxRoutes } from '@/features/inbox/routes';
 import { comparisonRoutes } from '@/features/comparisons/routes';
 import { publicReportRoutes, reportRoutes } from '@/features/reports/routes';
 import { ComparisonReportActions, CustomerReportsList } from '@/features/reports';
@@ -30,7 +31,7 @@ const routes: RouteObject[] = [
       {
         element: <AppShell />,
         errorElement: <RouteErrorPage />,
-        children: [...homeRoutes(<CustomerReportsList />), ...customerRoutes, ...bikeRoutes, ...runRoutes, ...comparisonRoutes({ savedComparisonActions: (id) => <ComparisonReportActions comparisonId={id} /> }), ...reportRoutes, ...finderRoutes, ...adminRoutes, ...dynoRoutes, ...accountRoutes, { path: '*', element: <NotFoundPage /> }],
+        children: [...homeRoutes(<CustomerReportsList />), ...customerRoutes, ...bikeRoutes, ...runRoutes, ...comparisonRoutes({ savedComparisonActions: (id) => <ComparisonReportActions comparisonId={id} /> }), ...reportRoutes, ...finderRoutes, ...adminRoutes, ...dynoRoutes, ...inboxRoutes, ...accountRoutes, { path: '*', element: <NotFoundPage /> }],
       },
     ],
   },

@@ -26,4 +26,7 @@ export const paths = {
   dynos: '/settings/dynos',
   audit: '/settings/audit',
   outbox: '/settings/outbox',
+  bay: '/bay',
+  bayBoard: (id = ':dynoId') => `/bay/${id}`,
+  inbox: '/inbox',
 } as const;

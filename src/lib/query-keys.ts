@@ -125,4 +125,13 @@ export const outboxKeys = {
 export const dynoKeys = {
   all: () => ['dynos'] as const,
   list: () => [...dynoKeys.all(), 'list'] as const,
+  tokens: (dynoId: string) => [...dynoKeys.all(), 'tokens', dynoId] as const,
+  /** A dyno's bay board; refreshed by the session's live events (and by any change to runs). */
+  board: (dynoId: string) => [...dynoKeys.all(), 'board', dynoId] as const,
+};
+
+/** Run files from a dyno with nothing on it, waiting for a bike. */
+export const inboxKeys = {
+  all: () => ['inbox'] as const,
+  list: () => [...inboxKeys.all(), 'list'] as const,
 };

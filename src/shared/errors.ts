@@ -52,6 +52,12 @@ export const API_ERROR_CODES = [
   'REPORT_VERSION_EXISTS',
   'MAIL_FAILED',
   'OUTBOX_DISABLED',
+  // bay capture (device tokens, on the dyno now, inbox)
+  'DEVICE_TOKEN_REFUSED',
+  'DEVICE_TOKEN_NOT_HERE',
+  'INBOX_ALREADY_ASSIGNED',
+  'SESSION_OTHER_DYNO',
+  'STAGE_OTHER_BIKE',
 ] as const;
 
 /** A code the API may answer with: its own, or the run-file reader's. */

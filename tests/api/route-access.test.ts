@@ -52,6 +52,17 @@ const EXPECTED: { method: string; path: string; allowed: (Role | 'anonymous')[] 
   { method: 'get', path: '/api/bikes/', allowed: ['owner', 'tuner', 'desk', 'customer'] },
   { method: 'get', path: '/api/health/', allowed: ['anonymous', 'owner', 'tuner', 'desk', 'customer'] },
   { method: 'get', path: '/api/share/:token', allowed: ['anonymous', 'owner', 'tuner', 'desk', 'customer'] },
+  // Bay capture: the device route admits no person at all (its caller is a device token).
+  { method: 'post', path: '/api/device/runs', allowed: [] },
+  { method: 'get', path: '/api/dynos/:id/device-tokens', allowed: ['owner'] },
+  { method: 'post', path: '/api/dynos/:id/device-tokens', allowed: ['owner'] },
+  { method: 'delete', path: '/api/dynos/:id/device-tokens/:tokenId', allowed: ['owner'] },
+  { method: 'put', path: '/api/dynos/:id/current', allowed: ['owner', 'tuner'] },
+  { method: 'delete', path: '/api/dynos/:id/current', allowed: ['owner', 'tuner'] },
+  { method: 'get', path: '/api/dynos/:id/board', allowed: ['owner', 'tuner', 'desk'] },
+  { method: 'get', path: '/api/runs/inbox/', allowed: ['owner', 'tuner', 'desk'] },
+  { method: 'post', path: '/api/runs/inbox/:id/assign', allowed: ['owner', 'tuner', 'desk'] },
+  { method: 'get', path: '/api/sessions/:id/events', allowed: ['owner', 'tuner', 'desk', 'customer'] },
 ];
 
 describe('route × role matrix', () => {
@@ -74,7 +85,7 @@ describe('route × role matrix', () => {
 
   it('declares an access rule on every route', () => {
     for (const r of t.routes) {
-      expect(r.access === 'public' || r.access === 'signed-in' || (Array.isArray(r.access) && r.access.length > 0), `${r.method} ${r.path}`).toBe(true);
+      expect(r.access === 'public' || r.access === 'signed-in' || r.access === 'device' || (Array.isArray(r.access) && r.access.length > 0), `${r.method} ${r.path}`).toBe(true);
     }
   });
 
@@ -94,6 +105,21 @@ describe('route × role matrix', () => {
         if (!ok) problems.push(`${r.method.toUpperCase()} ${r.path} as ${who}: got ${res.status}, expected ${expected}`);
       }
     }
+    expect(problems).toEqual([]);
+  });
+
+  it('lets a device token (Bearer) reach the device upload route and no other route', async () => {
+    const dyno = await agents.owner.post('/api/dynos').send({ name: 'Matrix roller', kind: 'inertia' });
+    const token = (await agents.owner.post(`/api/dynos/${dyno.body.id}/device-tokens`).send({ name: 'Matrix PC' })).body.token as string;
+    expect(token).toBeTruthy();
+    const problems: string[] = [];
+    for (const r of t.routes) {
+      if (r.path === '/api/auth/logout') continue;
+      const res = await t.request[r.method](concretePath(r.path)).set('Authorization', `Bearer ${token}`).send({});
+      const ok = r.access === 'device' ? res.status !== 401 && res.status !== 403 : res.status === 401 || res.status === 403;
+      if (!ok) problems.push(`${r.method.toUpperCase()} ${r.path} as a device: got ${res.status}`);
+    }
+    expect(t.routes.filter((r) => r.access === 'device').map((r) => `${r.method} ${r.path}`)).toEqual(['post /api/device/runs']);
     expect(problems).toEqual([]);
   });
 });

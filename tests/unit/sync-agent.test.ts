@@ -44,7 +44,7 @@ function fakeServer() {
     const files = req.files as Express.Multer.File[];
     for (const f of files) received.push({ name: f.originalname, sha256: sha(f.buffer), size: f.size });
     const body: DeviceUploadResponse = {
-      landing: { kind: 'inbox' },
+      landing: { kind: 'inbox', itemId: 'test-item', duplicate: false, pulls: 1 },
       results: files.map((f) => ({ file: f.originalname, ok: false as const, error: { code: 'NO_TABLE' as const, message: 'test server does not analyse' } })),
     };
     res.status(201).json(body);

@@ -37,10 +37,20 @@ export interface IngestTarget {
   stageId?: string | null;
 }
 
+/**
+ * How files arrive. `via`: said in the audit lines (e.g. the sync agent's token). `requireSafety`:
+ * false for files the dyno already recorded (the bay board shows the unconfirmed checklist
+ * instead): refusing them would only lose the pull.
+ */
+export interface IngestOptions {
+  via?: string;
+  requireSafety?: boolean;
+}
+
 type Target = Awaited<ReturnType<typeof loadTarget>>;
 
 /** Loads and checks the upload target: bike of the shop, session of that bike (safety confirmed), stage of that bike. */
-export async function loadTarget(em: EntityManager, actor: Actor, target: IngestTarget) {
+export async function loadTarget(em: EntityManager, actor: Actor, target: IngestTarget, opts: IngestOptions = {}) {
   const bike = await em.findOne(Bike, { id: target.bikeId, shop: actor.shopId }, { populate: ['customer', 'shop'] });
   if (!bike) throw notFound('Bike');
   let session: DynoSession | null = null;
@@ -48,7 +58,7 @@ export async function loadTarget(em: EntityManager, actor: Actor, target: Ingest
     session = await em.findOne(DynoSession, { id: target.sessionId, shop: actor.shopId });
     if (!session) throw notFound('Session');
     if (session.bike.id !== bike.id) throw new AppError('SESSION_OTHER_BIKE', 'That session belongs to another bike', 400);
-    if (!session.safetyConfirmedAt) {
+    if (!session.safetyConfirmedAt && opts.requireSafety !== false) {
       throw conflict('SAFETY_CHECK_REQUIRED', 'Confirm the dyno-bay safety checklist for this session before the first upload (restraints, cooling fan, extraction, hearing protection, nobody in line with the roller, extinguisher at hand).', { sessionId: session.id });
     }
   }
@@ -72,7 +82,7 @@ interface StoredFile {
  * Saves one run per outcome of a stored file, with their audit lines, in one transaction.
  * Answers the run ids in outcome order.
  */
-async function saveRuns(em: EntityManager, actor: Actor, { bike, session, stage }: Target, stored: StoredFile, outcomes: AnalysisOutcome[]): Promise<string[]> {
+async function saveRuns(em: EntityManager, actor: Actor, { bike, session, stage }: Target, stored: StoredFile, outcomes: AnalysisOutcome[], via?: string): Promise<string[]> {
   return em.transactional(async (tem) => {
     const ids: string[] = [];
     for (const outcome of outcomes) {
@@ -93,7 +103,7 @@ async function saveRuns(em: EntityManager, actor: Actor, { bike, session, stage 
       } as unknown as Run);
       applyOutcome(run, outcome);
       await tem.flush();
-      await recordAudit(tem, actor, 'run.upload', 'run', run.id, { file: stored.file.originalName, sha256: stored.sha256, status: run.status, bikeId: bike.id, sessionId: session?.id ?? null, pull: run.pullIndex + 1, pulls: run.pullCount });
+      await recordAudit(tem, actor, 'run.upload', 'run', run.id, { file: stored.file.originalName, sha256: stored.sha256, status: run.status, bikeId: bike.id, sessionId: session?.id ?? null, pull: run.pullIndex + 1, pulls: run.pullCount, ...(via ? { via } : {}) });
       ids.push(run.id);
     }
     return ids;
@@ -110,8 +120,8 @@ const resultOfError = (file: string, error: RunFileError, runId?: string): Uploa
  * Ingest files for one bike (and optionally a session and a stage). Answers one result per file,
  * in order. Throws 503 STORAGE_UNAVAILABLE, writing nothing, when storage cannot be reached.
  */
-export async function ingestFiles(em: EntityManager, deps: AppDeps, actor: Actor, target: IngestTarget, files: IncomingFile[]): Promise<UploadResult[]> {
-  const loaded = await loadTarget(em, actor, target);
+export async function ingestFiles(em: EntityManager, deps: AppDeps, actor: Actor, target: IngestTarget, files: IncomingFile[], opts: IngestOptions = {}): Promise<UploadResult[]> {
+  const loaded = await loadTarget(em, actor, target, opts);
   const { bike, session } = loaded;
   if (!files.length) throw new AppError('NO_FILES', 'Add at least one run file (field "files")', 400);
   try {
@@ -150,7 +160,7 @@ export async function ingestFiles(em: EntityManager, deps: AppDeps, actor: Actor
     }
     const outcomes = await analyseUpload(f.path !== undefined ? { path: f.path } : f.bytes, ctx, layouts);
     try {
-      const runIds = await saveRuns(em, actor, loaded, { file: f, key, sha256: sha, size }, outcomes);
+      const runIds = await saveRuns(em, actor, loaded, { file: f, key, sha256: sha, size }, outcomes, opts.via);
       stored++;
       known.set(sha, runIds);
       const unread = outcomes.every((o) => o.status !== 'ready') ? outcomes[0].error ?? undefined : undefined;

@@ -17,6 +17,8 @@ export class DynoSession extends ShopOwnedEntity {
   notes: string | null = null;
   safetyConfirmedBy: User | null = null;
   safetyConfirmedAt: Date | null = null;
+  /** Started from the bay with the shop's default conditions: temperature, pressure and humidity still to be confirmed. */
+  conditionsToConfirm = false;
 }
 
 export const DynoSessionSchema = new EntitySchema<DynoSession, ShopOwnedEntity>({
@@ -36,5 +38,6 @@ export const DynoSessionSchema = new EntitySchema<DynoSession, ShopOwnedEntity>(
     notes: { type: 'text', nullable: true },
     safetyConfirmedBy: { kind: 'm:1', entity: () => User, nullable: true, deleteRule: 'set null' },
     safetyConfirmedAt: { type: 'datetime', columnType: 'timestamptz', nullable: true },
+    conditionsToConfirm: { type: 'boolean', default: false },
   },
 });

@@ -35,6 +35,7 @@ export function toSessionDto(s: DynoSession, runCount: number): SessionDto {
     safetyConfirmedAt: s.safetyConfirmedAt ? s.safetyConfirmedAt.toISOString() : null,
     safetyConfirmedByName: s.safetyConfirmedBy?.name ?? null,
     runCount,
+    conditionsToConfirm: s.conditionsToConfirm,
   };
 }
 
@@ -101,6 +102,8 @@ export async function updateSession(em: EntityManager, actor: Actor, id: string,
   const s = await em.transactional(async (tx) => {
     const found = await getSessionEntity(tx, actor, id);
     const { dynoId, ...rest } = input;
+    // Conditions entered by hand replace the shop's defaults a bay session started with.
+    if (input.ambientTempC !== undefined || input.baroKpa !== undefined || input.humidityPct !== undefined) found.conditionsToConfirm = false;
     if (dynoId !== undefined) found.dyno = await dynoOfShop(tx, actor, dynoId);
     for (const [k, v] of Object.entries(rest)) if (v !== undefined) (found as unknown as Record<string, unknown>)[k] = v;
     await recordAudit(tx, actor, 'session.update', 'session', found.id, { ...input, startedAt: input.startedAt?.toISOString() });

@@ -11,6 +11,7 @@ import { BikeBuildTimeline, BikeRunsSection } from '@/features/runs';
 import { BikeStageTimeline } from '@/features/comparisons';
 import { BikeReportsSection } from '@/features/reports';
 import { SimilarBuilds, TypicalOutcomePanel } from '@/features/finder';
+import { PutOnDyno } from '@/features/dynos';
 import { bikeLabel } from '@shared/labels';
 import { usePageTitle } from '@/lib/page-title';
 
@@ -57,7 +58,7 @@ export function BikePage() {
         }
         title={title}
         subtitle={isStaff ? `Owned by ${b.customerName}` : undefined}
-        secondaryActions={canEdit && <Button onClick={() => setEditing(true)}>Edit bike</Button>}
+        secondaryActions={<>{isStaff && <PutOnDyno bikeId={b.id} />}{canEdit && <Button onClick={() => setEditing(true)}>Edit bike</Button>}</>}
       />
       <BikeDetailsCard bike={b} linkCustomer={isStaff} />
 

@@ -3,7 +3,8 @@ import type { UploadResult } from './run';
 /** Where a file sent by a dyno's sync agent landed. */
 export type DeviceLanding =
   | { kind: 'dyno'; bikeId: string; bikeLabel: string; sessionId: string; stageId: string | null }
-  | { kind: 'inbox' };
+  /** `itemId`: the inbox item; `duplicate`: the same file was already waiting there (nothing new kept). */
+  | { kind: 'inbox'; itemId: string; duplicate: boolean; pulls: number };
 
 /**
  * Answer of `POST /api/device/runs` (Authorization: Bearer <device token>): the usual upload

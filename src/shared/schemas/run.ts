@@ -64,6 +64,8 @@ export interface SessionDto {
   safetyConfirmedAt: string | null;
   safetyConfirmedByName: string | null;
   runCount: number;
+  /** Started from the bay with the shop's default conditions, not yet entered by hand. */
+  conditionsToConfirm?: boolean;
 }
 /** GET /api/sessions/:id: a session with its runs in order. */
 export interface SessionDetailDto extends SessionDto {

@@ -7,6 +7,9 @@ import { useCurrentUser } from '@/lib/auth';
 import { DYNO_KIND_LABELS, dynoQueries } from '../api/dyno-queries';
 import { useDeleteDyno } from '../api/delete-dyno';
 import { DynoFormDialog } from '../components/dyno-form-dialog';
+import { DeviceTokensDialog } from '../components/device-tokens-dialog';
+import { Link } from 'react-router-dom';
+import { paths } from '@/config/paths';
 import { usePageTitle } from '@/lib/page-title';
 
 const col = createColumnHelper<DynoDto>();
@@ -20,6 +23,7 @@ export function DynosPage() {
   const [editing, setEditing] = useState<DynoDto | null>(null);
   const [formOpen, setFormOpen] = useState(false);
   const [deleting, setDeleting] = useState<DynoDto | null>(null);
+  const [tokensOf, setTokensOf] = useState<DynoDto | null>(null);
   const remove = useDeleteDyno();
   const confirmDelete = useMutation({
     mutationFn: async (d: DynoDto) => {
@@ -47,6 +51,12 @@ export function DynosPage() {
               meta: { align: 'right' },
               cell: (c) => (
                 <div className="flex justify-end gap-2">
+                  <Link to={paths.bayBoard(c.row.original.id)} className="focus-ring inline-flex min-h-10 items-center rounded-control px-3 text-accent underline">
+                    Bay board
+                  </Link>
+                  <Button size="sm" onClick={() => setTokensOf(c.row.original)} aria-label={`Device tokens of ${c.row.original.name}`}>
+                    Device tokens
+                  </Button>
                   <Button
                     size="sm"
                     onClick={() => {
@@ -104,6 +114,7 @@ export function DynosPage() {
         />
       )}
       <DynoFormDialog open={formOpen} dyno={editing} onClose={() => setFormOpen(false)} />
+      <DeviceTokensDialog dyno={tokensOf} onClose={() => setTokensOf(null)} />
       <ConfirmDialog
         open={deleting !== null}
         title={`Remove ${deleting?.name ?? 'this dyno'}?`}
