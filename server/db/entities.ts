@@ -11,6 +11,7 @@ import { RunSchema, ColumnLayoutSchema } from '../modules/runs/run.entity';
 import { AuditEntrySchema } from '../modules/audit/audit-entry.entity';
 import { ComparisonSchema } from '../modules/comparisons/comparison.entity';
 import { ReportSchema, ReportDeliverySchema, ShareLinkSchema } from '../modules/reports/report.entity';
+import { PlanSchema, PlanVersionSchema, PaymentEventSchema } from '../modules/plans/plan.entity';
 import { OrphanObjectSchema } from '../lib/storage/orphan-object.entity';
 
 export const entities = [
@@ -32,4 +33,7 @@ export const entities = [
   ReportDeliverySchema,
   ShareLinkSchema,
   OrphanObjectSchema,
+  PlanSchema,
+  PlanVersionSchema,
+  PaymentEventSchema,
 ];
