@@ -20,6 +20,7 @@ import { runRoutes } from './runs/run.routes';
 import { comparisonRoutes } from './comparisons/comparison.routes';
 import { reportRoutes } from './reports/report.routes';
 import { buildRoutes } from './builds/build.routes';
+import { planRoutes } from './plans/plan.routes';
 
 export function allRouters(deps: AppDeps): ApiRouter[] {
   return [
@@ -39,5 +40,6 @@ export function allRouters(deps: AppDeps): ApiRouter[] {
     ...reportRoutes(deps),
     shopLogoRoutes(deps),
     ...buildRoutes(deps),
+    ...planRoutes(deps),
   ];
 }

@@ -52,6 +52,11 @@ export const API_ERROR_CODES = [
   'REPORT_VERSION_EXISTS',
   'MAIL_FAILED',
   'OUTBOX_DISABLED',
+  // build plans and payments
+  'PLAN_STATE',
+  'DEPOSIT_NOT_DUE',
+  'PAYMENTS_UNAVAILABLE',
+  'WEBHOOK_INVALID',
 ] as const;
 
 /** A code the API may answer with: its own, or the run-file reader's. */

@@ -50,6 +50,12 @@ export const planAcceptInput = z.object({
 });
 export const planDeclineInput = z.object({ reason: optionalText(2000) });
 export const planRefundInput = z.object({ reason: optionalText(500) });
+/** POST /api/plans/:id/convert: the stage the accepted plan becomes. */
+export const planConvertInput = z.object({
+  /** Stage name; the plan's title when left out. */
+  name: z.string().trim().min(1).max(120).optional(),
+  date: z.string().date().nullish(),
+});
 export const planTokenParams = z.object({ token: z.string().regex(/^[A-Za-z0-9_-]{43}$/, 'Not a valid link') });
 export const planListQuery = z.object({ bikeId: uuid.optional() });
 
