@@ -45,10 +45,10 @@ export class PlanVersion extends ShopOwnedEntity {
   version!: number;
   sentTo!: string;
   title!: string;
-  items: PlanItemDto[] = [];
-  totalCostCents = 0;
-  depositCents = 0;
-  currency = 'usd';
+  items!: PlanItemDto[];
+  totalCostCents!: number;
+  depositCents!: number;
+  currency!: string;
   prediction!: PlanPredictionDto;
   /** Object-storage key of the PDF quote sent with this version. */
   pdfKey!: string;

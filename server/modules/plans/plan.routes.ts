@@ -3,7 +3,7 @@ import type { Response } from 'express';
 import { ApiRouter } from '../../http/api-router';
 import type { AppDeps } from '../../app-deps';
 import { hitRateLimit } from '../../lib/rate-limit';
-import { STAFF } from '@shared/roles';
+import { STAFF, WORKSHOP } from '@shared/roles';
 import { idParams } from '@shared/schemas/common';
 import { planAcceptInput, planConvertInput, planDeclineInput, planInput, planRefundInput, planSendInput, planTokenParams, type PublicPlanDto } from '@shared/schemas/plans';
 import { createPlan, revisePlan, updatePlan } from './create-plan';
@@ -62,7 +62,7 @@ export function planRoutes(deps: AppDeps): ApiRouter[] {
   plans.route({ method: 'post', path: '/:id/decline', access: ['customer'], summary: 'Decline a sent plan', params: idParams, body: planDeclineInput, handler: ({ em, actor, params, body, req }) => declinePlan(em, { actor }, params.id, body.reason, ip(req.ip)) });
   plans.route({ method: 'post', path: '/:id/deposit', access: ['customer'], summary: 'Start paying the deposit (hosted checkout)', params: idParams, handler: ({ em, actor, params }) => startDepositCheckout(deps, em, { actor }, params.id) });
   plans.route({ method: 'post', path: '/:id/refund', access: ['owner', 'desk'], summary: 'Refund a paid deposit', params: idParams, body: planRefundInput, handler: ({ em, actor, params, body }) => refundDeposit(deps, em, actor, params.id, body.reason) });
-  plans.route({ method: 'post', path: '/:id/convert', access: STAFF, summary: 'Turn an accepted plan into the bike’s next stage', params: idParams, body: planConvertInput, handler: ({ em, actor, params, body }) => convertPlan(em, actor, params.id, body) });
+  plans.route({ method: 'post', path: '/:id/convert', access: WORKSHOP, summary: 'Turn an accepted plan into the bike’s next stage', params: idParams, body: planConvertInput, handler: ({ em, actor, params, body }) => convertPlan(em, actor, params.id, body) });
 
   const links = new ApiRouter('/api/plan-links', deps);
   const limited = async (em: Parameters<typeof hitRateLimit>[0], addr: string | undefined) =>
