@@ -15,6 +15,7 @@ import { comparisonRoutes } from '@/features/comparisons/routes';
 import { publicReportRoutes, reportRoutes } from '@/features/reports/routes';
 import { ComparisonReportActions, CustomerReportsList } from '@/features/reports';
 import { finderRoutes } from '@/features/finder/routes';
+import { planRoutes, publicPlanRoutes } from '@/features/plans/routes';
 
 /**
  * Every screen. Each feature lists its own routes (components lazy-loaded inside them); this
@@ -23,6 +24,7 @@ import { finderRoutes } from '@/features/finder/routes';
 const routes: RouteObject[] = [
   ...authRoutes,
   ...publicReportRoutes,
+  ...publicPlanRoutes,
   {
     element: <RequireAuth />,
     errorElement: <RouteErrorPage />,
@@ -30,7 +32,7 @@ const routes: RouteObject[] = [
       {
         element: <AppShell />,
         errorElement: <RouteErrorPage />,
-        children: [...homeRoutes(<CustomerReportsList />), ...customerRoutes, ...bikeRoutes, ...runRoutes, ...comparisonRoutes({ savedComparisonActions: (id) => <ComparisonReportActions comparisonId={id} /> }), ...reportRoutes, ...finderRoutes, ...adminRoutes, ...dynoRoutes, ...accountRoutes, { path: '*', element: <NotFoundPage /> }],
+        children: [...homeRoutes(<CustomerReportsList />), ...customerRoutes, ...bikeRoutes, ...runRoutes, ...comparisonRoutes({ savedComparisonActions: (id) => <ComparisonReportActions comparisonId={id} /> }), ...reportRoutes, ...finderRoutes, ...planRoutes, ...adminRoutes, ...dynoRoutes, ...accountRoutes, { path: '*', element: <NotFoundPage /> }],
       },
     ],
   },

@@ -26,4 +26,6 @@ export const paths = {
   dynos: '/settings/dynos',
   audit: '/settings/audit',
   outbox: '/settings/outbox',
+  plan: (id = ':planId') => `/plans/${id}`,
+  planLink: (token = ':token') => `/plan/${token}`,
 } as const;

@@ -11,6 +11,7 @@ import { BikeBuildTimeline, BikeRunsSection } from '@/features/runs';
 import { BikeStageTimeline } from '@/features/comparisons';
 import { BikeReportsSection } from '@/features/reports';
 import { SimilarBuilds, TypicalOutcomePanel } from '@/features/finder';
+import { BikePlansSection } from '@/features/plans';
 import { bikeLabel } from '@shared/labels';
 import { usePageTitle } from '@/lib/page-title';
 
@@ -68,6 +69,7 @@ export function BikePage() {
         <BikeBuildTimeline bikeId={b.id} />
         <BikeRunsSection bikeId={b.id} />
         <BikeReportsSection bikeId={b.id} />
+        <BikePlansSection bikeId={b.id} />
         {isStaff && (
           <div className="grid gap-6 lg:grid-cols-2">
             <TypicalOutcomePanel bikeId={b.id} />

@@ -38,6 +38,30 @@ export const planInput = z.object({
 export type PlanInput = z.output<typeof planInput>;
 export type PlanFormValues = z.input<typeof planInput>;
 
+/** Money typed in the plan editor, in the currency's main unit → whole cents (1.005 → 101: cut to 6 decimals first). */
+const moneyInput = (label: string) =>
+  z
+    .preprocess(
+      (v) => (v === '' || v === null || v === undefined || (typeof v === 'number' && Number.isNaN(v)) ? 0 : typeof v === 'string' ? Number(v) : v),
+      z.number({ invalid_type_error: `${label} must be a number` }).min(0, `${label} cannot be negative`).max(100_000, `${label} is too large`),
+    )
+    .transform((v) => Math.round(Number((v * 100).toFixed(6))));
+
+/** The plan editor's form: costs typed in money, sent as PlanInput (cents). */
+export const planFormInput = z.object({
+  title: planInput.shape.title,
+  note: planInput.shape.note,
+  items: z
+    .array(
+      z
+        .object({ category: z.enum(PART_CATEGORIES), description: planItemInput.shape.description, partCost: moneyInput('Part cost'), labourCost: moneyInput('Labour cost'), headWork: planItemInput.shape.headWork })
+        .transform(({ partCost, labourCost, ...rest }) => ({ ...rest, partCostCents: partCost, labourCostCents: labourCost })),
+    )
+    .min(1, 'Add at least one item')
+    .max(50),
+});
+export type PlanEditorValues = z.input<typeof planFormInput>;
+
 export const planSendInput = z.object({
   /** Defaults to the customer's e-mail on record. */
   to: z.string().trim().email('Enter a valid e-mail address').optional(),
