@@ -125,7 +125,7 @@ function PlanQuoteDocument({ d, logo }: { d: PlanQuoteData; logo: { data: Buffer
           {p.lowConfidence && p.kind !== 'none' ? <Text style={{ color: palette.warn.DEFAULT, marginTop: 3 }}>{`Low confidence: fewer than 5 similar builds.`}</Text> : null}
           {p.band ? (
             <View wrap={false} style={{ marginTop: 8 }}>
-              <BandChart band={p.band} width={width} height={210} units={u} />
+              <BandChart band={p.band} width={width} height={170} units={u} />
               <Text style={[s.subtle, { fontSize: 7.5, marginTop: 2, textAlign: 'center' }]}>
                 {`Solid: ${p.band.baseLabel} (this bike today). Shaded: the middle half of the gains measured on similar builds at each rpm; dashed: their median (${formatNumber(Math.max(...p.band.builds))} builds at most).`}
               </Text>
