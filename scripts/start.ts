@@ -9,7 +9,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { randomBytes } from 'node:crypto';
 import { ROOT, STORAGE } from './lib/paths';
-import { startLocalPostgres, startS3Fake, startSmtpFake, type RunningService } from './lib/local-services';
+import { startLocalPostgres, startPaymentService, startS3Fake, startSmtpFake, type RunningService } from './lib/local-services';
 import { ensureClientBuilt } from './lib/client-build';
 import { ConfigError, loadConfig } from '../server/config/env';
 import { startServer, type RunningServer } from '../server/main';
@@ -38,6 +38,13 @@ process.on('SIGTERM', () => void shutdown(0));
 function localSessionSecret() {
   const file = path.join(STORAGE, 'session-secret');
   if (!fs.existsSync(file)) fs.writeFileSync(file, randomBytes(32).toString('hex'), { mode: 0o600 });
+  return fs.readFileSync(file, 'utf8').trim();
+}
+
+/** A stable random secret per checkout, kept in storage/<name>. */
+function localSecret(name: string, prefix = '') {
+  const file = path.join(STORAGE, name);
+  if (!fs.existsSync(file)) fs.writeFileSync(file, prefix + randomBytes(24).toString('hex'), { mode: 0o600 });
   return fs.readFileSync(file, 'utf8').trim();
 }
 
@@ -70,6 +77,20 @@ async function main() {
     started.push(smtp);
     env.SMTP_URL = smtp.url;
     env.MAIL_CAPTURE_DIR ??= mailDir;
+  }
+
+  if (!env.PAYMENTS_SECRET_KEY && !env.PAYMENTS_API_URL) {
+    const pay = await startPaymentService({
+      dir: path.join(STORAGE, 'payments'),
+      port: Number(env.PULLBOOK_PAY_PORT ?? 45690),
+      secretKey: 'sk_test_pullbook_local',
+      webhookSecret: localSecret('payments-webhook-secret', 'whsec_'),
+      webhookUrl: `${env.PUBLIC_URL.replace(/\/$/, '')}/api/payments/webhook`,
+    });
+    started.push(pay);
+    env.PAYMENTS_API_URL = pay.url;
+    env.PAYMENTS_SECRET_KEY = 'sk_test_pullbook_local';
+    env.PAYMENTS_WEBHOOK_SECRET = localSecret('payments-webhook-secret', 'whsec_');
   }
 
   const config = loadConfig(env);

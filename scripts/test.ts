@@ -8,7 +8,7 @@ import { spawn, spawnSync } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
 import { ROOT, STORAGE } from './lib/paths';
-import { ensureDebianPackages, freePort, startLocalPostgres, startS3Fake, startSmtpFake, type RunningService } from './lib/local-services';
+import { ensureDebianPackages, freePort, startLocalPostgres, startPaymentService, startS3Fake, startSmtpFake, type RunningService } from './lib/local-services';
 import { buildClient } from './lib/client-build';
 import { initOrm, migrateToLatest } from '../server/db/orm';
 
@@ -89,6 +89,10 @@ async function main(): Promise<number> {
   const smtp = await startSmtpFake({ dir: mailDir, port: await freePort() });
   started.push(smtp);
 
+  // Payments: tests that need webhooks register their own endpoint with the fake (through the SDK).
+  const payments = await startPaymentService({ dir: path.join(TEST_DIR, 'payments'), port: await freePort(), secretKey: 'sk_test_pullbook_tests', webhookSecret: 'whsec_pullbook_tests' });
+  started.push(payments);
+
   // Browser tests need the built client; build it into this run's folder only when they run.
   const clientDir = path.join(TEST_DIR, 'dist');
   const wantsBrowser = only.length === 0 || only.some((f) => f.includes('e2e'));
@@ -110,6 +114,9 @@ async function main(): Promise<number> {
     BCRYPT_ROUNDS: '10',
     AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED: 'true',
     PULLBOOK_CLIENT_DIR: clientDir,
+    PAYMENTS_API_URL: payments.url,
+    PAYMENTS_SECRET_KEY: 'sk_test_pullbook_tests',
+    PAYMENTS_WEBHOOK_SECRET: 'whsec_pullbook_tests',
   };
   const resultsFile = path.join(TEST_DIR, 'vitest-results.json');
   fs.rmSync(resultsFile, { force: true });

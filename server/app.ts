@@ -13,6 +13,7 @@ import { AppError } from './lib/errors';
 import { httpLogger } from './lib/logger';
 import { deviceBearerGate } from './modules/device/device-auth';
 import { closeLiveFeed } from './lib/live/live-feed';
+import { PAYMENT_WEBHOOK_PATH } from './modules/plans/plan.routes';
 
 export interface CreatedApp {
   app: express.Express;
@@ -42,6 +43,8 @@ export function createApp(deps: AppDeps, opts: { clientDir?: string } = {}): Cre
   });
   // Sign-in and account bodies are a few fields: a small cap keeps a large (deeply nested) body
   // from costing the event loop a parse before any check. The 2 MB parser skips bodies parsed here.
+  // The payment webhook's signature covers the exact bytes: its body stays raw (the JSON parsers skip a parsed body).
+  app.use(PAYMENT_WEBHOOK_PATH, express.raw({ type: '*/*', limit: '1mb' }));
   app.use('/api/auth', express.json({ limit: '16kb' }));
   app.use('/api', express.json({ limit: '2mb' }));
   app.use('/api', sameOriginOnly(deps.config.PUBLIC_URL));

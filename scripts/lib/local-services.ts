@@ -223,3 +223,15 @@ export async function startSmtpFake(opts: { dir: string; port: number }): Promis
     },
   };
 }
+
+/**
+ * The local payment service (payment-fake.ts): the official SDK reaches it through
+ * PAYMENTS_API_URL, so the app's code is the same as against the provider. State in dir.
+ */
+export async function startPaymentService(opts: { dir: string; port: number; secretKey: string; webhookSecret: string; webhookUrl?: string }): Promise<RunningService> {
+  await assertPortFree(opts.port, 'the payment fake');
+  const { startPaymentFake } = await import('./payment-fake');
+  const fake = await startPaymentFake(opts);
+  log(`payment fake on 127.0.0.1:${opts.port} (state in ${opts.dir}${opts.webhookUrl ? `, webhooks to ${opts.webhookUrl}` : ''})`);
+  return { url: fake.url, stop: () => fake.stop() };
+}

@@ -9,6 +9,8 @@
  *   GET  /checkout/:id                the hosted checkout page, with a "Pay" button
  *   POST /checkout/:id/pay            pays, sends the signed `checkout.session.completed` webhook,
  *                                     then redirects to the session's success URL
+ *   POST /v1/webhook_endpoints        register another webhook endpoint (as in the provider's API);
+ *   DELETE /v1/webhook_endpoints/:id  its answer's `secret` is the fake's one signing secret
  *
  * Webhooks are signed exactly as the provider signs them (the SDK's own
  * `webhooks.generateTestHeaderString`), so the app verifies them with `constructEvent` as it would in
@@ -27,8 +29,11 @@ export interface PaymentFakeOptions {
   port: number;
   /** The secret API key the SDK must present (Authorization: Bearer …). */
   secretKey: string;
-  /** Where webhooks go (the app's webhook route) and the secret they are signed with. */
-  webhookUrl: string;
+  /**
+   * Where webhooks go (the app's webhook route) and the secret they are signed with. Endpoints
+   * registered through the API get every event too (tests with an app on a port of their own).
+   */
+  webhookUrl?: string;
   webhookSecret: string;
 }
 
@@ -62,7 +67,17 @@ interface FakeRefund {
   created: number;
 }
 
+interface FakeEndpoint {
+  id: string;
+  object: 'webhook_endpoint';
+  url: string;
+  enabled_events: string[];
+  status: 'enabled';
+  created: number;
+}
+
 interface FakeState {
+  endpoints?: Record<string, FakeEndpoint>;
   sessions: Record<string, FakeSession>;
   refunds: Record<string, FakeRefund>;
   /** Every webhook sent, with its delivery result (for people debugging a payment). */
@@ -88,11 +103,20 @@ export async function startPaymentFake(opts: PaymentFakeOptions): Promise<{ url:
   async function sendWebhook(type: string, object: unknown) {
     const event = { id: newId('evt'), object: 'event', type, created: now(), livemode: false, api_version: Stripe.API_VERSION, data: { object } };
     const payload = JSON.stringify(event);
+    const targets = [
+      ...(opts.webhookUrl ? [opts.webhookUrl] : []),
+      ...Object.values(state.endpoints ?? {}).filter((e) => e.enabled_events.includes('*') || e.enabled_events.includes(type)).map((e) => e.url),
+    ];
+    await Promise.all(targets.map((url) => deliver(url, event.id, type, payload)));
+  }
+
+  async function deliver(url: string, eventId: string, type: string, payload: string) {
     const header = signer.webhooks.generateTestHeaderString({ payload, secret: opts.webhookSecret });
+    const event = { id: eventId };
     // The provider retries failed deliveries for days; a few quick tries are enough on loopback.
     for (let attempt = 0; attempt < 5; attempt++) {
       try {
-        const res = await fetch(opts.webhookUrl, { method: 'POST', headers: { 'Content-Type': 'application/json', 'Stripe-Signature': header }, body: payload });
+        const res = await fetch(url, { method: 'POST', headers: { 'Content-Type': 'application/json', 'Stripe-Signature': header }, body: payload });
         state.webhooks.push({ id: event.id, type, at: new Date().toISOString(), status: res.status });
         save();
         if (res.ok) return;
@@ -154,6 +178,22 @@ export async function startPaymentFake(opts: PaymentFakeOptions): Promise<{ url:
     const s = state.sessions[req.params.id];
     if (!s) return providerError(res, 404, `No such checkout.session: '${req.params.id}'`, 'id');
     res.json(s);
+  });
+
+  api.post('/webhook_endpoints', (req, res) => {
+    const b = req.body as { url?: string; enabled_events?: string[] };
+    if (typeof b.url !== 'string' || !/^https?:\/\//.test(b.url)) return providerError(res, 400, 'url is required', 'url');
+    const endpoint: FakeEndpoint = { id: newId('we'), object: 'webhook_endpoint', url: b.url, enabled_events: b.enabled_events?.length ? b.enabled_events : ['*'], status: 'enabled', created: now() };
+    state.endpoints = { ...(state.endpoints ?? {}), [endpoint.id]: endpoint };
+    save();
+    res.json({ ...endpoint, secret: opts.webhookSecret });
+  });
+
+  api.delete('/webhook_endpoints/:id', (req, res) => {
+    if (!state.endpoints?.[req.params.id]) return providerError(res, 404, `No such webhook endpoint: '${req.params.id}'`, 'id');
+    delete state.endpoints[req.params.id];
+    save();
+    res.json({ id: req.params.id, object: 'webhook_endpoint', deleted: true });
   });
 
   api.post('/refunds', (req, res) => {

@@ -51,6 +51,15 @@ const envSchema = z.object({
   UPLOAD_MAX_FILES: z.coerce.number().int().positive().default(40),
   /** Folder for uploaded files while a request is handled (created on demand, emptied after each request). */
   UPLOAD_TMP_DIR: z.string().min(1).default(path.join(os.tmpdir(), 'pullbook-uploads')),
+  /**
+   * Payment provider's secret API key (deposits on build plans). Unset: deposits are off.
+   * The official SDK is used as is; PAYMENTS_API_URL only changes where it connects.
+   */
+  PAYMENTS_SECRET_KEY: z.string().min(1).optional(),
+  /** Secret the provider signs webhooks with (whsec_…); webhooks are refused without it. */
+  PAYMENTS_WEBHOOK_SECRET: z.string().min(1).optional(),
+  /** Where the SDK connects, e.g. the local fake http://127.0.0.1:45690; unset for the real provider. */
+  PAYMENTS_API_URL: z.string().url().optional(),
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
 });
 

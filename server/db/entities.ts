@@ -11,6 +11,7 @@ import { RunSchema, ColumnLayoutSchema } from '../modules/runs/run.entity';
 import { AuditEntrySchema } from '../modules/audit/audit-entry.entity';
 import { ComparisonSchema } from '../modules/comparisons/comparison.entity';
 import { ReportSchema, ReportDeliverySchema, ShareLinkSchema } from '../modules/reports/report.entity';
+import { PlanSchema, PlanVersionSchema, PaymentEventSchema } from '../modules/plans/plan.entity';
 import { OrphanObjectSchema } from '../lib/storage/orphan-object.entity';
 import { DeviceTokenSchema } from '../modules/device/device-token.entity';
 import { InboxItemSchema } from '../modules/device/inbox-item.entity';
@@ -36,4 +37,7 @@ export const entities = [
   OrphanObjectSchema,
   DeviceTokenSchema,
   InboxItemSchema,
+  PlanSchema,
+  PlanVersionSchema,
+  PaymentEventSchema,
 ];

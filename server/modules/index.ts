@@ -21,6 +21,7 @@ import { comparisonRoutes } from './comparisons/comparison.routes';
 import { reportRoutes } from './reports/report.routes';
 import { buildRoutes } from './builds/build.routes';
 import { deviceRoutes } from './device/device.routes';
+import { planRoutes } from './plans/plan.routes';
 
 export function allRouters(deps: AppDeps): ApiRouter[] {
   return [
@@ -41,5 +42,6 @@ export function allRouters(deps: AppDeps): ApiRouter[] {
     ...reportRoutes(deps),
     shopLogoRoutes(deps),
     ...buildRoutes(deps),
+    ...planRoutes(deps),
   ];
 }

@@ -16,6 +16,7 @@ import { comparisonRoutes } from '@/features/comparisons/routes';
 import { publicReportRoutes, reportRoutes } from '@/features/reports/routes';
 import { ComparisonReportActions, CustomerReportsList } from '@/features/reports';
 import { finderRoutes } from '@/features/finder/routes';
+import { planRoutes, publicPlanRoutes } from '@/features/plans/routes';
 
 /**
  * Every screen. Each feature lists its own routes (components lazy-loaded inside them); this
@@ -24,6 +25,7 @@ import { finderRoutes } from '@/features/finder/routes';
 const routes: RouteObject[] = [
   ...authRoutes,
   ...publicReportRoutes,
+  ...publicPlanRoutes,
   {
     element: <RequireAuth />,
     errorElement: <RouteErrorPage />,
@@ -31,7 +33,7 @@ const routes: RouteObject[] = [
       {
         element: <AppShell />,
         errorElement: <RouteErrorPage />,
-        children: [...homeRoutes(<CustomerReportsList />), ...customerRoutes, ...bikeRoutes, ...runRoutes, ...comparisonRoutes({ savedComparisonActions: (id) => <ComparisonReportActions comparisonId={id} /> }), ...reportRoutes, ...finderRoutes, ...adminRoutes, ...dynoRoutes, ...inboxRoutes, ...accountRoutes, { path: '*', element: <NotFoundPage /> }],
+        children: [...homeRoutes(<CustomerReportsList />), ...customerRoutes, ...bikeRoutes, ...runRoutes, ...comparisonRoutes({ savedComparisonActions: (id) => <ComparisonReportActions comparisonId={id} /> }), ...reportRoutes, ...finderRoutes, ...adminRoutes, ...planRoutes, ...dynoRoutes, ...inboxRoutes, ...accountRoutes, { path: '*', element: <NotFoundPage /> }],
       },
     ],
   },

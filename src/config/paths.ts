@@ -29,4 +29,6 @@ export const paths = {
   bay: '/bay',
   bayBoard: (id = ':dynoId') => `/bay/${id}`,
   inbox: '/inbox',
+  plan: (id = ':planId') => `/plans/${id}`,
+  planLink: (token = ':token') => `/plan/${token}`,
 } as const;

@@ -135,3 +135,12 @@ export const inboxKeys = {
   all: () => ['inbox'] as const,
   list: () => [...inboxKeys.all(), 'list'] as const,
 };
+
+/** Build plans: a bike's list, one plan, a plan opened from its link. */
+export const planKeys = {
+  all: () => ['plans'] as const,
+  bike: (bikeId: string) => [...planKeys.all(), 'bike', bikeId] as const,
+  detail: (id: string) => [...planKeys.all(), 'detail', id] as const,
+  versions: (id: string) => [...planKeys.all(), 'versions', id] as const,
+  link: (token: string) => [...planKeys.all(), 'link', token] as const,
+};

@@ -58,6 +58,11 @@ export const API_ERROR_CODES = [
   'INBOX_ALREADY_ASSIGNED',
   'SESSION_OTHER_DYNO',
   'STAGE_OTHER_BIKE',
+  // build plans and payments
+  'PLAN_STATE',
+  'DEPOSIT_NOT_DUE',
+  'PAYMENTS_UNAVAILABLE',
+  'WEBHOOK_INVALID',
 ] as const;
 
 /** A code the API may answer with: its own, or the run-file reader's. */

@@ -63,6 +63,18 @@ const EXPECTED: { method: string; path: string; allowed: (Role | 'anonymous')[] 
   { method: 'get', path: '/api/runs/inbox/', allowed: ['owner', 'tuner', 'desk'] },
   { method: 'post', path: '/api/runs/inbox/:id/assign', allowed: ['owner', 'tuner', 'desk'] },
   { method: 'get', path: '/api/sessions/:id/events', allowed: ['owner', 'tuner', 'desk', 'customer'] },
+  { method: 'post', path: '/api/bikes/:id/plans', allowed: ['owner', 'tuner', 'desk'] },
+  { method: 'get', path: '/api/bikes/:id/plans', allowed: ['owner', 'tuner', 'desk', 'customer'] },
+  { method: 'get', path: '/api/plans/:id', allowed: ['owner', 'tuner', 'desk', 'customer'] },
+  { method: 'put', path: '/api/plans/:id', allowed: ['owner', 'tuner', 'desk'] },
+  { method: 'post', path: '/api/plans/:id/send', allowed: ['owner', 'tuner', 'desk'] },
+  { method: 'post', path: '/api/plans/:id/accept', allowed: ['customer'] },
+  { method: 'post', path: '/api/plans/:id/decline', allowed: ['customer'] },
+  { method: 'post', path: '/api/plans/:id/deposit', allowed: ['customer'] },
+  { method: 'post', path: '/api/plans/:id/refund', allowed: ['owner', 'desk'] },
+  { method: 'post', path: '/api/plans/:id/convert', allowed: ['owner', 'tuner'] },
+  { method: 'post', path: '/api/plan-links/:token/accept', allowed: ['anonymous', 'owner', 'tuner', 'desk', 'customer'] },
+  { method: 'post', path: '/api/payments/webhook', allowed: ['anonymous', 'owner', 'tuner', 'desk', 'customer'] },
 ];
 
 describe('route × role matrix', () => {
@@ -120,6 +132,49 @@ describe('route × role matrix', () => {
       if (!ok) problems.push(`${r.method.toUpperCase()} ${r.path} as a device: got ${res.status}`);
     }
     expect(t.routes.filter((r) => r.access === 'device').map((r) => `${r.method} ${r.path}`)).toEqual(['post /api/device/runs']);
+    expect(problems).toEqual([]);
+  });
+});
+
+describe('build plans across customers and shops', () => {
+  it('answers 404 for another customer’s plan and for another shop’s plan, on every plan route', async () => {
+    const other = await t.createShop('Matrix Other Shop');
+    const desk = agents.desk;
+    const item = { category: 'exhaust', description: 'Slip-ons', partCostCents: 40_000, labourCostCents: 10_000 };
+    // A sent plan on a bike of another customer of the same shop, and one in another shop.
+    const mine = (await desk.post(`/api/bikes/${s.otherBike.id}/plans`).send({ title: 'Other customer', items: [item] })).body;
+    expect((await desk.post(`/api/plans/${mine.id}/send`).send({ to: 'someone@matrix.test' })).status).toBe(200);
+    const otherDesk = await t.signIn(other.users.desk);
+    const theirs = (await otherDesk.post(`/api/bikes/${other.bike.id}/plans`).send({ title: 'Other shop', items: [item] })).body;
+    expect((await otherDesk.post(`/api/plans/${theirs.id}/send`).send({})).status).toBe(200);
+
+    const calls = (id: string): [Role, string, string, object?][] => [
+      ['customer', 'get', `/api/plans/${id}`],
+      ['customer', 'get', `/api/plans/${id}/pdf`],
+      ['customer', 'post', `/api/plans/${id}/accept`, { name: 'Not Theirs' }],
+      ['customer', 'post', `/api/plans/${id}/decline`, {}],
+      ['customer', 'post', `/api/plans/${id}/deposit`, {}],
+    ];
+    const staffCalls = (id: string): [Role, string, string, object?][] => [
+      ['owner', 'get', `/api/plans/${id}`],
+      ['owner', 'put', `/api/plans/${id}`, { title: 'x', items: [item] }],
+      ['desk', 'post', `/api/plans/${id}/send`, {}],
+      ['owner', 'post', `/api/plans/${id}/refund`, {}],
+      ['tuner', 'post', `/api/plans/${id}/convert`, {}],
+      ['desk', 'get', `/api/plans/${id}/versions`],
+    ];
+    const problems: string[] = [];
+    for (const [who, method, path, body] of [...calls(mine.id), ...calls(theirs.id), ...staffCalls(theirs.id)]) {
+      const agent = agents[who] as unknown as Record<string, (p: string) => supertest.Test>;
+      const res = await agent[method](path).send(body ?? {});
+      if (res.status !== 404) problems.push(`${method.toUpperCase()} ${path} as ${who}: ${res.status}`);
+    }
+    for (const [method, path] of [['get', `/api/bikes/${s.otherBike.id}/plans`], ['get', `/api/bikes/${other.bike.id}/plans`]] as const) {
+      const res = await agents.customer[method](path);
+      if (res.status !== 404) problems.push(`${method.toUpperCase()} ${path} as customer: ${res.status}`);
+    }
+    const ownerBikes = await agents.owner.post(`/api/bikes/${other.bike.id}/plans`).send({ title: 'x', items: [item] });
+    if (ownerBikes.status !== 404) problems.push(`POST /api/bikes/<other shop>/plans as owner: ${ownerBikes.status}`);
     expect(problems).toEqual([]);
   });
 });

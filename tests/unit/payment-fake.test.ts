@@ -121,4 +121,30 @@ describe('local payment service with the official SDK', () => {
     cleanups.push(() => again.stop());
     expect((await stripe.checkout.sessions.retrieve(session.id)).amount_total).toBe(25_000);
   });
+
+  it('delivers to webhook endpoints registered through the SDK, signed with the secret it answers, until deleted', async () => {
+    const { stripe, hooks } = await setup();
+    const extra: string[] = [];
+    const app = express();
+    app.post('/other', express.raw({ type: 'application/json' }), (req, res) => {
+      extra.push((req.body as Buffer).toString('utf8'));
+      res.json({ ok: true });
+    });
+    const other = await new Promise<http.Server>((resolve) => {
+      const s = app.listen(0, '127.0.0.1', () => resolve(s));
+    });
+    cleanups.push(() => new Promise<void>((r) => other.close(() => r())));
+    const endpoint = await stripe.webhookEndpoints.create({ url: `http://127.0.0.1:${(other.address() as AddressInfo).port}/other`, enabled_events: ['checkout.session.completed'] });
+    expect(endpoint.secret).toBe(WHSEC);
+    const first = await createCheckout(stripe);
+    await fetch(`${first.url}/pay`, { method: 'POST', redirect: 'manual' });
+    expect(hooks).toHaveLength(1);
+    expect(extra).toHaveLength(1);
+    expect(JSON.parse(extra[0]).id).toBe(JSON.parse(hooks[0].body).id);
+    await stripe.webhookEndpoints.del(endpoint.id);
+    const second = await createCheckout(stripe);
+    await fetch(`${second.url}/pay`, { method: 'POST', redirect: 'manual' });
+    expect(hooks).toHaveLength(2);
+    expect(extra).toHaveLength(1);
+  });
 });

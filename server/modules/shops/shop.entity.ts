@@ -2,6 +2,7 @@ import { EntitySchema } from '@mikro-orm/core';
 import { randomUUID } from 'node:crypto';
 
 import type { UnitSystem } from '@shared/units-display';
+import type { DepositMode } from '@shared/schemas/plans';
 
 export type { UnitSystem };
 export type PaperSize = 'letter' | 'a4';
@@ -22,6 +23,12 @@ export class Shop {
   defaultCorrection = 'sae-j1349';
   /** Labour rate used when a part row has no labour cost of its own (cents per hour). */
   createdAt: Date = new Date();
+  /** ISO 4217 code, lower case (as the payment provider takes it); every amount is in its minor unit (cents). */
+  currency = 'usd';
+  /** Deposit asked when a build plan is accepted: none, a percentage of the plan, or a fixed amount. */
+  depositMode: DepositMode = 'off';
+  depositPercent = 0;
+  depositFixedCents = 0;
 }
 
 export const ShopSchema = new EntitySchema<Shop>({
@@ -38,5 +45,9 @@ export const ShopSchema = new EntitySchema<Shop>({
     paperSize: { type: 'string', length: 16, default: 'letter' },
     defaultCorrection: { type: 'string', length: 32, default: 'sae-j1349' },
     createdAt: { type: 'datetime', columnType: 'timestamptz' },
+    currency: { type: 'string', length: 3, default: 'usd' },
+    depositMode: { type: 'string', length: 16, default: 'off' },
+    depositPercent: { type: 'integer', default: 0 },
+    depositFixedCents: { type: 'integer', default: 0 },
   },
 });

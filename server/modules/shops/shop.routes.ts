@@ -14,6 +14,10 @@ const toDto = (s: Shop): ShopDto => ({
   units: s.units,
   paperSize: s.paperSize,
   defaultCorrection: s.defaultCorrection as ShopDto['defaultCorrection'],
+  currency: s.currency,
+  depositMode: s.depositMode,
+  depositPercent: s.depositPercent,
+  depositFixedCents: s.depositFixedCents,
 });
 
 export function shopRoutes(deps: AppDeps) {

@@ -12,6 +12,7 @@ import { BikeStageTimeline } from '@/features/comparisons';
 import { BikeReportsSection } from '@/features/reports';
 import { SimilarBuilds, TypicalOutcomePanel } from '@/features/finder';
 import { PutOnDyno } from '@/features/dynos';
+import { BikePlansSection } from '@/features/plans';
 import { bikeLabel } from '@shared/labels';
 import { usePageTitle } from '@/lib/page-title';
 
@@ -69,6 +70,7 @@ export function BikePage() {
         <BikeBuildTimeline bikeId={b.id} />
         <BikeRunsSection bikeId={b.id} />
         <BikeReportsSection bikeId={b.id} />
+        <BikePlansSection bikeId={b.id} />
         {isStaff && (
           <div className="grid gap-6 lg:grid-cols-2">
             <TypicalOutcomePanel bikeId={b.id} />

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { optionalEmail, optionalText, requiredText } from './common';
 import { UNIT_SYSTEMS, type UnitSystem } from '../units-display';
+import { DEPOSIT_MODES, type DepositMode } from './plans';
 
 /** Atmospheric correction standards a shop may choose as its default for new comparisons and reports. */
 export const CORRECTION_STANDARDS = ['none', 'sae-j1349', 'sae-j1349-1990', 'iso-1585', 'din-70020', 'sae-j607'] as const;
@@ -15,6 +16,12 @@ export const shopSettingsInput = z.object({
   units: z.enum(UNIT_SYSTEMS),
   paperSize: z.enum(['letter', 'a4']),
   defaultCorrection: z.enum(CORRECTION_STANDARDS),
+  /** ISO 4217 code; amounts are kept in its minor unit (cents). Left out: unchanged. */
+  currency: z.string().trim().toLowerCase().regex(/^[a-z]{3}$/, 'Use a three-letter currency code, e.g. USD').optional(),
+  /** Deposit asked on an accepted build plan: off, a percentage of the plan, or a fixed amount. Left out: unchanged. */
+  depositMode: z.enum(DEPOSIT_MODES).optional(),
+  depositPercent: z.coerce.number().int('Whole percent').min(0).max(100, 'At most 100 %').optional(),
+  depositFixedCents: z.coerce.number().int('Whole cents').min(0).max(10_000_000).optional(),
 });
 export type ShopSettingsValues = z.input<typeof shopSettingsInput>;
 
@@ -29,4 +36,8 @@ export interface ShopDto {
   units: UnitSystem;
   paperSize: 'letter' | 'a4';
   defaultCorrection: CorrectionStandard;
+  currency: string;
+  depositMode: DepositMode;
+  depositPercent: number;
+  depositFixedCents: number;
 }

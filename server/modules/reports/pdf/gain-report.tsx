@@ -376,3 +376,6 @@ export function GainReportDocument({ data, logo }: { data: ReportData; logo?: Re
     </Document>
   );
 }
+
+/** The report's look, for other customer documents (the build-plan quote): styles and building blocks. */
+export { s as reportStyles, Section as ReportSection, Table as ReportTable, Stat as ReportStat };

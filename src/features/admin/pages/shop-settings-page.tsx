@@ -4,7 +4,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useQuery } from '@tanstack/react-query';
 import type { z } from 'zod';
 import { shopSettingsInput, type CorrectionStandard, type ShopDto, type ShopSettingsValues } from '@shared/schemas/shop';
-import { Button, Card, ErrorState, FormError, LoadingState, PageHeader, SelectField, type SelectOption, TextAreaField, TextField, useToast, fieldProblemsSummary } from '@/components/ui';
+import { Button, Card, ErrorState, FormError, LoadingState, NumberField, PageHeader, SelectField, type SelectOption, TextAreaField, TextField, useToast, fieldProblemsSummary } from '@/components/ui';
 import { applyFieldErrors } from '@/lib/api-client';
 import { shopQuery } from '@/lib/shop-query';
 import { useUpdateShop } from '../api/update-shop';
@@ -26,6 +26,11 @@ const UNIT_OPTIONS: SelectOption[] = [
 const PAPER_OPTIONS: SelectOption[] = [
   { value: 'letter', label: 'Letter (8.5 × 11 in)' },
   { value: 'a4', label: 'A4 (210 × 297 mm)' },
+];
+const DEPOSIT_OPTIONS: SelectOption[] = [
+  { value: 'off', label: 'No deposit' },
+  { value: 'percent', label: 'A percentage of the plan' },
+  { value: 'fixed', label: 'A fixed amount' },
 ];
 const CORRECTION_SELECT: SelectOption[] = Object.entries(CORRECTION_LABELS).map(([value, label]) => ({ value, label }));
 
@@ -62,8 +67,13 @@ function ShopForm({ shop }: { shop: ShopDto }) {
       units: shop.units,
       paperSize: shop.paperSize,
       defaultCorrection: shop.defaultCorrection,
+      currency: shop.currency.toUpperCase(),
+      depositMode: shop.depositMode,
+      depositPercent: shop.depositPercent,
+      depositFixedCents: shop.depositFixedCents,
     },
   });
+  const depositMode = form.watch('depositMode');
   const { errors, isDirty, isSubmitted } = form.formState;
   // After a submit, every field problem is also summed up in the form's alert, so it is announced.
   const fieldProblems = fieldProblemsSummary(isSubmitted, errors);
@@ -120,6 +130,24 @@ function ShopForm({ shop }: { shop: ShopDto }) {
             error={errors.defaultCorrection}
             {...form.register('defaultCorrection')}
           />
+        </div>
+      </Card>
+      <Card title="Build plan deposits" description="Asked when a customer accepts a build plan, paid online through the payment service. Amounts are kept in whole cents.">
+        <div className="space-y-4">
+          <TextField label="Currency" hint="Three-letter code, e.g. USD, EUR, GBP." maxLength={3} error={errors.currency} {...form.register('currency')} />
+          <SelectField label="Deposit" options={DEPOSIT_OPTIONS} error={errors.depositMode} {...form.register('depositMode')} />
+          {depositMode === 'percent' && <NumberField label="Deposit percentage" unit="%" min={0} max={100} step={1} error={errors.depositPercent} {...form.register('depositPercent')} />}
+          {depositMode === 'fixed' && (
+            <NumberField
+              label="Fixed deposit"
+              unit="cents"
+              hint="In cents: 25000 is 250.00. Never more than the plan's total."
+              min={0}
+              step={1}
+              error={errors.depositFixedCents}
+              {...form.register('depositFixedCents')}
+            />
+          )}
         </div>
       </Card>
       <div className="flex items-center justify-end gap-3 lg:col-span-2">

@@ -1,0 +1,84 @@
+/**
+ * A build plan end to end in the browser: staff draft it on the bike page and send it; the
+ * customer opens the e-mailed link, accepts with a typed name and pays the deposit on the local
+ * payment service's checkout page ("Pay"); the provider's signed webhook marks it paid, and the
+ * staff page shows the deposit.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import Stripe from 'stripe';
+import { startBrowserHarness, visible, type BrowserHarness } from '../support/browser';
+import { latestMailTo } from '../support/mail';
+import type { TestShop } from '../support/test-app';
+
+let h: BrowserHarness;
+let shop: TestShop;
+let stripe: Stripe;
+let endpointId = '';
+
+beforeAll(async () => {
+  h = await startBrowserHarness();
+  shop = await h.t.createShop('Kiln Lane Motors');
+  const owner = await h.t.signIn(shop.users.owner);
+  const res = await owner.put('/api/shop').send({ name: 'Kiln Lane Motors', units: 'imperial', paperSize: 'letter', defaultCorrection: 'sae-j1349', depositMode: 'percent', depositPercent: 20 });
+  if (res.status !== 200) throw new Error(`shop settings: ${res.status} ${JSON.stringify(res.body)}`);
+  // The app on its port is this test's webhook endpoint at the payment service, as a deployment registers one.
+  const url = new URL(process.env.PAYMENTS_API_URL!);
+  stripe = new Stripe(process.env.PAYMENTS_SECRET_KEY!, { host: url.hostname, port: Number(url.port), protocol: 'http', maxNetworkRetries: 0 });
+  endpointId = (await stripe.webhookEndpoints.create({ url: `${h.baseUrl}/api/payments/webhook`, enabled_events: ['checkout.session.completed'] })).id;
+}, 120_000);
+
+afterAll(async () => {
+  if (endpointId) await stripe.webhookEndpoints.del(endpointId).catch(() => undefined);
+  await h?.close();
+});
+
+describe('build plan', () => {
+  it('is drafted and sent by staff, accepted and paid by the customer, and the deposit shows on the staff page', async () => {
+    const staff = await h.signInPage(shop.users.desk.email);
+    await staff.goto(`${h.baseUrl}/bikes/${shop.bike.id}`);
+    await visible(staff, 'Build plans');
+    await staff.getByRole('button', { name: 'New plan' }).click();
+    const dialog = staff.getByRole('dialog');
+    await dialog.getByLabel('Title').fill('Slip-ons and tune');
+    const item = dialog.getByRole('group', { name: 'Item 1' });
+    await item.getByLabel('Description').fill('Slip-on mufflers and a dyno tune');
+    await item.getByLabel('Parts').fill('900');
+    await item.getByLabel('Labour').fill('350.50');
+    await dialog.getByRole('button', { name: 'Draft plan' }).click();
+    await staff.waitForURL(/\/plans\/[0-9a-f-]{36}$/);
+    const planUrl = staff.url();
+    await visible(staff, '$1,250.50');
+    await staff.getByRole('button', { name: 'Send to the customer' }).click();
+    await visible(staff, 'Sent, awaiting answer');
+    await h.screenshot(staff, 'plan-staff-sent');
+
+    const mail = await latestMailTo(shop.customer.email!, 10_000);
+    expect(mail.attachments.map((a) => a.contentType)).toContain('application/pdf');
+    const link = /https?:\/\/\S+\/plan\/[A-Za-z0-9_-]{43}/.exec(mail.text)?.[0];
+    expect(link).toBeTruthy();
+
+    const { page: customer } = await h.newPage();
+    await customer.goto(link!);
+    await visible(customer, 'Slip-ons and tune');
+    await visible(customer, /not a promise/);
+    await customer.getByLabel('Type your full name to accept').fill('Sam Ridgeway');
+    await customer.getByRole('button', { name: 'Accept the plan' }).click();
+    await visible(customer, 'Thank you, Sam Ridgeway.');
+    await customer.getByRole('button', { name: 'Pay the deposit' }).click();
+    await customer.waitForURL(/\/checkout\/cs_test_/);
+    await visible(customer, '$250.10'); // 20 % of $1,250.50 = $250.10
+    await h.screenshot(customer, 'plan-checkout');
+    await customer.getByRole('button', { name: 'Pay' }).click();
+    await customer.waitForURL(/\/plan\/[A-Za-z0-9_-]{43}\?deposit=paid/);
+    await visible(customer, 'Deposit paid: $250.10');
+    await h.screenshot(customer, 'plan-customer-paid');
+
+    await staff.goto(planUrl);
+    await visible(staff, 'Accepted');
+    await visible(staff, /\$250\.10 asked · \$250\.10 paid/);
+    await visible(staff, /by Sam Ridgeway/);
+    await h.screenshot(staff, 'plan-staff-deposit');
+    await staff.goto(`${h.baseUrl}/bikes/${shop.bike.id}`);
+    await visible(staff, /deposit \$250\.10 of \$250\.10 paid/);
+  }, 180_000);
+});
