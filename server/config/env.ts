@@ -51,6 +51,14 @@ const envSchema = z.object({
   UPLOAD_MAX_FILES: z.coerce.number().int().positive().default(40),
   /** Folder for uploaded files while a request is handled (created on demand, emptied after each request). */
   UPLOAD_TMP_DIR: z.string().min(1).default(path.join(os.tmpdir(), 'pullbook-uploads')),
+  /** How often an idle mail worker looks for work, in seconds (pg-boss polling; 0.5 or more). */
+  MAIL_POLL_SECONDS: z.coerce.number().min(0.5).max(60).default(2),
+  /** How often each instance looks for queued mail whose job was lost, in seconds. */
+  MAIL_SWEEP_SECONDS: z.coerce.number().min(1).max(3600).default(30),
+  /** Retries of a message after its first try before it is marked failed. */
+  MAIL_RETRY_LIMIT: z.coerce.number().int().min(0).max(20).default(8),
+  /** Wait before the first retry, in seconds; each later wait doubles. */
+  MAIL_RETRY_DELAY_SECONDS: z.coerce.number().int().min(1).max(3600).default(15),
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
 });
 

@@ -3,7 +3,6 @@ import { createHash, randomBytes } from 'node:crypto';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { AppError } from '../../lib/errors';
 import { hitRateLimit, resetRateLimit } from '../../lib/rate-limit';
-import type { Mailer } from '../../lib/mail/mailer';
 import type { Actor } from '../../http/actor';
 import { AuthToken, User, type AuthTokenPurpose } from '../users/user.entity';
 import { judgePassword } from '@shared/password-policy';
@@ -125,18 +124,11 @@ export async function changePassword(em: EntityManager, actor: Actor, current: s
   await endOtherSessions(em, user.id, currentSid);
 }
 
-/** Send a reset link if the account exists; says nothing either way (no account discovery). */
-export async function requestPasswordReset(em: EntityManager, mailer: Mailer, publicUrl: string, email: string, ip: string) {
+/**
+ * The rate limits of a reset request, per client address and per address asked for (the same
+ * for known and unknown accounts); the look-up itself is queued (account-mail.ts).
+ */
+export async function limitResetRequests(em: EntityManager, email: string, ip: string) {
   await hitRateLimit(em, `reset:ip:${ip}`, { limit: 20, windowSeconds: 3600 }, 'Too many reset requests; try again later');
-  await hitRateLimit(em, `reset:account:${email}`, { limit: 5, windowSeconds: 3600 }, 'Too many reset requests; try again later');
-  const user = await em.findOne(User, { email, disabled: false });
-  if (!user) return;
-  const token = await issueToken(em, user, 'reset');
-  const link = `${publicUrl.replace(/\/$/, '')}/reset-password/${token}`;
-  await mailer.send({
-    shopId: user.shop.id,
-    to: user.email,
-    subject: 'Reset your Pullbook password',
-    text: `Hello ${user.name},\n\nSomeone (hopefully you) asked to reset your Pullbook password. Open this link within an hour to choose a new one:\n\n${link}\n\nIf you did not ask, ignore this message; your password stays as it is.\n`,
-  });
+  await hitRateLimit(em, `reset:account:${email.trim().toLowerCase()}`, { limit: 5, windowSeconds: 3600 }, 'Too many reset requests; try again later');
 }
