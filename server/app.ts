@@ -12,6 +12,14 @@ import type { RegisteredRoute } from './http/api-router';
 import { AppError } from './lib/errors';
 import { httpLogger } from './lib/logger';
 
+/** TRUST_PROXY as Express takes it: false/true, a hop count, or addresses and subnets. */
+export function trustProxySetting(value: string): boolean | number | string {
+  if (value === 'false' || value === '') return false;
+  if (value === 'true') return true;
+  if (/^\d+$/.test(value)) return Number(value);
+  return value;
+}
+
 export interface CreatedApp {
   app: express.Express;
   /** Every API route with its access rule (the route × role test reads this). */
@@ -27,6 +35,7 @@ export function createApp(deps: AppDeps, opts: { clientDir?: string } = {}): Cre
   const app = express();
   app.disable('x-powered-by');
   app.set('query parser', 'extended');
+  app.set('trust proxy', trustProxySetting(deps.config.TRUST_PROXY));
 
   // One JSON line per request (request id, user, shop, status, time); the id is answered in X-Request-Id.
   app.use(httpLogger());

@@ -59,6 +59,12 @@ const envSchema = z.object({
   MAIL_RETRY_LIMIT: z.coerce.number().int().min(0).max(20).default(8),
   /** Wait before the first retry, in seconds; each later wait doubles. */
   MAIL_RETRY_DELAY_SECONDS: z.coerce.number().int().min(1).max(3600).default(15),
+  /**
+   * Express "trust proxy": which proxies' X-Forwarded-For to believe for the client address (sign-in
+   * throttling, rate limits, logs). "false" (default) when the app is reached directly; behind a
+   * load balancer e.g. "loopback", a subnet like "10.0.0.0/8", or a hop count like "1".
+   */
+  TRUST_PROXY: z.string().default('false'),
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
 });
 
