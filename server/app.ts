@@ -11,6 +11,7 @@ import { allRouters } from './modules';
 import type { RegisteredRoute } from './http/api-router';
 import { AppError } from './lib/errors';
 import { httpLogger } from './lib/logger';
+import { framableBySelf, securityHeaders } from './middleware/security-headers';
 
 /** TRUST_PROXY as Express takes it: false/true, a hop count, or addresses and subnets. */
 export function trustProxySetting(value: string): boolean | number | string {
@@ -41,10 +42,12 @@ export function createApp(deps: AppDeps, opts: { clientDir?: string } = {}): Cre
   app.use(httpLogger());
   // Text answers (JSON, HTML, JS, CSS) go compressed to clients that accept it.
   app.use(compression());
+  // CSP, frame-ancestors 'none', Permissions-Policy, nosniff, HSTS on https (middleware/security-headers.ts).
+  app.use(securityHeaders({ publicUrl: deps.config.PUBLIC_URL, devServer: deps.config.NODE_ENV === 'development' && !opts.clientDir }));
+  const framedPdf = /^\/api\/(?:reports|share)\/[^/]+\/pdf$/;
+  app.use((req, res, next) => (framedPdf.test(req.path) ? framableBySelf(req, res, next) : next()));
   app.use((req, res, next) => {
     res.locals.requestId = String(req.id);
-    res.set('X-Content-Type-Options', 'nosniff');
-    res.set('Referrer-Policy', 'same-origin');
     next();
   });
   // Sign-in and account bodies are a few fields: a small cap keeps a large (deeply nested) body
