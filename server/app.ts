@@ -12,6 +12,7 @@ import type { RegisteredRoute } from './http/api-router';
 import { AppError } from './lib/errors';
 import { httpLogger } from './lib/logger';
 import { framableBySelf, securityHeaders } from './middleware/security-headers';
+import { contentEncodingGuard } from './middleware/content-encoding';
 
 /** TRUST_PROXY as Express takes it: false/true, a hop count, or addresses and subnets. */
 export function trustProxySetting(value: string): boolean | number | string {
@@ -52,6 +53,7 @@ export function createApp(deps: AppDeps, opts: { clientDir?: string } = {}): Cre
   });
   // Sign-in and account bodies are a few fields: a small cap keeps a large (deeply nested) body
   // from costing the event loop a parse before any check. The 2 MB parser skips bodies parsed here.
+  app.use('/api', contentEncodingGuard);
   app.use('/api/auth', express.json({ limit: '16kb' }));
   app.use('/api', express.json({ limit: '2mb' }));
   app.use('/api', sameOriginOnly(deps.config.PUBLIC_URL));

@@ -52,6 +52,12 @@ export const API_ERROR_CODES = [
   'REPORT_VERSION_EXISTS',
   'MAIL_FAILED',
   'OUTBOX_DISABLED',
+  // malformed requests (hardening)
+  'UNSUPPORTED_ENCODING',
+  'BAD_ENCODING',
+  'MALFORMED_MULTIPART',
+  'INVALID_VALUE',
+  'BAD_REQUEST',
 ] as const;
 
 /** A code the API may answer with: its own, or the run-file reader's. */
