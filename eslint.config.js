@@ -49,6 +49,13 @@ export default tseslint.config(
     },
   },
   {
+    // Server code logs through server/lib/logger.ts (pino: JSON lines, secrets redacted). The
+    // command-line tools in server/cli print their results for a person at a terminal.
+    files: ['server/**/*.{ts,tsx}'],
+    ignores: ['server/cli/**'],
+    rules: { 'no-console': 'error' },
+  },
+  {
     // Features use shared code, never each other's internals, and never the server.
     files: ['src/features/**/*.{ts,tsx}'],
     rules: {

@@ -14,6 +14,16 @@ import { httpLogger } from './lib/logger';
 import { deviceBearerGate } from './modules/device/device-auth';
 import { closeLiveFeed } from './lib/live/live-feed';
 import { PAYMENT_WEBHOOK_PATH } from './modules/plans/plan.routes';
+import { framableBySelf, securityHeaders } from './middleware/security-headers';
+import { contentEncodingGuard } from './middleware/content-encoding';
+
+/** TRUST_PROXY as Express takes it: false/true, a hop count, or addresses and subnets. */
+export function trustProxySetting(value: string): boolean | number | string {
+  if (value === 'false' || value === '') return false;
+  if (value === 'true') return true;
+  if (/^\d+$/.test(value)) return Number(value);
+  return value;
+}
 
 export interface CreatedApp {
   app: express.Express;
@@ -30,21 +40,25 @@ export function createApp(deps: AppDeps, opts: { clientDir?: string } = {}): Cre
   const app = express();
   app.disable('x-powered-by');
   app.set('query parser', 'extended');
+  app.set('trust proxy', trustProxySetting(deps.config.TRUST_PROXY));
 
   // One JSON line per request (request id, user, shop, status, time); the id is answered in X-Request-Id.
   app.use(httpLogger());
   // Text answers (JSON, HTML, JS, CSS) go compressed to clients that accept it.
   app.use(compression());
+  // CSP, frame-ancestors 'none', Permissions-Policy, nosniff, HSTS on https (middleware/security-headers.ts).
+  app.use(securityHeaders({ publicUrl: deps.config.PUBLIC_URL, devServer: deps.config.NODE_ENV === 'development' && !opts.clientDir }));
+  const framedPdf = /^\/api\/(?:reports|share)\/[^/]+\/pdf$/;
+  app.use((req, res, next) => (framedPdf.test(req.path) ? framableBySelf(req, res, next) : next()));
   app.use((req, res, next) => {
     res.locals.requestId = String(req.id);
-    res.set('X-Content-Type-Options', 'nosniff');
-    res.set('Referrer-Policy', 'same-origin');
     next();
   });
-  // Sign-in and account bodies are a few fields: a small cap keeps a large (deeply nested) body
-  // from costing the event loop a parse before any check. The 2 MB parser skips bodies parsed here.
+  app.use('/api', contentEncodingGuard);
   // The payment webhook's signature covers the exact bytes: its body stays raw (the JSON parsers skip a parsed body).
   app.use(PAYMENT_WEBHOOK_PATH, express.raw({ type: '*/*', limit: '1mb' }));
+  // Sign-in and account bodies are a few fields: a small cap keeps a large (deeply nested) body
+  // from costing the event loop a parse before any check. The 2 MB parser skips bodies parsed here.
   app.use('/api/auth', express.json({ limit: '16kb' }));
   app.use('/api', express.json({ limit: '2mb' }));
   app.use('/api', sameOriginOnly(deps.config.PUBLIC_URL));

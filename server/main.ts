@@ -5,6 +5,8 @@ import { initOrm, migrateToLatest } from './db/orm';
 import { createS3ObjectStore } from './lib/storage/object-store';
 import { createSmtpMailer } from './lib/mail/mailer';
 import { createOutbox } from './lib/mail/outbox';
+import { MailQueue } from './lib/mail/mail-queue';
+import { accountMailWorker } from './modules/auth/account-mail';
 import { createApp } from './app';
 import { runStartupTasks } from './startup';
 import { STARTUP_TASKS } from './startup-tasks';
@@ -23,13 +25,25 @@ export async function buildDeps(config: AppConfig, opts: { poolMax?: number } = 
     secretAccessKey: config.S3_SECRET_ACCESS_KEY,
     forcePathStyle: config.S3_FORCE_PATH_STYLE,
   });
-  return {
-    config,
+  const mailer = createSmtpMailer(config.SMTP_URL, config.MAIL_FROM);
+  const smtp = new URL(config.SMTP_URL);
+  const mail = new MailQueue({
     orm,
     storage,
-    mailer: createSmtpMailer(config.SMTP_URL, config.MAIL_FROM),
-    outbox: createOutbox(config.MAIL_CAPTURE_DIR),
-  };
+    mailer,
+    connectionString: config.DATABASE_URL,
+    logger,
+    relayNames: [smtp.hostname, decodeURIComponent(smtp.username)].filter(Boolean),
+    pollingIntervalSeconds: config.MAIL_POLL_SECONDS,
+    sweepSeconds: config.MAIL_SWEEP_SECONDS,
+    retry: { mail: { retryLimit: config.MAIL_RETRY_LIMIT, retryDelay: config.MAIL_RETRY_DELAY_SECONDS } },
+  });
+  return { config, orm, storage, mailer, outbox: createOutbox(config.MAIL_CAPTURE_DIR), mail };
+}
+
+/** Starts this instance's background workers: mail, and the account look-ups that end in mail. */
+export async function startWorkers(deps: AppDeps): Promise<void> {
+  await deps.mail.start([accountMailWorker(deps)]);
 }
 
 export interface RunningServer {
@@ -46,6 +60,7 @@ export async function startServer(config: AppConfig, opts: { clientDir?: string;
     if (applied.length) logger.info({ migrations: applied }, 'applied migrations');
   }
   await runStartupTasks(deps, STARTUP_TASKS);
+  await startWorkers(deps);
   const created = createApp(deps, { clientDir: opts.clientDir });
   if (opts.beforeListen) await opts.beforeListen(deps, created.app);
   const server = http.createServer(created.app);
@@ -60,6 +75,7 @@ export async function startServer(config: AppConfig, opts: { clientDir?: string;
       await new Promise<void>((resolve) => server.close(() => resolve()));
       server.closeAllConnections();
       await created.close();
+      await deps.mail.stop();
       await deps.orm.close();
     },
   };

@@ -60,6 +60,20 @@ const envSchema = z.object({
   PAYMENTS_WEBHOOK_SECRET: z.string().min(1).optional(),
   /** Where the SDK connects, e.g. the local fake http://127.0.0.1:45690; unset for the real provider. */
   PAYMENTS_API_URL: z.string().url().optional(),
+  /** How often an idle mail worker looks for work, in seconds (pg-boss polling; 0.5 or more). */
+  MAIL_POLL_SECONDS: z.coerce.number().min(0.5).max(60).default(2),
+  /** How often each instance looks for queued mail whose job was lost, in seconds. */
+  MAIL_SWEEP_SECONDS: z.coerce.number().min(1).max(3600).default(30),
+  /** Retries of a message after its first try before it is marked failed. */
+  MAIL_RETRY_LIMIT: z.coerce.number().int().min(0).max(20).default(8),
+  /** Wait before the first retry, in seconds; each later wait doubles. */
+  MAIL_RETRY_DELAY_SECONDS: z.coerce.number().int().min(1).max(3600).default(15),
+  /**
+   * Express "trust proxy": which proxies' X-Forwarded-For to believe for the client address (sign-in
+   * throttling, rate limits, logs). "false" (default) when the app is reached directly; behind a
+   * load balancer e.g. "loopback", a subnet like "10.0.0.0/8", or a hop count like "1".
+   */
+  TRUST_PROXY: z.string().default('false'),
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
 });
 

@@ -3,6 +3,7 @@ import type express from 'express';
 import multer from 'multer';
 import type { AppConfig } from '../config/env';
 import { logger } from '../lib/logger';
+import { fitContentType, fitFileName } from '../lib/upload-names';
 
 const mb = (bytes: number) => (bytes >= 1024 * 1024 ? `${(bytes / (1024 * 1024)).toFixed(bytes % (1024 * 1024) ? 1 : 0)} MB` : bytes >= 1024 ? `${Math.round(bytes / 1024)} KB` : `${bytes} bytes`);
 
@@ -42,7 +43,16 @@ export function runFilesUpload(config: Pick<AppConfig, 'UPLOAD_MAX_FILE_BYTES' |
     res.once('close', () => {
       void removeUploadedFiles(req);
     });
-    upload(req, res, next);
+    upload(req, res, (err?: unknown) => {
+      // Names and types longer than the archive keeps are shortened and kept (lib/upload-names.ts).
+      if (!err) {
+        for (const f of uploadedFiles(req)) {
+          if (typeof f.originalname === 'string') f.originalname = fitFileName(f.originalname);
+          if (typeof f.mimetype === 'string') f.mimetype = fitContentType(f.mimetype) ?? '';
+        }
+      }
+      next(err);
+    });
   };
 }
 

@@ -120,6 +120,8 @@ export const outboxKeys = {
   all: () => ['outbox'] as const,
   list: () => [...outboxKeys.all(), 'list'] as const,
   message: (id: string) => [...outboxKeys.all(), 'message', id] as const,
+  /** The send log (queued, sent, failed), whatever relay sends the mail. */
+  log: () => [...outboxKeys.all(), 'log'] as const,
 };
 
 export const dynoKeys = {

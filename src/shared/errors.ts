@@ -63,6 +63,12 @@ export const API_ERROR_CODES = [
   'DEPOSIT_NOT_DUE',
   'PAYMENTS_UNAVAILABLE',
   'WEBHOOK_INVALID',
+  // malformed requests (hardening)
+  'UNSUPPORTED_ENCODING',
+  'BAD_ENCODING',
+  'MALFORMED_MULTIPART',
+  'INVALID_VALUE',
+  'BAD_REQUEST',
 ] as const;
 
 /** A code the API may answer with: its own, or the run-file reader's. */

@@ -7,7 +7,7 @@ import pg from 'pg';
 import supertest from 'supertest';
 import type { Role } from '@shared/roles';
 import { loadConfig } from '@server/config/env';
-import { buildDeps } from '@server/main';
+import { buildDeps, startWorkers } from '@server/main';
 import { createApp, type CreatedApp } from '@server/app';
 import type { AppDeps } from '@server/app-deps';
 import { hashPassword } from '@server/modules/auth/auth.service';
@@ -49,7 +49,7 @@ let passwordHash: Promise<string> | undefined;
  * `databaseUrl`: run on that (already migrated) database instead of a clone of the template; it
  * is left in place on close.
  */
-export async function createTestApp(opts: { clientDir?: string; env?: Record<string, string>; databaseUrl?: string } = {}): Promise<TestApp> {
+export async function createTestApp(opts: { clientDir?: string; env?: Record<string, string>; databaseUrl?: string; workers?: boolean } = {}): Promise<TestApp> {
   const templateUrl = requireEnv('TEST_DATABASE_TEMPLATE_URL');
   const dbName = `pbt_${randomBytes(6).toString('hex')}`;
   if (!opts.databaseUrl) {
@@ -59,8 +59,10 @@ export async function createTestApp(opts: { clientDir?: string; env?: Record<str
     await admin.end();
   }
 
-  const config = loadConfig({ ...process.env, DATABASE_URL: opts.databaseUrl ?? templateUrl.replace(/\/[^/]+$/, `/${dbName}`), PUBLIC_URL: 'http://127.0.0.1:3999', ...opts.env });
+  const config = loadConfig({ ...process.env, DATABASE_URL: opts.databaseUrl ?? templateUrl.replace(/\/[^/]+$/, `/${dbName}`), PUBLIC_URL: 'http://127.0.0.1:3999', MAIL_POLL_SECONDS: '0.5', MAIL_RETRY_DELAY_SECONDS: '1', MAIL_RETRY_LIMIT: '3', ...opts.env });
   const deps = await buildDeps(config, { poolMax: 5 });
+  // The mail worker (and the account look-ups that queue mail), as a started server runs them.
+  if (opts.workers !== false) await startWorkers(deps);
   const created = createApp(deps, { clientDir: opts.clientDir });
   passwordHash ??= hashPassword(TEST_PASSWORD, 10);
 
@@ -93,6 +95,7 @@ export async function createTestApp(opts: { clientDir?: string; env?: Record<str
     },
     async close() {
       await created.close();
+      await deps.mail.stop();
       await deps.orm.close();
       if (opts.databaseUrl) return;
       const c = new pg.Client({ connectionString: templateUrl.replace(/\/[^/]+$/, '/postgres') });

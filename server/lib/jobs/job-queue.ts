@@ -11,6 +11,11 @@ import type { Logger } from 'pino';
 export const QUEUES = {
   /** One e-mail; the handler checks the send log first, so a retried job never sends twice. */
   mail: { name: 'mail-send', retryLimit: 8, retryDelay: 15, retryBackoff: true, expireInSeconds: 120 },
+  /**
+   * Account look-ups whose answer must not depend on whether the account exists (a password
+   * reset request): the route only queues the job, the job finds the account and queues its mail.
+   */
+  accountMail: { name: 'account-mail', retryLimit: 5, retryDelay: 5, retryBackoff: true, expireInSeconds: 60 },
 } as const satisfies Record<string, PgBoss.Queue>;
 
 export type QueueName = keyof typeof QUEUES;
@@ -19,6 +24,8 @@ export interface JobInfo {
   id: string;
   /** 0 on the first try. */
   retryCount: number;
+  /** Retries allowed after the first try; the try with retryCount === retryLimit is the last. */
+  retryLimit: number;
 }
 
 export interface JobQueueOptions {
@@ -60,7 +67,7 @@ export class JobQueue {
   /** Runs `handler` for each job of the queue; a throw marks the try failed and schedules a retry. */
   async work<T extends object>(queue: QueueName, handler: (data: T, job: JobInfo) => Promise<void>): Promise<string> {
     return this.boss.work<T>(QUEUES[queue].name, { batchSize: 1, pollingIntervalSeconds: this.opts.pollingIntervalSeconds ?? 2, includeMetadata: true }, async ([job]) => {
-      await handler(job.data, { id: job.id, retryCount: job.retryCount });
+      await handler(job.data, { id: job.id, retryCount: job.retryCount, retryLimit: job.retryLimit });
     });
   }
 

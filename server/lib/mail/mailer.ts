@@ -14,6 +14,12 @@ export interface OutgoingMail {
   text: string;
   html?: string;
   attachments?: MailAttachment[];
+  /**
+   * The Message-ID header, stable across retries of one queued message (mail-queue.ts), so a
+   * receiving system can drop a copy sent again after a crash between the relay's acceptance and
+   * the send log's update.
+   */
+  messageId?: string;
 }
 
 /** Header naming the shop a message belongs to (read back by the local outbox). */
@@ -34,6 +40,10 @@ export function createSmtpMailer(smtpUrl: string, from: string): Mailer {
     auth: url.username ? { user: decodeURIComponent(url.username), pass: decodeURIComponent(url.password) } : undefined,
     // Plain SMTP to a loopback fake; a real relay on 587 still upgrades with STARTTLS when offered.
     ignoreTLS: url.hostname === '127.0.0.1' || url.hostname === 'localhost',
+    // A relay that hangs must not hold a send (or a request waiting for one) for minutes.
+    connectionTimeout: 10_000,
+    greetingTimeout: 10_000,
+    socketTimeout: 30_000,
   });
   return {
     async send({ shopId, ...mail }) {

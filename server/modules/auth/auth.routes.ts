@@ -6,7 +6,8 @@ import type { AppDeps } from '../../app-deps';
 import { AppError } from '../../lib/errors';
 import { changePasswordInput, forgotPasswordInput, loginInput, setPasswordInput, type ForgotPasswordDto, type SignedInUser, type SignInDto, type TokenInfoDto } from '@shared/schemas/auth';
 import type { OkDto } from '@shared/schemas/common';
-import { changePassword, consumeToken, peekToken, requestPasswordReset, toActor } from './auth.service';
+import { changePassword, consumeToken, limitResetRequests, peekToken, toActor } from './auth.service';
+import { queueResetRequest } from './account-mail';
 import type { Actor } from '../../http/actor';
 import type { User } from '../users/user.entity';
 import { z } from 'zod';
@@ -91,7 +92,9 @@ export function authRoutes(deps: AppDeps) {
     body: forgotPasswordInput,
     status: 202,
     handler: async ({ em, body, req }): Promise<ForgotPasswordDto> => {
-      await requestPasswordReset(em, deps.mailer, deps.config.PUBLIC_URL, body.email, req.ip ?? 'unknown');
+      const startedAt = Date.now();
+      await limitResetRequests(em, body.email, req.ip ?? 'unknown');
+      await queueResetRequest(deps, em, body.email, startedAt);
       return { ok: true, message: 'If that address has an account, a reset link is on its way.' };
     },
   });

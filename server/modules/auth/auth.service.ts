@@ -3,16 +3,11 @@ import { createHash, randomBytes } from 'node:crypto';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { AppError } from '../../lib/errors';
 import { hitRateLimit, resetRateLimit } from '../../lib/rate-limit';
-import type { Mailer } from '../../lib/mail/mailer';
+import { beginSignInAttempt, signInSucceeded } from '../../lib/login-throttle';
 import type { Actor } from '../../http/actor';
 import { AuthToken, User, type AuthTokenPurpose } from '../users/user.entity';
 import { judgePassword } from '@shared/password-policy';
 
-/** Attempts allowed per account and per client address in 15 minutes. */
-export const LOGIN_LIMITS = {
-  perAccount: { limit: 10, windowSeconds: 15 * 60 },
-  perIp: { limit: 50, windowSeconds: 15 * 60 },
-};
 /** Wrong current passwords allowed on the change form per user in 15 minutes (our own limit, like sign-in's). */
 export const CHANGE_PASSWORD_LIMIT = { limit: 5, windowSeconds: 15 * 60 };
 const TOKEN_LIFETIME_MS: Record<AuthTokenPurpose, number> = {
@@ -41,18 +36,17 @@ export async function hashPassword(password: string, rounds: number) {
 const DUMMY_HASH = bcrypt.hashSync('not-a-real-password', 10);
 
 /**
- * Check an e-mail and password. Rate-limited per account and per address before any hashing,
- * so guessing is slow whichever is targeted. Returns null on bad credentials.
+ * Check an e-mail and password. Throttled (lib/login-throttle.ts) before any hashing: per account
+ * and address, per account from unknown addresses, and per address; a right password takes its
+ * attempt back. Returns null on bad credentials.
  */
 export async function verifyCredentials(em: EntityManager, email: string, password: string, ip: string): Promise<User | null> {
   const normalized = email.trim().toLowerCase();
-  const message = 'Too many sign-in attempts; wait a few minutes and try again';
-  await hitRateLimit(em, `login:ip:${ip}`, LOGIN_LIMITS.perIp, message);
-  await hitRateLimit(em, `login:account:${normalized}`, LOGIN_LIMITS.perAccount, message);
+  await beginSignInAttempt(em, normalized, ip);
   const user = await em.findOne(User, { email: normalized });
   const ok = await bcrypt.compare(password, user?.passwordHash ?? DUMMY_HASH);
   if (!user || !user.passwordHash || !ok || user.disabled) return null;
-  await resetRateLimit(em, `login:account:${normalized}`);
+  await signInSucceeded(em, normalized, ip);
   user.lastLoginAt = new Date();
   await em.flush();
   return user;
@@ -125,18 +119,11 @@ export async function changePassword(em: EntityManager, actor: Actor, current: s
   await endOtherSessions(em, user.id, currentSid);
 }
 
-/** Send a reset link if the account exists; says nothing either way (no account discovery). */
-export async function requestPasswordReset(em: EntityManager, mailer: Mailer, publicUrl: string, email: string, ip: string) {
+/**
+ * The rate limits of a reset request, per client address and per address asked for (the same
+ * for known and unknown accounts); the look-up itself is queued (account-mail.ts).
+ */
+export async function limitResetRequests(em: EntityManager, email: string, ip: string) {
   await hitRateLimit(em, `reset:ip:${ip}`, { limit: 20, windowSeconds: 3600 }, 'Too many reset requests; try again later');
-  await hitRateLimit(em, `reset:account:${email}`, { limit: 5, windowSeconds: 3600 }, 'Too many reset requests; try again later');
-  const user = await em.findOne(User, { email, disabled: false });
-  if (!user) return;
-  const token = await issueToken(em, user, 'reset');
-  const link = `${publicUrl.replace(/\/$/, '')}/reset-password/${token}`;
-  await mailer.send({
-    shopId: user.shop.id,
-    to: user.email,
-    subject: 'Reset your Pullbook password',
-    text: `Hello ${user.name},\n\nSomeone (hopefully you) asked to reset your Pullbook password. Open this link within an hour to choose a new one:\n\n${link}\n\nIf you did not ask, ignore this message; your password stays as it is.\n`,
-  });
+  await hitRateLimit(em, `reset:account:${email.trim().toLowerCase()}`, { limit: 5, windowSeconds: 3600 }, 'Too many reset requests; try again later');
 }

@@ -3,7 +3,8 @@ import { ApiRouter } from '../../http/api-router';
 import type { AppDeps } from '../../app-deps';
 import { AppError } from '../../lib/errors';
 import { wholePage } from '@shared/schemas/common';
-import type { CapturedMessageDetail, OutboxPage } from '@shared/schemas/outbox';
+import type { CapturedMessageDetail, MailLogEntry, OutboxPage } from '@shared/schemas/outbox';
+import type { Page, OkDto } from '@shared/schemas/common';
 
 const messageParams = z.object({ id: z.string().regex(/^[\w.-]+\.eml$/, 'Not a message id') });
 
@@ -16,6 +17,24 @@ export function outboxRoutes(deps: AppDeps) {
     access: ['owner'],
     summary: 'Messages captured by the local mail fake',
     handler: async ({ actor }): Promise<OutboxPage> => ({ enabled: deps.outbox.enabled, ...wholePage(deps.outbox.enabled ? await deps.outbox.list(actor.shopId) : []) }),
+  });
+  api.route({
+    method: 'get',
+    path: '/log',
+    access: ['owner'],
+    summary: 'The send log: every message queued for the shop, queued, sent or failed',
+    handler: async ({ actor }): Promise<Page<MailLogEntry>> => wholePage(await deps.mail.list(actor.shopId)),
+  });
+  api.route({
+    method: 'post',
+    path: '/log/:id/retry',
+    access: ['owner'],
+    summary: 'Queue a failed message again, or try a queued one now',
+    params: z.object({ id: z.string().uuid() }),
+    handler: async ({ actor, params }): Promise<OkDto> => {
+      if (!(await deps.mail.retry(actor.shopId, params.id))) throw new AppError('NOT_FOUND', 'No message to retry: it was sent, or it is a report e-mail (send the report again)', 404);
+      return { ok: true };
+    },
   });
   api.route({
     method: 'get',

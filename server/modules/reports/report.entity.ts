@@ -20,7 +20,7 @@ export class Report extends ShopOwnedEntity {
   createdBy: User | null = null;
 }
 
-export type DeliveryStatus = 'sent' | 'failed';
+export type DeliveryStatus = 'queued' | 'sent' | 'failed';
 
 /** One attempt to e-mail a report. */
 export class ReportDelivery extends ShopOwnedEntity {

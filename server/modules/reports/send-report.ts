@@ -9,7 +9,9 @@ import { User } from '../users/user.entity';
 import { recordAudit } from '../audit/audit.service';
 import { Report, ReportDelivery } from './report.entity';
 import type { ReportData } from './report-data';
-import { bikeLabel, findReport, pdfFileName, sha256 } from './report-access';
+import { bikeLabel, findReport, pdfFileName } from './report-access';
+import { enqueueMail } from '../../lib/mail/mail-queue';
+import { clip, fitSubject } from '../../lib/mail/mail-text';
 import { createShareLink } from './share-links';
 
 const toDeliveryDto = (d: ReportDelivery): Delivery => ({
@@ -30,42 +32,51 @@ export function defaultMessage(data: Pick<ReportData, 'customer' | 'bike' | 'sho
 }
 
 /**
- * Sends the report and logs the delivery, sent or failed (a failure is logged, then answered
- * MAIL_FAILED with the logged delivery). The log entry and its audit entry commit together.
+ * Sends the report: the delivery row, its share link, its audit entry and the queued mail commit
+ * together, then the mail is tried at once. Sent → 201; the relay refused it for good → the
+ * delivery is logged failed, the share link removed, and MAIL_FAILED answered; the relay is away →
+ * 202 with the delivery `queued`, and the mail queue keeps trying (the log follows).
  */
 export async function sendReport(deps: AppDeps, em: EntityManager, actor: Actor, reportId: string, input: SendInput): Promise<Delivery & { shareUrl: string }> {
   const report = await findReport(em, actor, reportId);
   const data = report.summary as unknown as ReportData;
-  const share = await createShareLink(deps, em, actor, report.id);
-  const subject = `Gain report ${report.number} for your ${bikeLabel(report.bike)} — ${data.shop.name}`;
-  const text = `${input.message.trim()}\n\nView online (link valid until ${share.expiresAt.slice(0, 10)}): ${share.url}\n\n— Dyno figures depend on the dyno, the correction standard and the conditions; compare like with like. The PDF explains the figures and the cautions that go with them.`;
-  let outcome: { status: 'sent'; messageId: string } | { status: 'failed'; error: string };
-  try {
-    const pdf = await deps.storage.getBuffer(report.pdfKey);
-    if (sha256(pdf) !== report.pdfSha256) throw new Error('the stored PDF does not match its recorded hash');
-    const { messageId } = await deps.mailer.send({ shopId: actor.shopId, to: input.to, subject, text, attachments: [{ filename: pdfFileName(report), content: pdf, contentType: 'application/pdf' }] });
-    outcome = { status: 'sent', messageId };
-  } catch (e) {
-    outcome = { status: 'failed', error: e instanceof Error ? e.message.slice(0, 2000) : String(e) };
-  }
-  const dto = await em.transactional(async (tx) => {
+  // A 100-character make and model must still give a subject within limits (mail-text.ts).
+  const subject = fitSubject(`Gain report ${report.number} for your ${clip(bikeLabel(report.bike), 70)} — ${clip(data.shop.name, 40)}`);
+  const { deliveryId, mailId, shareUrl } = await em.transactional(async (tx) => {
+    const share = await createShareLink(deps, tx, actor, report.id);
+    const text = `${input.message.trim()}\n\nView online (link valid until ${share.expiresAt.slice(0, 10)}): ${share.url}\n\n— Dyno figures depend on the dyno, the correction standard and the conditions; compare like with like. The PDF explains the figures and the cautions that go with them.`;
     const delivery = tx.create(ReportDelivery, {
       shop: tx.getReference(Shop, actor.shopId),
       report: tx.getReference(Report, report.id),
       to: input.to,
       subject,
       message: input.message,
-      status: outcome.status,
-      ...(outcome.status === 'sent' ? { messageId: outcome.messageId } : { error: outcome.error }),
+      status: 'queued',
       sentBy: tx.getReference(User, actor.id),
     } as ReportDelivery);
     await tx.flush();
-    await tx.populate(delivery, ['sentBy']);
-    await recordAudit(tx, actor, 'report.send', 'report', report.id, { to: input.to, status: delivery.status });
-    return toDeliveryDto(delivery);
+    const mail = await enqueueMail(
+      tx,
+      {
+        shopId: actor.shopId,
+        kind: 'report',
+        to: input.to,
+        subject,
+        text,
+        attachments: [{ filename: pdfFileName(report), contentType: 'application/pdf', storageKey: report.pdfKey, sha256: report.pdfSha256 }],
+        shareLinkId: share.id,
+        reportDeliveryId: delivery.id,
+      },
+      { dispatch: false },
+    );
+    await recordAudit(tx, actor, 'report.send', 'report', report.id, { to: input.to, status: 'queued' });
+    return { deliveryId: delivery.id, mailId: mail.id, shareUrl: share.url };
   });
-  if (dto.status === 'failed') throw new AppError('MAIL_FAILED', `The report could not be sent: ${dto.error}`, 502, { delivery: dto });
-  return { ...dto, shareUrl: share.url };
+  const outcome = await deps.mail.deliverNow(mailId);
+  const row = await em.fork().findOneOrFail(ReportDelivery, deliveryId, { populate: ['sentBy', 'report'] });
+  const dto = toDeliveryDto(row);
+  if (outcome === 'failed') throw new AppError('MAIL_FAILED', `The report could not be sent: ${dto.error ?? 'the relay refused it'}`, 502, { delivery: dto });
+  return { ...dto, shareUrl };
 }
 
 export async function listDeliveries(em: EntityManager, actor: Actor, reportId: string): Promise<Delivery[]> {

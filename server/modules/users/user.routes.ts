@@ -6,7 +6,7 @@ import { inviteUser, listUsers, resendInvite, updateUser } from './user.service'
 
 export function userRoutes(deps: AppDeps) {
   const api = new ApiRouter('/api/users', deps);
-  const { mailer, config } = deps;
+  const { config } = deps;
 
   api.route({ method: 'get', path: '/', access: ['owner'], summary: 'List the shop’s users', handler: ({ em, actor }) => listUsers(em, actor) });
   api.route({
@@ -16,7 +16,7 @@ export function userRoutes(deps: AppDeps) {
     summary: 'Invite a user by e-mail',
     body: inviteUserInput,
     status: 201,
-    handler: ({ em, actor, body }) => inviteUser(em, mailer, config.PUBLIC_URL, actor, body),
+    handler: ({ em, actor, body }) => inviteUser(em, config.PUBLIC_URL, actor, body),
   });
   api.route({
     method: 'patch',
@@ -34,7 +34,7 @@ export function userRoutes(deps: AppDeps) {
     summary: 'Send a fresh invitation link',
     params: idParams,
     handler: async ({ em, actor, params }): Promise<OkDto> => {
-      await resendInvite(em, mailer, config.PUBLIC_URL, actor, params.id);
+      await resendInvite(em, config.PUBLIC_URL, actor, params.id);
       return { ok: true };
     },
   });

@@ -3,7 +3,8 @@ import type { Actor } from '../../http/actor';
 import { AppError, conflict, notFound } from '../../lib/errors';
 import { tenantScope } from '../../http/tenant-scope';
 import { wholePage, type Page } from '@shared/schemas/common';
-import type { Mailer } from '../../lib/mail/mailer';
+import { randomUUID } from 'node:crypto';
+import { enqueueMail } from '../../lib/mail/mail-queue';
 import type { InviteUserInput, UserDto } from '@shared/schemas/auth';
 import type { Role } from '@shared/roles';
 import { AuthToken, User } from './user.entity';
@@ -32,11 +33,12 @@ export async function listUsers(em: EntityManager, actor: Actor): Promise<Page<U
   return wholePage(users.map(toUserDto));
 }
 
-/** Mails the invitation link; called after the token's transaction has committed. */
-async function sendInvite(mailer: Mailer, publicUrl: string, user: User, shopName: string, token: string) {
+/** Queues the invitation mail in the transaction `tx` that issued its token (sent once it commits). */
+async function queueInvite(tx: EntityManager, publicUrl: string, user: User, shopName: string, token: string) {
   const link = `${publicUrl.replace(/\/$/, '')}/invite/${token}`;
-  await mailer.send({
+  await enqueueMail(tx, {
     shopId: user.shop.id,
+    kind: 'invite',
     to: user.email,
     subject: `You're invited to ${shopName} on Pullbook`,
     text: `Hello ${user.name},\n\n${shopName} has given you a Pullbook account. Open this link within 7 days to choose your password:\n\n${link}\n`,
@@ -44,8 +46,9 @@ async function sendInvite(mailer: Mailer, publicUrl: string, user: User, shopNam
 }
 
 /** Create a user without a password and e-mail them a link to set one. */
-export async function inviteUser(em: EntityManager, mailer: Mailer, publicUrl: string, actor: Actor, input: InviteUserInput): Promise<UserDto> {
-  if (await em.findOne(User, { email: input.email })) {
+export async function inviteUser(em: EntityManager, publicUrl: string, actor: Actor, input: InviteUserInput): Promise<UserDto> {
+  const existing = await em.findOne(User, { email: input.email.trim().toLowerCase() }, { populate: ['shop'] });
+  if (existing && existing.shop.id === actor.shopId) {
     throw conflict('EMAIL_TAKEN', 'A user with that e-mail address already exists');
   }
   let customer: Customer | null = null;
@@ -55,26 +58,55 @@ export async function inviteUser(em: EntityManager, mailer: Mailer, publicUrl: s
     if (!customer) throw notFound('Customer');
   }
   const shop = await em.findOneOrFail(Shop, actor.shopId);
-  const { user, token } = await em.transactional(async (tx) => {
+  if (existing) return inviteAccountOfAnotherShop(em, publicUrl, actor, shop, existing, input);
+  const user = await em.transactional(async (tx) => {
     const created = tx.create(User, { shop, email: input.email, name: input.name, role: input.role, customer } as User);
     const issued = await issueToken(tx, created, 'invite');
     await recordAudit(tx, actor, 'user.invite', 'user', created.id, { email: created.email, role: created.role });
-    return { user: created, token: issued };
+    await queueInvite(tx, publicUrl, created, shop.name, issued);
+    return created;
   });
-  await sendInvite(mailer, publicUrl, user, shop.name, token);
   return toUserDto(user);
 }
 
-export async function resendInvite(em: EntityManager, mailer: Mailer, publicUrl: string, actor: Actor, id: string) {
+/**
+ * The address already signs in at another shop (addresses are unique across Pullbook). The
+ * inviting shop gets the same answer as for a new address, so an invitation never tells whether
+ * an address is known elsewhere; the audit notes the invitation, and the address's owner gets a
+ * notice instead of a link (they can ask the shop to use another address).
+ */
+async function inviteAccountOfAnotherShop(em: EntityManager, publicUrl: string, actor: Actor, shop: Shop, existing: User, input: InviteUserInput): Promise<UserDto> {
+  const standIn: UserDto = { id: randomUUID(), email: input.email.trim().toLowerCase(), name: input.name, role: input.role, disabled: false, invitePending: true, customerId: input.customerId ?? null, lastLoginAt: null };
+  await em.transactional(async (tx) => {
+    await recordAudit(tx, actor, 'user.invite', 'user', standIn.id, { email: standIn.email, role: standIn.role });
+    await enqueueMail(tx, {
+      shopId: actor.shopId,
+      kind: 'invite',
+      to: existing.email,
+      subject: `${shop.name} invited you to Pullbook`,
+      text: `Hello,\n\n${shop.name} tried to give this address a Pullbook sign-in, but it already has one. If you want a separate sign-in for ${shop.name}, ask them to invite another address of yours.\n\nSign in as usual at ${publicUrl.replace(/\/$/, '')}/login\n`,
+    });
+  });
+  return standIn;
+}
+
+export async function resendInvite(em: EntityManager, publicUrl: string, actor: Actor, id: string) {
   const user = await em.findOne(User, tenantScope<User>(actor, undefined, { id }), { populate: ['shop'] });
   if (!user) throw notFound('User');
   if (user.passwordHash) throw conflict('ALREADY_ACTIVE', 'This user has already set a password');
-  const token = await em.transactional(async (tx) => {
+  await em.transactional(async (tx) => {
     const issued = await issueToken(tx, user, 'invite');
     await recordAudit(tx, actor, 'user.resend-invite', 'user', user.id, { email: user.email });
-    return issued;
+    // The earlier invitation's link no longer works: a copy still waiting is not sent.
+    await tx.getConnection().execute(
+      `update mail_message set status = 'failed', last_error = 'Replaced by a newer invitation', body = null, updated_at = now()
+       where shop_id = ? and kind = 'invite' and lower(recipient) = lower(?) and status = 'queued'`,
+      [actor.shopId, user.email],
+      'all',
+      tx.getTransactionContext(),
+    );
+    await queueInvite(tx, publicUrl, user, user.shop.name, issued);
   });
-  await sendInvite(mailer, publicUrl, user, user.shop.name, token);
 }
 
 export async function updateUser(em: EntityManager, actor: Actor, id: string, patch: { name?: string; role?: Role; disabled?: boolean }): Promise<UserDto> {

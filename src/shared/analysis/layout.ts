@@ -5,6 +5,7 @@
  */
 import { DELIMITERS, type Delimiter, type SourceLine, splitFields, splitLines } from './delimiter.js';
 import { AnalysisError } from './errors.js';
+import { MAX_COLUMNS } from './columns.js';
 import { isUnitsRow } from './header.js';
 import { looksNumeric, parseNumber } from './numbers.js';
 
@@ -79,7 +80,12 @@ function bestRun(lines: SourceLine[], delimiter: Delimiter): Candidate | null {
  */
 export function detectLayout(head: string, complete: boolean): Layout {
   const lines = splitLines(head, complete, SNIFF_LINES);
-  if (lines.every((l) => l.text.trim().length === 0)) throw new AnalysisError('EMPTY_FILE', 'The file is empty.');
+  if (lines.every((l) => l.text.trim().length === 0)) {
+    // Text but not one whole line in the head: a row far wider than a run file has.
+    const widest = Math.max(...DELIMITERS.map((d) => head.split(d).length));
+    if (!complete && widest > MAX_COLUMNS) throw new AnalysisError('TOO_MANY_COLUMNS', `The first line has more than ${widest - 1} columns before it even ends; at most ${MAX_COLUMNS} are accepted.`);
+    throw new AnalysisError('EMPTY_FILE', 'The file is empty.');
+  }
 
   let best: Candidate | null = null;
   for (const d of DELIMITERS) {

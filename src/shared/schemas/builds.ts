@@ -29,7 +29,13 @@ const optNum = (label: string, min = 0, max = 100_000) =>
 
 const optText = (max: number) => z.preprocess((v) => (typeof v === 'string' && v.trim() === '' ? undefined : v), z.string().trim().max(max, `At most ${max} characters`).optional());
 
-const isoDate = z.preprocess((v) => (v === '' ? undefined : v), z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use YYYY-MM-DD').optional());
+/** A real calendar day (no 30 February), years 1900–2999 (the archive's span, our choice). */
+const realDay = (v: string) => {
+  const [y, m, d] = v.split('-').map(Number);
+  const date = new Date(Date.UTC(y, m - 1, d));
+  return y >= 1900 && y <= 2999 && date.getUTCFullYear() === y && date.getUTCMonth() === m - 1 && date.getUTCDate() === d;
+};
+const isoDate = z.preprocess((v) => (v === '' ? undefined : v), z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use YYYY-MM-DD').refine(realDay, 'Not a real date (YYYY-MM-DD, years 1900–2999)').optional());
 
 export const BUILD_SORTS = ['similarity', 'gain', 'date'] as const;
 export type BuildSort = (typeof BUILD_SORTS)[number];

@@ -26,3 +26,26 @@ export interface OutboxPage extends Page<CapturedMessage> {
 export interface CapturedMessageDetail extends CapturedMessage {
   html: string | null;
 }
+
+/**
+ * One message of the send log (GET /api/outbox/log): every e-mail Pullbook queued for the shop,
+ * whatever relay sends it. Never names the relay; `error` is written for staff.
+ */
+export interface MailLogEntry {
+  id: string;
+  /** invite, reset, report or notice. */
+  kind: string;
+  to: string;
+  subject: string;
+  status: 'queued' | 'sent' | 'failed';
+  /** Tries so far. */
+  attempts: number;
+  /** Why the last try failed (a queued message is retried; a failed one gave up). */
+  error: string | null;
+  createdAt: string;
+  sentAt: string | null;
+  /** When a queued message is tried next. */
+  nextAttemptAt: string | null;
+  /** The owner may queue it again (a failed report e-mail is sent again from its report instead). */
+  retryable: boolean;
+}

@@ -150,7 +150,8 @@ export interface Delivery {
   to: string;
   subject: string;
   message: string;
-  status: 'sent' | 'failed';
+  /** queued: the mail relay was away; the mail queue keeps trying and the log follows. */
+  status: 'queued' | 'sent' | 'failed';
   error: string | null;
   sentByName: string | null;
   createdAt: string;

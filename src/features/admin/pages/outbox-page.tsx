@@ -5,6 +5,7 @@ import { Button, Caution, DataTable, Dialog, ErrorState, LoadingState, PageHeade
 import { formatDateTime, formatFileSize } from '@shared/format';
 import { adminQueries, outboxAttachmentUrl, type OutboxItem } from '../api/admin-queries';
 import { usePageTitle } from '@/lib/page-title';
+import { SendLog } from '../components/send-log';
 
 function Attachments({ message }: { message: OutboxItem }) {
   if (!message.attachments.length) return <span className="text-ink-subtle">None</span>;
@@ -47,13 +48,20 @@ export default function OutboxPage() {
     <>
       <PageHeader
         title="Outbox"
-        subtitle="Mail Pullbook has sent — invitations, reset links, gain reports — as the local mail catcher received it."
+        subtitle="Mail Pullbook has queued — invitations, reset links, gain reports — with whether it went, and below, what the local mail catcher received."
         secondaryActions={
           <Button onClick={() => outbox.refetch()} loading={outbox.isFetching && !outbox.isPending} loadingText="Checking…">
             Check for new mail
           </Button>
         }
       />
+      <section aria-labelledby="send-log-heading" className="mb-6 space-y-2">
+        <h2 id="send-log-heading" className="text-lg font-semibold">
+          Send log
+        </h2>
+        <SendLog />
+      </section>
+      <h2 className="mb-2 text-lg font-semibold">Received by the mail catcher</h2>
       {outbox.isPending ? (
         <LoadingState message="Loading the outbox…" />
       ) : outbox.isError ? (

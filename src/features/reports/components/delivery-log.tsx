@@ -26,7 +26,7 @@ export function DeliveryLog({ reportId }: { reportId: string }) {
                 </div>
                 {d.error ? <div className="text-loss">{d.error}</div> : null}
               </div>
-              <Badge tone={d.status === 'sent' ? 'gain' : 'loss'}>{d.status === 'sent' ? 'Sent' : 'Failed'}</Badge>
+              <Badge tone={d.status === 'sent' ? 'gain' : d.status === 'queued' ? 'neutral' : 'loss'}>{d.status === 'sent' ? 'Sent' : d.status === 'queued' ? 'Queued' : 'Failed'}</Badge>
             </li>
           ))}
         </ul>

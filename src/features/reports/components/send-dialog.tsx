@@ -32,7 +32,7 @@ export function SendReportDialog({ report, open, onClose, onSent }: { report: Re
   const { onSubmit, alert } = useFormSubmit(form, async (values) => {
     const sent = await send.mutateAsync(values);
     onSent?.(sent.shareUrl);
-    toast.success(`Report sent to ${values.to}`);
+    toast.success(sent.status === 'queued' ? `Report queued for ${values.to}: the mail server is not answering, Pullbook keeps trying` : `Report sent to ${values.to}`);
     onClose();
   });
 
