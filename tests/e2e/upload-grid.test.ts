@@ -76,6 +76,37 @@ describe('forty files at once', () => {
     expect(cbox!.y).toBeGreaterThanOrEqual(0);
     expect(cbox!.y + cbox!.height).toBeLessThanOrEqual(viewport.height);
 
+    // Tick every read run and set their stage at once: a progress bar while it works, then one
+    // summary toast, which sits above the action bar instead of over its controls.
+    await page.evaluate(() => {
+      const w = window as unknown as { __bulk: string[] };
+      w.__bulk = [];
+      new MutationObserver(() => {
+        if (document.querySelector('[role=progressbar]')) w.__bulk.push('progress');
+      }).observe(document.body, { subtree: true, childList: true });
+    });
+    await page.getByLabel('Select every read run').check();
+    const bar = page.getByRole('region', { name: 'Selected runs' });
+    await visible(page, `${COUNT - 1} runs selected`);
+    await bar.getByLabel('Set their stage').selectOption({ label: 'Baseline' });
+    const toast = page.getByRole('region', { name: 'Notifications' }).getByRole('listitem').filter({ hasText: `Tagged ${COUNT - 1} runs as Baseline` });
+    await expect.poll(() => toast.isVisible(), { timeout: 60_000 }).toBe(true);
+    expect(await page.evaluate(() => (window as unknown as { __bulk: string[] }).__bulk.length)).toBeGreaterThan(0);
+    expect(await page.getByRole('region', { name: 'Notifications' }).getByText(/^Tagged pull-/).count()).toBe(0);
+    // The selection is cleared after the change, so tick two runs again to see the bar with a toast up.
+    await page.getByLabel('Select pull-01.csv').check();
+    await page.getByLabel('Select pull-02.csv').check();
+    await expect.poll(() => bar.isVisible()).toBe(true);
+    const barBox = (await bar.boundingBox())!;
+    const toastBox = (await toast.boundingBox())!;
+    const overlaps = toastBox.x < barBox.x + barBox.width && barBox.x < toastBox.x + toastBox.width && toastBox.y < barBox.y + barBox.height && barBox.y < toastBox.y + toastBox.height;
+    expect(overlaps, `toast ${JSON.stringify(toastBox)} over bar ${JSON.stringify(barBox)}`).toBe(false);
+    await h.screenshot(page, 'ux-after-bulk-bar');
+    await bar.getByRole('button', { name: 'Clear selection' }).click();
+    const tuner = await h.t.signIn(shop.users.tuner);
+    const tagged = (await tuner.get('/api/runs').query({ sessionId, pageSize: 100 })).body.items as { stageName: string | null; status: string }[];
+    expect(tagged.filter((r) => r.status === 'ready').every((r) => r.stageName === 'Baseline')).toBe(true);
+
     // "Read again" calls the reprocess API for the kept file; it still cannot be read.
     await broken.getByRole('button', { name: `Read ${BROKEN} again` }).click();
     await visible(page, `${BROKEN} was read again`);

@@ -11,6 +11,7 @@ import { Run } from '../runs/run.entity';
 import { Stage } from '../stages/stage.entity';
 import { Bike } from '../bikes/bike.entity';
 import { bikeLabel, runName } from './engine';
+import { runFileLabel } from '@shared/labels';
 
 export async function comparisonCandidates(em: EntityManager, actor: Actor, query: { bikeId: string }): Promise<CandidatesDto> {
   const bike = await em.findOne(Bike, tenantScope<Bike>(actor, 'customer', { id: query.bikeId }));
@@ -36,6 +37,7 @@ export async function comparisonCandidates(em: EntityManager, actor: Actor, quer
     runs: runs.map((r) => ({
       id: r.id,
       name: runName(r),
+      fileName: runFileLabel(r),
       status: r.status,
       stageId: r.stage?.id ?? null,
       stageName: r.stage?.name ?? null,

@@ -4,7 +4,7 @@ import { formatCount } from '@shared/format';
 import { Button, ProgressBar, SelectField, useBottomBar, useToast } from '@/components/ui';
 import { invalidateKeys } from '@/lib/invalidate';
 import { stageQueries } from '../api/stages/stage-queries';
-import { updateRun } from '../api/runs/update-run';
+import { tagRuns, tagRunsInvalidates } from '../api/runs/tag-runs';
 import { setReferenceRunMutation } from '../api/stages/set-reference-run';
 import { runViews } from '../api/run-views';
 
@@ -46,8 +46,8 @@ export function useRunSelection(runs: SelectableRun[]) {
   return { selected, toggle, selectAll, clear, runs: [...selected].map((id) => offered.get(id)!) };
 }
 
-/** Requests at once for a bulk change: the list moves quickly without flooding the server. */
-const PARALLEL = 3;
+/** Runs per request of a bulk change: small enough for the progress bar to move. */
+const CHUNK = 10;
 
 /**
  * The bar for the ticked runs, fixed to the bottom of the screen: set their stage in one go, or
@@ -76,20 +76,21 @@ function Bar({ bikeId, selection }: { bikeId: string; selection: ReturnType<type
     let done = 0;
     const failed: string[] = [];
     setProgress({ done, total: list.length });
-    const queue = [...list];
-    const worker = async () => {
-      for (let r = queue.shift(); r; r = queue.shift()) {
-        try {
-          await updateRun(r.id, { stageId: next });
-        } catch {
-          failed.push(r.name);
-        }
-        done += 1;
-        setProgress({ done, total: list.length });
+    // In chunks, one after the other: the bar shows real progress and each chunk lands whole.
+    for (let i = 0; i < list.length; i += CHUNK) {
+      const chunk = list.slice(i, i + CHUNK);
+      try {
+        await tagRuns(
+          chunk.map((r) => r.id),
+          next,
+        );
+      } catch {
+        failed.push(...chunk.map((r) => r.name));
       }
-    };
-    await Promise.all(Array.from({ length: Math.min(PARALLEL, list.length) }, worker));
-    await invalidateKeys(qc, runViews());
+      done += chunk.length;
+      setProgress({ done, total: list.length });
+    }
+    await invalidateKeys(qc, tagRunsInvalidates());
     setProgress(null);
     setStageId('');
     const ok = list.length - failed.length;

@@ -104,7 +104,7 @@ export function PeakCells({ run }: { run?: Pick<RunSummaryDto, 'peakPowerHp' | '
 /** One line of the grid; `children` spans the name-to-end columns when given (progress, messages). */
 export function RunGridRow({ select, status, name, peaks, stage, actions, detail, testId = 'upload-item' }: { select?: ReactNode; status: ReactNode; name: ReactNode; peaks?: ReactNode; stage?: ReactNode; actions?: ReactNode; detail?: ReactNode; testId?: string }) {
   return (
-    <li className={cn('grid grid-cols-[2.75rem_1fr] items-center gap-x-3 gap-y-1 px-3 py-1.5', GRID_COLUMNS)} data-testid={testId}>
+    <li className={cn('grid grid-cols-[2.75rem_1fr] items-center gap-x-3 gap-y-0.5 px-3 py-1', GRID_COLUMNS)} data-testid={testId}>
       <span className="row-span-2 flex items-center md:row-span-1">{select}</span>
       <span>{status}</span>
       {name}

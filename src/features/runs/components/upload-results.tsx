@@ -36,20 +36,26 @@ function PeakFigure({ label, value, rpm }: { label: string; value: string; rpm: 
   );
 }
 
-/** A run's warnings folded into one line ("1 warning"), opened on demand. */
-export function WarningsNote({ warnings }: { warnings: RunSummaryDto['warnings'] }) {
+/** A run's warnings as one short toggle ("1 warning"); the messages open under the line. */
+export function WarningsToggle({ warnings, open, onToggle }: { warnings: RunSummaryDto['warnings']; open: boolean; onToggle: () => void }) {
   if (!warnings.length) return null;
   return (
-    <details className="text-sm text-warn">
-      <summary className="flex min-h-8 cursor-pointer items-center gap-1">
-        <Icon name="triangle" size={16} /> {warnings.length === 1 ? '1 warning' : `${warnings.length} warnings`}
-      </summary>
-      <ul className="mt-1 space-y-0.5 pl-5 text-ink" aria-label="Warnings">
-        {warnings.map((w) => (
-          <li key={w.code + w.message}>{w.message}</li>
-        ))}
-      </ul>
-    </details>
+    <button type="button" className="flex min-h-6 items-center gap-1 text-xs font-semibold text-warn underline-offset-2 hover:underline" aria-expanded={open} onClick={onToggle}>
+      <Icon name="triangle" size={14} /> {warnings.length === 1 ? '1 warning' : `${warnings.length} warnings`}
+    </button>
+  );
+}
+
+export function WarningsList({ warnings }: { warnings: RunSummaryDto['warnings'] }) {
+  return (
+    <ul className="space-y-0.5 text-sm text-ink" aria-label="Warnings">
+      {warnings.map((w) => (
+        <li key={w.code + w.message} className="flex gap-1">
+          <Icon name="triangle" size={16} className="mt-0.5 shrink-0 text-warn" />
+          <span>{w.message}</span>
+        </li>
+      ))}
+    </ul>
   );
 }
 
@@ -136,37 +142,39 @@ function ItemRow({ item, bikeId, onResult, selection }: { item: UploadItem; bike
   }
   const mapped = (run: RunSummaryDto) => onResult({ file: r.file, ok: true, run });
   if (r.ok && r.run.status !== 'ready') return <KeptFileRow item={item} runId={r.run.id} duplicate={r.duplicate} message={(r.duplicate ? r.message : undefined) ?? r.run.error?.message ?? ''} onMapped={mapped} />;
-  if (r.ok) {
-    const run = r.run;
-    return (
-      <RunGridRow
-        select={select(run)}
-        status={<StatusMark status="ready" word={r.duplicate ? 'Already in the archive' : undefined} />}
-        name={<RunNameCell run={run} fileName={file} />}
-        peaks={<PeakCells run={run} />}
-        stage={<StageSelect runId={run.id} bikeId={bikeId} stageId={run.stageId} runName={file} onChanged={(stageId, stageName) => onResult({ ...r, run: { ...run, stageId, stageName } })} />}
-        actions={
-          <>
-            <CrossCheckBadge status={run.identityStatus} />
-            <Link className="text-sm font-semibold text-accent underline" to={paths.run(run.id)} aria-label={`Open run ${file}`}>
-              Open run
-            </Link>
-          </>
-        }
-        detail={
-          (r.duplicate || run.warnings.length > 0) && (
-            <>
-              {r.duplicate && <p className="text-sm text-ink-muted">Already in the archive — not added again.</p>}
-              <WarningsNote warnings={run.warnings} />
-            </>
-          )
-        }
-      />
-    );
-  }
+  if (r.ok) return <ReadRow result={r} file={file} bikeId={bikeId} onResult={onResult} select={select(r.run)} />;
   if (r.runId) return <KeptFileRow item={item} runId={r.runId} message={r.error.message} onMapped={mapped} />;
   const cancelled = r.error.code === ('ABORTED' satisfies ApiErrorCodeOnClient);
   return <RunGridRow status={<StatusMark status="failed-upload" word={cancelled ? 'Cancelled' : undefined} />} name={<RunNameCell fileName={file} />} detail={<p className="text-sm text-ink">{r.error.message}</p>} />;
+}
+
+/** A file read into one run: its figures, stage and cross-check on one line. */
+function ReadRow({ result: r, file, bikeId, onResult, select }: { result: Extract<UploadResult, { ok: true }>; file: string; bikeId: string; onResult: (r: UploadResult) => void; select?: ReactNode }) {
+  const [open, setOpen] = useState(false);
+  const run = r.run;
+  return (
+    <RunGridRow
+      select={select}
+      status={
+        <>
+          <StatusMark status="ready" word={r.duplicate ? 'Already in the archive' : undefined} />
+          <WarningsToggle warnings={run.warnings} open={open} onToggle={() => setOpen((o) => !o)} />
+        </>
+      }
+      name={<RunNameCell run={run} fileName={file} />}
+      peaks={<PeakCells run={run} />}
+      stage={<StageSelect runId={run.id} bikeId={bikeId} stageId={run.stageId} runName={file} onChanged={(stageId, stageName) => onResult({ ...r, run: { ...run, stageId, stageName } })} />}
+      actions={
+        <>
+          <CrossCheckBadge status={run.identityStatus} />
+          <Link className="text-sm font-semibold text-accent underline" to={paths.run(run.id)} aria-label={`Open run ${file}`}>
+            Open run
+          </Link>
+        </>
+      }
+      detail={open && <WarningsList warnings={run.warnings} />}
+    />
+  );
 }
 
 /** The batch as a compact grid: progress while files travel, then what Pullbook found in each. */
