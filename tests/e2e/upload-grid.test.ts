@@ -93,6 +93,8 @@ describe('forty files at once', () => {
     await expect.poll(() => toast.isVisible(), { timeout: 60_000 }).toBe(true);
     expect(await page.evaluate(() => (window as unknown as { __bulk: string[] }).__bulk.length)).toBeGreaterThan(0);
     expect(await page.getByRole('region', { name: 'Notifications' }).getByText(/^Tagged pull-/).count()).toBe(0);
+    // The lines of the batch show the new stage in the run's name.
+    await expect.poll(() => page.getByTestId('upload-item').filter({ hasText: 'pull-01.csv' }).getByText(/^Baseline · pull \d+$/).count()).toBe(1);
     // The selection is cleared after the change, so tick two runs again to see the bar with a toast up.
     await page.getByLabel('Select pull-01.csv').check();
     await page.getByLabel('Select pull-02.csv').check();

@@ -54,11 +54,18 @@ const CHUNK = 10;
  * make the one ticked run its stage's reference. One summary toast at the end, a progress bar
  * while it works; toasts sit above the bar (useBottomBar), never over it.
  */
-export function BulkActionBar(props: { bikeId: string; selection: ReturnType<typeof useRunSelection> }) {
+interface BulkActionBarProps {
+  bikeId: string;
+  selection: ReturnType<typeof useRunSelection>;
+  /** Told which runs took which stage, for lists held outside the query cache (the upload results). */
+  onStageSet?: (runIds: string[], stageId: string | null, stageName: string | null) => void;
+}
+
+export function BulkActionBar(props: BulkActionBarProps) {
   return props.selection.runs.length ? <Bar {...props} /> : null;
 }
 
-function Bar({ bikeId, selection }: { bikeId: string; selection: ReturnType<typeof useRunSelection> }) {
+function Bar({ bikeId, selection, onStageSet }: BulkActionBarProps) {
   const qc = useQueryClient();
   const toast = useToast();
   const stages = useQuery(stageQueries.list(bikeId));
@@ -75,6 +82,7 @@ function Bar({ bikeId, selection }: { bikeId: string; selection: ReturnType<type
     const next = target || null;
     let done = 0;
     const failed: string[] = [];
+    const tagged: string[] = [];
     setProgress({ done, total: list.length });
     // In chunks, one after the other: the bar shows real progress and each chunk lands whole.
     for (let i = 0; i < list.length; i += CHUNK) {
@@ -84,12 +92,14 @@ function Bar({ bikeId, selection }: { bikeId: string; selection: ReturnType<type
           chunk.map((r) => r.id),
           next,
         );
+        tagged.push(...chunk.map((r) => r.id));
       } catch {
         failed.push(...chunk.map((r) => r.name));
       }
       done += chunk.length;
       setProgress({ done, total: list.length });
     }
+    if (tagged.length) onStageSet?.(tagged, next, stageName(next) ?? null);
     await invalidateKeys(qc, tagRunsInvalidates());
     setProgress(null);
     setStageId('');

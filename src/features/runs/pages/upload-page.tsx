@@ -257,7 +257,7 @@ function UploadScreen() {
           </div>
         </Card>
       )}
-      {bikeId && <BulkActionBar bikeId={bikeId} selection={selection} />}
+      {bikeId && <BulkActionBar bikeId={bikeId} selection={selection} onStageSet={upload.setStage} />}
     </div>
   );
 }
