@@ -11,6 +11,7 @@ import { Report, ReportDelivery } from './report.entity';
 import type { ReportData } from './report-data';
 import { bikeLabel, findReport, pdfFileName, sha256 } from './report-access';
 import { createShareLink } from './share-links';
+import { renderReportEmail } from './report-email';
 
 const toDeliveryDto = (d: ReportDelivery): Delivery => ({
   id: d.id,
@@ -38,12 +39,21 @@ export async function sendReport(deps: AppDeps, em: EntityManager, actor: Actor,
   const data = report.summary as unknown as ReportData;
   const share = await createShareLink(deps, em, actor, report.id);
   const subject = `Gain report ${report.number} for your ${bikeLabel(report.bike)} — ${data.shop.name}`;
-  const text = `${input.message.trim()}\n\nView online (link valid until ${share.expiresAt.slice(0, 10)}): ${share.url}\n\n— Dyno figures depend on the dyno, the correction standard and the conditions; compare like with like. The PDF explains the figures and the cautions that go with them.`;
+  // HTML with a plain-text part, greeting the customer and signed by the shop (report-email.tsx).
+  const { html, text } = await renderReportEmail({
+    shop: data.shop,
+    customerName: data.customer.name,
+    reportNumber: report.number,
+    bikeLabel: bikeLabel(report.bike),
+    message: input.message,
+    shareUrl: share.url,
+    linkValidUntil: share.expiresAt.slice(0, 10),
+  });
   let outcome: { status: 'sent'; messageId: string } | { status: 'failed'; error: string };
   try {
     const pdf = await deps.storage.getBuffer(report.pdfKey);
     if (sha256(pdf) !== report.pdfSha256) throw new Error('the stored PDF does not match its recorded hash');
-    const { messageId } = await deps.mailer.send({ shopId: actor.shopId, to: input.to, subject, text, attachments: [{ filename: pdfFileName(report), content: pdf, contentType: 'application/pdf' }] });
+    const { messageId } = await deps.mailer.send({ shopId: actor.shopId, to: input.to, subject, text, html, fromName: data.shop.name, replyTo: data.shop.email ?? undefined, attachments: [{ filename: pdfFileName(report), content: pdf, contentType: 'application/pdf' }] });
     outcome = { status: 'sent', messageId };
   } catch (e) {
     outcome = { status: 'failed', error: e instanceof Error ? e.message.slice(0, 2000) : String(e) };
