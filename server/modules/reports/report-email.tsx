@@ -7,6 +7,7 @@
  */
 import { Body, Button, Container, Head, Hr, Html, Link, Preview, Section, Text } from '@react-email/components';
 import { render } from '@react-email/render';
+import { Fragment } from 'react';
 import { palette } from '@shared/theme';
 
 export interface ReportEmailProps {
@@ -55,8 +56,13 @@ export function ReportEmail(p: ReportEmailProps) {
           <Text style={{ ...text, fontSize: '18px', fontWeight: 700 }}>{p.shop.name}</Text>
           {!opensWithGreeting(p.message) && <Text style={text}>{`Hello ${firstName(p.customerName)},`}</Text>}
           {paragraphs.map((para, i) => (
-            <Text key={i} style={{ ...text, whiteSpace: 'pre-line' }}>
-              {para}
+            <Text key={i} style={text}>
+              {para.split('\n').map((line, j) => (
+                <Fragment key={j}>
+                  {j > 0 && <br />}
+                  {line}
+                </Fragment>
+              ))}
             </Text>
           ))}
           <Section style={{ margin: '8px 0 18px' }}>
@@ -85,9 +91,15 @@ export function ReportEmail(p: ReportEmailProps) {
   );
 }
 
+/**
+ * Plain text: no wrapping (links stay whole), a link's address after its words without brackets,
+ * and written once when the words are the address.
+ */
+const PLAIN_TEXT = { wordwrap: false as const, selectors: [{ selector: 'a', options: { linkBrackets: false as const, hideLinkHrefIfSameAsText: true } }] };
+
 /** The HTML and the plain-text part of the report e-mail. */
 export async function renderReportEmail(props: ReportEmailProps): Promise<{ html: string; text: string }> {
   const element = <ReportEmail {...props} />;
-  const [html, plain] = await Promise.all([render(element), render(element, { plainText: true, htmlToTextOptions: { wordwrap: false } })]);
+  const [html, plain] = await Promise.all([render(element), render(element, { plainText: true, htmlToTextOptions: PLAIN_TEXT })]);
   return { html, text: plain.trim() };
 }

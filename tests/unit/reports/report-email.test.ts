@@ -26,6 +26,9 @@ describe('report e-mail', () => {
     expect(html).toContain(`href="${props.shareUrl}"`);
     expect(html).toMatch(/^<!DOCTYPE html/i);
     expect(text).not.toMatch(/<[a-z]/i);
+    // Each address whole and unbracketed, so a mail client makes it a link.
+    expect(text).not.toContain(`[${props.shareUrl}`);
+    expect(text).toMatch(new RegExp(`${props.shareUrl.replace(/[/.]/g, '\\$&')}(\\s|$)`));
     // The shop's words keep their paragraphs.
     expect(text.indexOf('Here is the report')).toBeLessThan(text.indexOf('The tune added'));
   });
