@@ -252,6 +252,12 @@ function UploadScreen() {
                   Clear the list
                 </Button>
               )}
+              {!upload.running && upload.items.some((it) => it.result?.ok) && (
+                // The builder opens on the previous stage against the latest: compare without picking.
+                <Link to={`${paths.newComparison}?bikeId=${bikeId}`} className="ml-auto inline-flex min-h-11 items-center rounded-control px-3 font-semibold text-accent underline-offset-2 hover:underline">
+                  Compare the stages
+                </Link>
+              )}
             </div>
             <UploadResults items={upload.items} bikeId={bikeId} onResult={upload.updateResult} selection={selection} />
           </div>
