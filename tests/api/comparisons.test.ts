@@ -7,6 +7,7 @@ import { correctionFactor } from '@shared/analysis/correction';
 import { Bike } from '@server/modules/bikes/bike.entity';
 import { Run } from '@server/modules/runs/run.entity';
 import { evaluateComparison } from '@server/modules/comparisons/evaluate-comparison';
+import { comparisonCandidates } from '@server/modules/comparisons/comparison-candidates';
 import { toActor } from '@server/modules/auth/auth.service';
 
 let t: TestApp;
@@ -604,5 +605,24 @@ describe('builder candidates', () => {
     expect(res.body.suggestion).toEqual({ baselineRunId: r1.id, runIds: [r1.id, r2.id] });
     expect((await (await t.signIn(a.users.customer)).get('/api/comparisons/candidates').query({ bikeId: bike.id })).status).toBe(403);
     expect((await (await t.signIn(b.users.desk)).get('/api/comparisons/candidates').query({ bikeId: bike.id })).status).toBe(404);
+  });
+
+  it('without references chosen, suggests the previous stage’s newest ready run against the latest stage’s', async () => {
+    const { em, f, bike, session } = freshBike('Builder two');
+    const s0 = f.stage(bike, 'Baseline', 0);
+    const s1 = f.stage(bike, 'Stage 1', 1);
+    const b1 = f.run(bike, { curve: curveFromPower((r) => 20 + 0.01 * r), stage: s0, session });
+    const b2 = f.run(bike, { curve: curveFromPower((r) => 20.5 + 0.01 * r), stage: s0, session });
+    const t1 = f.run(bike, { curve: curveFromPower((r) => 22 + 0.01 * r), stage: s1, session });
+    const t2 = f.run(bike, { curve: curveFromPower((r) => 22.5 + 0.01 * r), stage: s1, session });
+    b1.createdAt = new Date('2026-12-01T10:00:00Z');
+    b2.createdAt = new Date('2026-12-01T10:01:00Z');
+    t1.createdAt = new Date('2026-12-01T11:00:00Z');
+    t2.createdAt = new Date('2026-12-01T11:01:00Z');
+    await em.flush();
+    // The use case itself: this file's sign-ins are near the sign-in rate limit.
+    const res = { body: await comparisonCandidates(t.deps.orm.em.fork(), toActor(a.users.tuner), { bikeId: bike.id }) };
+    // The two newest runs (both of stage 1) were suggested before; now one run per stage.
+    expect(res.body.suggestion).toEqual({ baselineRunId: b2.id, runIds: [b2.id, t2.id] });
   });
 });

@@ -260,6 +260,26 @@ describe('sending', () => {
     expect(log.body.items[0]).toMatchObject({ to, status: 'sent', error: null });
   });
 
+  it('sends an HTML e-mail with a plain-text part, from the shop’s name, greeting the customer', async () => {
+    const [report] = (await desk.get('/api/reports').query({ bikeId: a.bike.id })).body.items;
+    const to = a.customer.email!;
+    const res = await desk.post(`/api/reports/${report.id}/send`).send({ to, message: 'Your bike made more power across the range.\n\nCall us with any question.' });
+    expect(res.status).toBe(201);
+    const mail = await latestMailTo(to);
+    // From the shop's name on the configured sender address.
+    expect(mail.from?.value[0].name).toBe('Northgate Cycle Works');
+    const first = a.customer.name.split(/\s+/)[0];
+    for (const part of [mail.text, String(mail.html)]) {
+      expect(part).toContain(`Hello ${first},`);
+      expect(part).toContain('Your bike made more power across the range.');
+      expect(part).toContain('Call us with any question.');
+      expect(part).toContain('/share/');
+    }
+    expect(String(mail.html)).toMatch(/<html[^>]*lang="en"/);
+    expect(mail.text).not.toMatch(/<[a-z]/i);
+    expect((await (await t.signIn(a.users.desk)).get(`/api/share/${linkIn(String(mail.html), '/share/')}`)).status).toBe(200);
+  });
+
   it('logs a failed delivery with the relay’s error', async () => {
     const [report] = (await desk.get('/api/reports').query({ bikeId: a.bike.id })).body.items;
     const original = t.deps.mailer.send;

@@ -224,7 +224,9 @@ describe('uploading a dyno session', () => {
   it('the run page draws the mapped run and switches units and correction in the browser', async () => {
     const page = await h.signInPage(shop.users.tuner.email);
     await page.goto(`${h.baseUrl}/runs/${mappedRunId}`);
-    await expect.poll(() => page.getByRole('heading', { name: 'pull-03-drum.csv', level: 1 }).isVisible()).toBe(true);
+    // The run's one name (stage · pull n), with its file beside it.
+    await expect.poll(() => page.getByRole('heading', { name: /^No stage · pull \d$/, level: 1 }).isVisible()).toBe(true);
+    await visible(page, 'pull-03-drum.csv');
     const chartCard = page.getByRole('region', { name: 'Power and torque' });
     await expect.poll(() => chartCard.locator('canvas').first().isVisible()).toBe(true);
     const truth = files[2].run.truth;
@@ -281,7 +283,7 @@ describe('uploading a dyno session', () => {
     const table = page.getByRole('table', { name: 'Runs of this session' });
     await expect.poll(() => table.locator('tbody tr').count()).toBe(3);
     expect(await page.getByText('Safety checks confirmed').first().isVisible()).toBe(true);
-    await table.getByRole('button', { name: 'Make reference: pull-01.csv for Baseline' }).click();
+    await table.getByRole('button', { name: /^Make reference: Baseline · pull \d \(pull-01\.csv\) for Baseline$/ }).click();
     await expect.poll(() => table.getByText('Reference of Baseline').isVisible()).toBe(true);
     await h.screenshot(page, 'upload-07-session-page');
     const stages = await tuner.get('/api/stages').query({ bikeId: shop.bike.id });
@@ -292,7 +294,8 @@ describe('uploading a dyno session', () => {
     await page.goto(`${h.baseUrl}/runs?bikeId=${shop.bike.id}&sort=-peakPowerHp`);
     const runs = page.getByRole('table', { name: 'Runs' });
     await expect.poll(() => runs.locator('tbody tr').count()).toBe(3);
-    const names = await runs.locator('tbody tr td:nth-child(2) a').allTextContents();
+    // Each run's file is its secondary text, under its name.
+    const names = await runs.locator('tbody tr td:nth-child(2) a + span').allTextContents();
     expect(names).toEqual(['pull-03-drum.csv', 'pull-02.csv', 'pull-01.csv']);
     await page.getByLabel('Status').selectOption('needs-mapping');
     await expect.poll(() => new URL(page.url()).searchParams.get('status')).toBe('needs-mapping');

@@ -44,6 +44,10 @@ export interface MailMessage {
   subject: string;
   text: string;
   html?: string;
+  /** Display name of the sender (e.g. the shop's name) on the configured MAIL_FROM address. */
+  fromName?: string;
+  /** Where replies go (e.g. the shop's own address). */
+  replyTo?: string;
   attachments?: QueuedAttachment[];
   /** Unique key; a second message with the same key is not queued. Default: a new random key. */
   key?: string;
@@ -56,6 +60,8 @@ export interface MailMessage {
 interface StoredBody {
   text: string;
   html?: string;
+  fromName?: string;
+  replyTo?: string;
   attachments?: { filename: string; contentType?: string; content?: string; storageKey?: string; sha256?: string }[];
 }
 
@@ -96,6 +102,8 @@ export async function enqueueMail(em: EntityManager, message: MailMessage, opts:
   const body: StoredBody = {
     text: message.text,
     ...(message.html !== undefined ? { html: message.html } : {}),
+    ...(message.fromName ? { fromName: message.fromName } : {}),
+    ...(message.replyTo ? { replyTo: message.replyTo } : {}),
     ...(message.attachments?.length
       ? { attachments: message.attachments.map((a) => ({ filename: a.filename, contentType: a.contentType, storageKey: a.storageKey, sha256: a.sha256, content: a.content?.toString('base64') })) }
       : {}),
@@ -242,6 +250,8 @@ export class MailQueue {
         subject: row.subject,
         text: body.text,
         ...(body.html !== undefined ? { html: body.html } : {}),
+        ...(body.fromName ? { fromName: body.fromName } : {}),
+        ...(body.replyTo ? { replyTo: body.replyTo } : {}),
         ...(attachments.length ? { attachments } : {}),
         messageId: `<${createHash('sha256').update(row.message_key).digest('hex').slice(0, 32)}@pullbook.mail>`,
       });

@@ -20,7 +20,14 @@ export interface OutgoingMail {
    * the send log's update.
    */
   messageId?: string;
+  /** Display name of the sender (e.g. the shop's name) on the configured MAIL_FROM address. */
+  fromName?: string;
+  /** Where replies go (e.g. the shop's own address). */
+  replyTo?: string;
 }
+
+/** The address inside a From value such as "Pullbook <no-reply@x.test>" (or the value itself). */
+export const fromAddress = (from: string) => /<([^>]+)>/.exec(from)?.[1] ?? from.trim();
 
 /** Header naming the shop a message belongs to (read back by the local outbox). */
 export const SHOP_HEADER = 'X-Pullbook-Shop';
@@ -46,8 +53,9 @@ export function createSmtpMailer(smtpUrl: string, from: string): Mailer {
     socketTimeout: 30_000,
   });
   return {
-    async send({ shopId, ...mail }) {
-      const info = await transport.sendMail({ from, ...mail, headers: { [SHOP_HEADER]: shopId } });
+    async send({ shopId, fromName, ...mail }) {
+      const sender = fromName ? { name: fromName, address: fromAddress(from) } : from;
+      const info = await transport.sendMail({ from: sender, ...mail, headers: { [SHOP_HEADER]: shopId } });
       return { messageId: info.messageId };
     },
   };

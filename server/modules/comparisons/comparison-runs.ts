@@ -24,6 +24,9 @@ interface RunRecord {
   version: string;
   label: string | null;
   sequence: number;
+  original_name: string;
+  pull_index: number;
+  pull_count: number;
   status: string;
   has_curve: boolean;
   correction_standard: string | null;
@@ -67,7 +70,7 @@ function runRowsStatement(variant: { customer: boolean; wide: boolean }): Prepar
   return {
     name: `pullbook-comparison-runs-${customer ? 'customer' : 'staff'}-${wide ? 'wide' : 'narrow'}`,
     text: `${wide ? 'with wanted as (select x.bike_id, x.stage_id from run x where x.shop_id = $1 and x.deleted_at is null and x.id = any($2::uuid[]))' : ''}
-    select r.id, r.updated_at::text as version, r.label, r.sequence, r.status, r.curve is not null as has_curve,
+    select r.id, r.updated_at::text as version, r.label, r.sequence, r.original_name, r.pull_index, r.pull_count, r.status, r.curve is not null as has_curve,
            r.correction_standard, r.correction_factor, r.conditions, r.identity_status, r.warnings, r.created_at, r.stage_id,
            b.id as bike_id, b.make as bike_make, b.model as bike_model, b.year as bike_year,
            st.name as stage_name, st.position as stage_position,
@@ -134,6 +137,7 @@ function toRunRow(r: RunRecord, curve: StoredCurve | null): RunRow {
     warnings: jsonOf<{ code: string; message?: string }[] | null>(r.warnings) ?? [],
     createdAt: toDate(r.created_at),
     bike: { id: r.bike_id, make: r.bike_make, model: r.bike_model, year: r.bike_year },
+    file: { originalName: r.original_name, pullIndex: r.pull_index, pullCount: r.pull_count },
     stage: r.stage_id ? { id: r.stage_id, name: r.stage_name ?? '', position: r.stage_position ?? 0 } : null,
     session: r.session_id
       ? {

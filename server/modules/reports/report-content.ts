@@ -136,6 +136,7 @@ export async function buildReportData(
       return {
         id: r.runId,
         label: r.name,
+        fileName: r.fileName,
         stageName: r.stageName,
         isBaseline: r.runId === preview.baseline.runId,
         colorIndex: r.colorIndex ?? i,

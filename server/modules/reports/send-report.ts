@@ -13,6 +13,7 @@ import { bikeLabel, findReport, pdfFileName } from './report-access';
 import { enqueueMail } from '../../lib/mail/mail-queue';
 import { clip, fitSubject } from '../../lib/mail/mail-text';
 import { createShareLink } from './share-links';
+import { renderReportEmail } from './report-email';
 
 const toDeliveryDto = (d: ReportDelivery): Delivery => ({
   id: d.id,
@@ -44,7 +45,16 @@ export async function sendReport(deps: AppDeps, em: EntityManager, actor: Actor,
   const subject = fitSubject(`Gain report ${report.number} for your ${clip(bikeLabel(report.bike), 70)} — ${clip(data.shop.name, 40)}`);
   const { deliveryId, mailId, shareUrl } = await em.transactional(async (tx) => {
     const share = await createShareLink(deps, tx, actor, report.id);
-    const text = `${input.message.trim()}\n\nView online (link valid until ${share.expiresAt.slice(0, 10)}): ${share.url}\n\n— Dyno figures depend on the dyno, the correction standard and the conditions; compare like with like. The PDF explains the figures and the cautions that go with them.`;
+    // HTML with a plain-text part, greeting the customer and signed by the shop (report-email.tsx).
+    const { html, text } = await renderReportEmail({
+      shop: data.shop,
+      customerName: data.customer.name,
+      reportNumber: report.number,
+      bikeLabel: bikeLabel(report.bike),
+      message: input.message,
+      shareUrl: share.url,
+      linkValidUntil: share.expiresAt.slice(0, 10),
+    });
     const delivery = tx.create(ReportDelivery, {
       shop: tx.getReference(Shop, actor.shopId),
       report: tx.getReference(Report, report.id),
@@ -63,6 +73,9 @@ export async function sendReport(deps: AppDeps, em: EntityManager, actor: Actor,
         to: input.to,
         subject,
         text,
+        html,
+        fromName: data.shop.name,
+        replyTo: data.shop.email ?? undefined,
         attachments: [{ filename: pdfFileName(report), contentType: 'application/pdf', storageKey: report.pdfKey, sha256: report.pdfSha256 }],
         shareLinkId: share.id,
         reportDeliveryId: delivery.id,

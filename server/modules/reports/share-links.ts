@@ -111,7 +111,7 @@ export async function viewShare(em: EntityManager, token: string, ip: string): P
     units: d.units,
     summary: d.summary,
     warnings: d.warnings,
-    runs: d.runs.map((x) => ({ id: x.id, label: x.label, isBaseline: x.isBaseline, colorIndex: x.colorIndex, correctionLabel: x.correctionLabel, peakPower: x.peakPower, peakTorque: x.peakTorque })),
+    runs: d.runs.map((x) => ({ id: x.id, label: x.label, fileName: x.fileName ?? null, isBaseline: x.isBaseline, colorIndex: x.colorIndex, correctionLabel: x.correctionLabel, peakPower: x.peakPower, peakTorque: x.peakTorque })),
     gains: d.gains,
     curves: d.curves,
     pdfUrl: `/api/share/${token}/pdf`,

@@ -7,10 +7,12 @@ import {
   applyMappingInput,
   runListQuery,
   runUpdateInput,
+  runsStageInput,
   type ColumnLayoutDto,
   type RunDetailDto,
   type RunPreviewDto,
   type RunReprocessDto,
+  type RunsStageDto,
   type RunSummaryDto,
   type UploadResponse,
 } from '@shared/schemas/run';
@@ -19,6 +21,7 @@ import { ingestFiles } from './upload-runs';
 import { listRuns } from './list-runs';
 import { runDetail } from './get-run';
 import { updateRun } from './update-run';
+import { tagRuns } from './tag-runs';
 import { deleteRun, restoreRun } from './delete-restore-run';
 import { applyMapping } from './apply-mapping';
 import { reprocessRunById } from './reprocess-run';
@@ -91,6 +94,7 @@ export function runRoutes(deps: AppDeps): ApiRouter[] {
       });
     },
   });
+  api.route({ method: 'post', path: '/stage', access: WORKSHOP, summary: 'Set the stage of several runs of one bike at once', body: runsStageInput, handler: ({ em, actor, body }): Promise<RunsStageDto> => tagRuns(em, actor, body) });
   api.route({ method: 'patch', path: '/:id', access: WORKSHOP, summary: 'Edit a run’s stage, label, tags and note', params: idParams, body: runUpdateInput, handler: ({ em, actor, params, body }): Promise<RunDetailDto> => updateRun(em, actor, params.id, body) });
   api.route({ method: 'delete', path: '/:id', access: ['owner'], summary: 'Soft-delete a run', params: idParams, handler: ({ em, actor, params }): Promise<RunSummaryDto> => deleteRun(em, actor, params.id) });
   api.route({ method: 'post', path: '/:id/restore', access: ['owner'], summary: 'Restore a deleted run', params: idParams, handler: ({ em, actor, params }): Promise<RunSummaryDto> => restoreRun(em, actor, params.id) });

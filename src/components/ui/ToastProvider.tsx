@@ -51,7 +51,8 @@ export function ToastProvider({ children, limit = 4 }: ToastProviderProps) {
   return (
     <ToastContext.Provider value={api}>
       {children}
-      <section aria-label="Notifications" className="pointer-events-none fixed inset-x-0 bottom-0 z-toast flex justify-end p-4">
+      {/* Above any bar fixed to the bottom of the screen (useBottomBar), so no toast covers its controls. */}
+      <section aria-label="Notifications" className="pointer-events-none fixed inset-x-0 bottom-[var(--pb-bottom-bar,0px)] z-toast flex justify-end p-4">
         {/* The live region is always in the DOM, so additions to it are announced. */}
         <ol aria-live="polite" aria-relevant="additions text" className="flex w-full max-w-sm flex-col gap-2">
           {toasts.map((toast) => (

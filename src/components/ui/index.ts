@@ -30,6 +30,7 @@ export { Dialog, type DialogProps } from './Dialog';
 export { ConfirmDialog, type ConfirmDialogProps } from './ConfirmDialog';
 export { ToastProvider, type ToastProviderProps } from './ToastProvider';
 export { useToast } from './useToast';
+export { useBottomBar } from './bottom-bar';
 export type { ToastApi, ToastInput, ToastKind, ToastOptions } from './ToastContext';
 
 export {

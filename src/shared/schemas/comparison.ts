@@ -103,8 +103,10 @@ export interface ComparisonWarning {
 /** One run as the comparison used it. */
 export interface ComparisonRunSummary {
   runId: string;
-  /** Display name: the run's label, or stage + sequence. */
+  /** Display name (src/shared/labels.ts runName): the run's label, or "<stage> · pull <n>". */
   name: string;
+  /** Secondary text: the run's file, and its pull of the file when it held several (runFileLabel). */
+  fileName: string | null;
   /**
    * The run's colour slot (index into the run palette), from its place in its bike's archive, so a
    * run has the same colour in every comparison, the share page and the PDF
@@ -248,6 +250,8 @@ export const candidatesQuery = z.object({ bikeId: uuid });
 export interface CandidateRunDto {
   id: string;
   name: string;
+  /** The run's file (runFileLabel), secondary text under its name. */
+  fileName: string;
   status: string;
   stageId: string | null;
   stageName: string | null;

@@ -30,7 +30,10 @@ export type ShareInput = z.infer<typeof shareInput>;
 
 export interface ReportRun {
   id: string;
+  /** The run's name (src/shared/labels.ts runName). */
   label: string;
+  /** Its file as secondary text (runFileLabel); absent in reports made before it was stored. */
+  fileName?: string | null;
   stageName: string | null;
   isBaseline: boolean;
   /** The run's colour slot, from its place in its bike's archive (server/modules/comparisons/run-colors.ts). */
@@ -172,7 +175,7 @@ export interface ShareLinkView {
 }
 
 /** The run fields the public share page gets. */
-export type PublicShareRun = Pick<ReportRun, 'id' | 'label' | 'isBaseline' | 'colorIndex' | 'correctionLabel' | 'peakPower' | 'peakTorque'>;
+export type PublicShareRun = Pick<ReportRun, 'id' | 'label' | 'fileName' | 'isBaseline' | 'colorIndex' | 'correctionLabel' | 'peakPower' | 'peakTorque'>;
 
 export interface PublicShare {
   shopName: string;

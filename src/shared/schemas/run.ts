@@ -272,3 +272,13 @@ export interface ColumnLayoutDto {
   mapping: Record<string, unknown>;
   createdAt: string;
 }
+
+/** POST /api/runs/stage: set (or clear) the stage of several runs of one bike in one go. */
+export const runsStageInput = z.object({
+  runIds: z.array(uuid).min(1, 'Choose at least one run').max(200, 'At most 200 runs at once'),
+  stageId: uuid.nullable(),
+});
+export interface RunsStageDto {
+  /** How many runs changed stage (runs already on it are left as they are). */
+  updated: number;
+}

@@ -53,8 +53,14 @@ describe('comparison engine: prepare', () => {
 
   it('names runs by label, else stage and sequence', () => {
     expect(prepare(engineRun({ id: 'a', label: 'Baseline pull' }), {}).summary.name).toBe('Baseline pull');
-    expect(prepare(engineRun({ id: 'b', sequence: 2, stage: { id: 's', name: 'Stage 1', position: 1 } }), {}).summary.name).toBe('Stage 1 · run 2');
-    expect(prepare(engineRun({ id: 'c', sequence: 4 }), {}).summary.name).toBe('Unstaged · run 4');
+    expect(prepare(engineRun({ id: 'b', sequence: 2, stage: { id: 's', name: 'Stage 1', position: 1 } }), {}).summary.name).toBe('Stage 1 · pull 2');
+    expect(prepare(engineRun({ id: 'c', sequence: 4 }), {}).summary.name).toBe('No stage · pull 4');
+  });
+
+  it('carries the run’s file as secondary text, with the pull of a log that held several', () => {
+    expect(prepare(engineRun({ id: 'd', file: { originalName: 'pull-07.csv', pullIndex: 0, pullCount: 1 } }), {}).summary.fileName).toBe('pull-07.csv');
+    expect(prepare(engineRun({ id: 'e', file: { originalName: 'day.log', pullIndex: 2, pullCount: 3 } }), {}).summary.fileName).toBe('day.log · pull 3 of 3');
+    expect(prepare(engineRun({ id: 'f' }), {}).summary.fileName).toBeNull();
   });
 
   it('refuses a run without an analysed curve with a typed RUN_NOT_READY error', () => {

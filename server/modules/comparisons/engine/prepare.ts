@@ -13,6 +13,7 @@ import { gridPoints, interpolateSorted } from '@shared/analysis/resample';
 import { smoothSavitzkyGolay } from '@shared/analysis/smoothing';
 import { ComparisonEngineError } from './errors';
 import { bikeLabel, r3, r4, runName, standardLabel } from './labels';
+import { runFileLabel } from '@shared/labels';
 import { DEFAULT_BAND_WIDTH, type EngineRun, type Prepared } from './types';
 
 const num = (v: unknown): number | null => (typeof v === 'number' && Number.isFinite(v) ? v : null);
@@ -88,6 +89,7 @@ export function prepare(run: EngineRun, options: ComparisonOptions): Prepared {
     summary: {
       runId: run.id,
       name: runName(run),
+      fileName: run.file ? runFileLabel(run.file) : null,
       colorIndex: 0,
       bikeId: run.bike.id,
       bikeLabel: bikeLabel(run.bike),

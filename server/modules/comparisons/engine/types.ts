@@ -34,6 +34,8 @@ export interface EngineRun {
   warnings?: { code: string; message?: string }[];
   createdAt: Date;
   bike: { id: string; make: string; model: string; year: number | null };
+  /** The uploaded file the run came from (secondary text of its name); absent when the caller did not read it. */
+  file?: { originalName: string; pullIndex: number; pullCount: number } | null;
   stage: { id: string; name: string; position: number } | null;
   session: { id: string; startedAt: Date; ambientTempC: number | null; baroKpa: number | null; humidityPct: number | null; dyno: { id: string; name: string } | null } | null;
 }

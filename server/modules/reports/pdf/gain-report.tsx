@@ -334,7 +334,11 @@ export function GainReportDocument({ data, logo }: { data: ReportData; logo?: Re
               { title: 'Standard · factor', width: '17%', num: true },
             ]}
             rows={data.runs.map((r) => [
-              runLabel(r.label),
+              // The run's name with its file under it, so the printed pull matches its file.
+              <View key="n">
+                <Text>{runLabel(r.label)}</Text>
+                {r.fileName ? <Text style={[s.subtle, { fontSize: 7.5 }]}>{r.fileName}</Text> : null}
+              </View>,
               r.recordedAt ? formatDate(r.recordedAt, { timeZone: 'UTC' }) : '—',
               [r.dynoName, r.dynoKind].filter(Boolean).join(', ') || '—',
               formatAirTemperature(r.conditions.temperatureC, u, '—'),

@@ -221,7 +221,7 @@ function RunsTable({ preview, units }: { preview: ComparisonPreview; units: Retu
                 {r.name}
                 {r.runId === preview.baseline.runId && <Badge tone="neutral">baseline</Badge>}
               </span>
-              <span className="block text-xs font-normal text-ink-muted">{r.bikeLabel}</span>
+              <span className="block text-xs font-normal text-ink-muted [overflow-wrap:anywhere]">{r.fileName ? `${r.fileName} · ${r.bikeLabel}` : r.bikeLabel}</span>
             </th>
             <td className="px-3 py-2 text-right">
               {formatNumber(units.p(r.peakPower.hp), { decimals: 1 })} {units.power} <span className="text-ink-muted">@ {formatNumber(r.peakPower.rpm)}</span>

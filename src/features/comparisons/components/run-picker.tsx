@@ -69,6 +69,7 @@ export function RunPicker({ bikeId, selected, baselineRunId, onToggle, onBaselin
                     {colour && <span aria-hidden="true" className="inline-block h-3 w-3 rounded-sm" style={{ background: colour }} />}
                     {r.name}
                   </span>
+                  <span className="block text-xs font-normal text-ink-muted [overflow-wrap:anywhere]">{r.fileName}</span>
                   {!ready && <span className="block text-xs font-normal">not ready ({r.status})</span>}
                   {r.identityStatus === 'mismatch' && <span className="block text-xs font-normal text-warn">cross-check failed</span>}
                 </th>

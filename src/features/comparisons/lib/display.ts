@@ -15,7 +15,8 @@ function cell(v: string | number | null): string {
 
 /** The aligned, corrected curves as CSV: one rpm column, then power and torque per run (empty where a run has no data). */
 export function curvesCsv(preview: ComparisonPreview, u: DisplayUnits): string {
-  const names = new Map(preview.runs.map((r) => [r.runId, r.name]));
+  // The run's one name with its file, so a column can be matched to its pull and file.
+  const names = new Map(preview.runs.map((r) => [r.runId, r.fileName ? `${r.name} (${r.fileName})` : r.name]));
   const header = ['rpm', ...preview.curves.runs.flatMap((c) => [`${names.get(c.runId)} power (${u.power})`, `${names.get(c.runId)} torque (${u.torque})`])];
   const round = (v: number | null) => (v === null ? null : Math.round(v * 1000) / 1000);
   const lines = [header.map(cell).join(',')];

@@ -6,6 +6,7 @@ import { paths } from '@/config/paths';
 import { hasRole, useAuth } from '@/lib/auth';
 import { formatDate, formatDateTime } from '@shared/format';
 import { reportQueries } from '../api/report-queries';
+import { ReportRunsCard } from '../components/report-runs';
 import { ReportChart } from '../components/report-chart';
 import { HeadlineFigures } from '../components/gain-figures';
 import { SendReportDialog } from '../components/send-dialog';
@@ -134,6 +135,7 @@ export default function ReportPage() {
       <Card title="Chart">
         <ReportChart runs={r.data.runs} curves={r.data.curves} units={units} summary={r.data.summary} />
       </Card>
+      <ReportRunsCard runs={r.data.runs} units={units} />
       {staff ? <SendReportDialog key={String(sendOpen)} report={r} open={sendOpen} onClose={closeSend} onSent={setSentLink} /> : null}
     </div>
   );

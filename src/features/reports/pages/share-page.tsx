@@ -86,6 +86,7 @@ export default function SharePage() {
                   <td className="py-2 pr-3">
                     {r.label}
                     {r.isBaseline ? ' (baseline)' : ''}
+                    {r.fileName && <span className="block text-xs text-ink-muted [overflow-wrap:anywhere]">{r.fileName}</span>}
                   </td>
                   <td className="num py-2 pr-3 text-right">
                     {powerValue(units, r.peakPower.hp)} <span className="text-ink-subtle">at {formatRpm(r.peakPower.rpm)}</span>

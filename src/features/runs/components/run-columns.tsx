@@ -3,15 +3,16 @@ import { createColumnHelper } from '@tanstack/react-table';
 import type { RunSummaryDto } from '@shared/schemas/run';
 import { formatHp, formatRpm, formatTorque } from '@shared/format';
 import { paths } from '@/config/paths';
+import { runFileLabel, runName as sharedRunName } from '@shared/labels';
 import { RunFlags } from './run-status';
 
 /** Column pieces shared by the run tables (run list, session, bike page), so a run reads the same everywhere. */
 export const runColumn = createColumnHelper<RunSummaryDto>();
 
-/** The name a person gave the run, else the uploaded file's name. */
-export const runName = (r: RunSummaryDto) => r.label ?? r.originalName;
+/** The run's one name everywhere (src/shared/labels.ts): its label, else "<stage> · pull <n>". */
+export const runName = (r: RunSummaryDto) => sharedRunName(r);
 
-/** Run name linking to the run page. */
+/** Run name linking to the run page, with its file as secondary text. */
 export const runNameColumn = () =>
   runColumn.accessor(runName, {
     id: 'name',
@@ -21,6 +22,7 @@ export const runNameColumn = () =>
         <Link to={paths.run(c.row.original.id)} className="font-semibold text-accent underline-offset-2 hover:underline">
           {c.getValue()}
         </Link>
+        <span className="block text-sm text-ink-muted [overflow-wrap:anywhere]">{runFileLabel(c.row.original)}</span>
         <span className="mt-0.5 flex flex-wrap gap-1 empty:hidden">
           <RunFlags run={c.row.original} />
         </span>

@@ -10,6 +10,7 @@ import { paths } from '@/config/paths';
 import { bikeLabel, lookupQueries, runQueries, type RunFilters } from '../api/runs/run-queries';
 import { stageQueries } from '../api/stages/stage-queries';
 import { RUN_STATUS_LABELS, RunStatusBadge } from '../components/run-status';
+import { runFileLabel } from '@shared/labels';
 import { peakPowerColumn, peakTorqueColumn, runColumn, runName } from '../components/run-columns';
 import { usePageTitle } from '@/lib/page-title';
 
@@ -48,6 +49,9 @@ const columns = [
         <Link to={paths.run(c.row.original.id)} title={c.getValue()} className="block max-w-56 truncate font-semibold text-accent underline-offset-2 hover:underline">
           {c.getValue()}
         </Link>
+        <span className="block max-w-56 truncate text-sm text-ink-muted" title={runFileLabel(c.row.original)}>
+          {runFileLabel(c.row.original)}
+        </span>
         {/* Below 1024 px the date and stage columns give way; show them here. */}
         <span className="num block text-xs text-ink-subtle lg:hidden">
           {formatDate(c.row.original.createdAt)} · {c.row.original.stageName ?? 'no stage'}

@@ -21,6 +21,7 @@ import { CrossCheckBadge, RunFlags, RunStatusBadge } from '../components/run-sta
 import { MappingDialog } from '../components/mapping-dialog';
 import { RunEditForm } from '../components/run-edit-form';
 import { usePageTitle } from '@/lib/page-title';
+import { runFileLabel, runName } from '@shared/labels';
 
 const STANDARD_OPTIONS = CORRECTION_OPTIONS;
 const STOICH = formatNumber(GASOLINE_STOICH_AFR, { decimals: 1 });
@@ -95,7 +96,7 @@ function CurveCard({ run }: { run: RunDetailDto }) {
             {curve.problem} Add the session's conditions to correct this run.
           </Caution>
         )}
-        <RunChart curve={curve} powerUnit={pu} torqueUnit={tu} title={run.label ?? run.originalName} />
+        <RunChart curve={curve} powerUnit={pu} torqueUnit={tu} title={runName(run)} />
         <div className="mt-4 grid grid-cols-2 gap-4 border-t border-line pt-4 lg:grid-cols-4">
           <Stat label="Peak power" value={curve.peakPower?.value} unit={pu} size="lg" detail={`at ${formatNumber(curve.peakPower?.rpm)} rpm`} />
           <Stat label="Peak torque" value={curve.peakTorque?.value} unit={tu} size="lg" detail={`at ${formatNumber(curve.peakTorque?.rpm)} rpm`} />
@@ -179,7 +180,7 @@ function RunView({ run }: { run: RunDetailDto }) {
   const isOwner = user.role === 'owner';
   const isStaff = STAFF.includes(user.role);
   const deleted = Boolean(run.deletedAt);
-  const name = run.label ?? run.originalName;
+  const name = runName(run);
   return (
     <div className="mx-auto max-w-7xl space-y-5">
       <PageHeader
@@ -193,6 +194,7 @@ function RunView({ run }: { run: RunDetailDto }) {
         title={name}
         subtitle={
           <>
+            <span className="font-semibold text-ink">{runFileLabel(run)}</span> ·{' '}
             <Link className="underline" to={paths.bike(run.bikeId)}>
               {run.bikeLabel}
             </Link>{' '}
@@ -206,7 +208,6 @@ function RunView({ run }: { run: RunDetailDto }) {
                 </Link>
               </>
             )}
-            {' '}· run {run.sequence}
           </>
         }
         meta={
@@ -329,7 +330,7 @@ function RunView({ run }: { run: RunDetailDto }) {
 export function RunPage() {
   const { runId = '' } = useParams();
   const run = useQuery(runQueries.detail(runId));
-  usePageTitle(run.data ? (run.data.label ?? run.data.originalName) : 'Run');
+  usePageTitle(run.data ? runName(run.data) : 'Run');
   if (run.isLoading) return <LoadingState message="Loading the run…" />;
   if (run.isError)
     return (

@@ -18,6 +18,10 @@ import { peakPowerColumn, peakTorqueColumn, runColumn, runNameColumn } from '../
 import { StageSelect } from '../components/stages/stage-select';
 import { SafetyChecklist } from '../components/sessions/safety-checklist';
 import { PullFilesNote } from '../components/pull-results';
+import { LatestUpload } from '../components/sessions/latest-upload';
+import { BulkActionBar, useRunSelection, type SelectableRun } from '../components/bulk-actions';
+import { SelectRunBox } from '../components/run-grid';
+import { runName } from '@shared/labels';
 import { CORRECTION_OPTIONS } from '../lib/correction';
 import { usePageTitle } from '@/lib/page-title';
 
@@ -35,12 +39,12 @@ function ReferenceCell({ run, stages, canEdit }: { run: RunSummaryDto; stages: S
     <Button
       size="sm"
       loading={setRef.isPending}
-      aria-label={`Make reference: ${run.label ?? run.originalName} for ${stage.name}`}
+      aria-label={`Make reference: ${runName(run)} (${run.originalName}) for ${stage.name}`}
       onClick={() =>
         setRef.mutate(
           { stageId: stage.id, runId: run.id },
           {
-            onSuccess: () => toast.success(`${run.label ?? run.originalName} now represents ${stage.name}`),
+            onSuccess: () => toast.success(`${runName(run)} (${run.originalName}) now represents ${stage.name}`),
             onError: (e) => toast.error('The reference run was not changed', { description: e.message }),
           },
         )
@@ -92,10 +96,23 @@ export function SessionPage() {
   const runs = useQuery({ ...runQueries.list({ sessionId, pageSize: 200, sort: 'createdAt' }), enabled: Boolean(sessionId) });
   const stages = useQuery({ ...stageQueries.list(bikeId), enabled: Boolean(bikeId) });
   const stageList = useMemo(() => stages.data ?? [], [stages.data]);
+  const selectable = useMemo<SelectableRun[]>(() => (runs.data?.items ?? []).filter((r) => r.status === 'ready' && !r.deletedAt).map((r) => ({ id: r.id, stageId: r.stageId, name: r.originalName })), [runs.data]);
+  const selection = useRunSelection(selectable);
+  const { selected, toggle, selectAll } = selection;
 
   const columns = useMemo(
     () => [
-      col.accessor('sequence', { header: '#', meta: { numeric: true } }),
+      ...(canEdit
+        ? [
+            col.display({
+              id: 'select',
+              header: () => selectAll,
+              cell: (c) =>
+                c.row.original.status === 'ready' ? <SelectRunBox label={`Select ${c.row.original.originalName}`} checked={selected.has(c.row.original.id)} onChange={(on) => toggle(c.row.original.id, on)} /> : null,
+            }),
+          ]
+        : []),
+      col.accessor('sequence', { header: 'Pull', meta: { numeric: true } }),
       runNameColumn(),
       col.accessor('status', { header: 'Status', cell: (c) => <RunStatusBadge status={c.getValue()} /> }),
       peakPowerColumn(),
@@ -105,14 +122,14 @@ export function SessionPage() {
         header: 'Stage',
         cell: (c) =>
           canEdit ? (
-            <StageSelect runId={c.row.original.id} bikeId={c.row.original.bikeId} stageId={c.row.original.stageId} runName={c.row.original.label ?? c.row.original.originalName} />
+            <StageSelect runId={c.row.original.id} bikeId={c.row.original.bikeId} stageId={c.row.original.stageId} runName={c.row.original.originalName} />
           ) : (
             (c.row.original.stageName ?? 'none')
           ),
       }),
       col.display({ id: 'reference', header: 'Reference run', cell: (c) => <ReferenceCell run={c.row.original} stages={stageList} canEdit={canEdit} /> }),
     ],
-    [canEdit, stageList],
+    [canEdit, stageList, selected, toggle, selectAll],
   );
 
   if (session.isLoading) return <LoadingState message="Loading the session…" />;
@@ -120,7 +137,7 @@ export function SessionPage() {
   const s = session.data!;
   const uploadMore = `${paths.upload}?bikeId=${s.bikeId}&sessionId=${s.id}`;
   return (
-    <div className="mx-auto max-w-7xl space-y-5">
+    <div className="mx-auto max-w-7xl space-y-5 pb-32">
       <PageHeader
         back={
           <Link to={paths.bike(s.bikeId)} className="font-semibold text-accent">
@@ -146,7 +163,8 @@ export function SessionPage() {
           <SafetyChecklist session={s} canConfirm={canEdit} />
         </Card>
       </div>
-      <Card title="Runs of this session" description="Tag each run with its stage; mark the one that represents the stage." flush>
+      {runs.data && <LatestUpload runs={runs.data.items} canEdit={canEdit} />}
+      <Card title="Runs of this session" description="Tag each run with its stage, or tick several and set their stage at once; mark the one that represents the stage." flush>
         {runs.isError ? (
           <ErrorState error={runs.error} onRetry={() => runs.refetch()} />
         ) : (
@@ -174,6 +192,7 @@ export function SessionPage() {
           </>
         )}
       </Card>
+      {canEdit && <BulkActionBar bikeId={s.bikeId} selection={selection} />}
     </div>
   );
 }

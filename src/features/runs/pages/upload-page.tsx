@@ -1,21 +1,24 @@
-import { useEffect, useRef, useState, type ReactNode } from 'react';
+import { useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
 import type { SessionDto } from '@shared/schemas/run';
 import { Button, Card, DropZone, ErrorState, Icon, LoadingState, PageHeader, SelectField, useToast } from '@/components/ui';
+import type { UploadResult } from '@shared/schemas/run';
 import { formatCount, formatDateTime, formatNumber } from '@shared/format';
 import { paths } from '@/config/paths';
 import { formatAirTemperature, formatBarometric } from '@shared/units-display';
 import { shopQuery, useShopUnits } from '@/lib/shop-query';
 import { bikeLabel, lookupQueries } from '../api/runs/run-queries';
 import { sessionQueries } from '../api/sessions/session-queries';
-import { stageQueries } from '../api/stages/stage-queries';
 import { useUploadRuns } from '../api/runs/upload-runs';
 import { BikePicker } from '../components/bike-picker';
 import { SessionForm } from '../components/sessions/session-form';
 import { CORRECTION_OPTIONS } from '../lib/correction';
 import { SafetyChecklist } from '../components/sessions/safety-checklist';
 import { UploadResults } from '../components/upload-results';
+import { UploadStageField } from '../components/stages/upload-stage-field';
+import { LeaveGuard } from '../components/leave-guard';
+import { BulkActionBar, useRunSelection, type SelectableRun } from '../components/bulk-actions';
 import { usePageTitle } from '@/lib/page-title';
 
 const ACCEPT = ['.csv', '.txt', '.tsv', '.log', '.dat'];
@@ -56,9 +59,22 @@ function Conditions({ s }: { s: SessionDto }) {
   );
 }
 
-function StepTitle({ n, children }: { n: number; children: ReactNode }) {
+/** A step's title; when `focusWhen` turns true after the page has opened, focus moves to its heading. */
+function StepTitle({ n, children, focusWhen }: { n: number; children: ReactNode; focusWhen?: boolean }) {
+  const ref = useRef<HTMLSpanElement>(null);
+  const was = useRef(focusWhen);
+  useEffect(() => {
+    if (focusWhen && !was.current) {
+      const heading = ref.current?.closest('h2');
+      if (heading) {
+        heading.tabIndex = -1;
+        heading.focus();
+      }
+    }
+    was.current = focusWhen;
+  }, [focusWhen]);
   return (
-    <span className="flex items-center gap-2">
+    <span ref={ref} className="flex items-center gap-2">
       <span className="num inline-flex size-7 items-center justify-center rounded-full bg-paper-sunk text-sm font-bold text-ink" aria-hidden="true">
         {n}
       </span>
@@ -80,7 +96,6 @@ function UploadScreen() {
   const bike = useQuery({ ...lookupQueries.bike(bikeId), enabled: Boolean(bikeId) });
   const sessions = useQuery({ ...sessionQueries.list(bikeId), enabled: Boolean(bikeId) });
   const session = useQuery({ ...sessionQueries.detail(sessionId), enabled: Boolean(sessionId) });
-  const stages = useQuery({ ...stageQueries.list(bikeId), enabled: Boolean(bikeId) });
   const shop = useQuery(shopQuery());
 
   const setParam = (next: Record<string, string | null>) => {
@@ -106,19 +121,37 @@ function UploadScreen() {
 
   const s = session.data;
   const ready = Boolean(bikeId && s && s.safetyConfirmedAt);
+  // Read runs of this batch, for ticking several and tagging them at once.
+  const selectable = useMemo<SelectableRun[]>(
+    () =>
+      upload.items.flatMap((it) => {
+        const r: UploadResult | undefined = it.result;
+        if (!r || !r.ok) return [];
+        return (r.runs && r.runs.length > 1 ? r.runs : [r.run]).filter((run) => run.status === 'ready').map((run) => ({ id: run.id, stageId: run.stageId, name: it.file.name }));
+      }),
+    [upload.items],
+  );
+  const selection = useRunSelection(selectable);
+  const resultsShown = upload.items.length > 0 && !upload.running;
+  const resultsWere = useRef(resultsShown);
+  useEffect(() => {
+    if (resultsShown && !resultsWere.current) document.getElementById('upload-results-h')?.focus();
+    resultsWere.current = resultsShown;
+  }, [resultsShown]);
 
   const startUpload = async () => {
     if (!ready || !files.length) return;
     const batch = files;
     setFiles([]);
     await upload.start(batch, { bikeId, sessionId, stageId: stageId || undefined });
-    toast.success(`Finished ${formatCount(batch.length, 'file')}`, { description: 'Each file’s result is listed below.' });
+    toast.success(`Finished ${formatCount(batch.length, 'file')}`, { description: 'Each file’s result is listed below and on the session page.' });
   };
 
   return (
     // Toasts stack in the bottom-right corner; the bottom padding lets every control of the file
     // list scroll clear of them.
-    <div className="mx-auto max-w-5xl space-y-5 pb-56">
+    <div className="mx-auto max-w-6xl space-y-5 pb-56">
+      <LeaveGuard active={upload.running} what="files are uploading" />
       <PageHeader title="Upload runs" subtitle="Choose the bike and the session, confirm the bay checks, then drop the session's files." />
 
       <Card title={<StepTitle n={1}>Bike</StepTitle>} actions={bikeId && <Button size="sm" onClick={() => setParam({ bikeId: null, sessionId: null })}>Change bike</Button>}>
@@ -137,7 +170,7 @@ function UploadScreen() {
 
       {bikeId && (
         <Card
-          title={<StepTitle n={2}>Session</StepTitle>}
+          title={<StepTitle n={2} focusWhen={Boolean(bikeId)}>Session</StepTitle>}
           description="One visit on the dyno, with the air conditions used for correction."
           actions={
             !creating && (
@@ -187,24 +220,15 @@ function UploadScreen() {
       )}
 
       {s && (
-        <Card title={<StepTitle n={3}>Safety checks</StepTitle>}>
+        <Card title={<StepTitle n={3} focusWhen={Boolean(s)}>Safety checks</StepTitle>}>
           <SafetyChecklist session={s} canConfirm />
         </Card>
       )}
 
       {s && (
-        <Card title={<StepTitle n={4}>Run files</StepTitle>} description={ready ? 'Drop every file of the session at once; each is read on its own.' : 'Confirm the safety checks first.'}>
+        <Card title={<StepTitle n={4} focusWhen={ready}>Run files</StepTitle>} description={ready ? 'Drop every file of the session at once; each is read on its own.' : 'Confirm the safety checks first.'}>
           <div className="space-y-4">
-            <SelectField
-              label="Stage for these files"
-              hint="Optional; you can tag each file separately once it is read."
-              placeholder="No stage yet"
-              value={stageId}
-              onChange={(e) => setStageId(e.target.value)}
-              options={(stages.data ?? []).map((x) => ({ value: x.id, label: x.name }))}
-              disabled={!ready}
-              containerClassName="max-w-sm"
-            />
+            <UploadStageField bikeId={bikeId} value={stageId} onChange={setStageId} disabled={!ready} />
             <DropZone
               label="Run files"
               hint="CSV or text exports from the dyno PC, up to 50 MB each."
@@ -228,11 +252,18 @@ function UploadScreen() {
                   Clear the list
                 </Button>
               )}
+              {!upload.running && upload.items.some((it) => it.result?.ok) && (
+                // The builder opens on the previous stage against the latest: compare without picking.
+                <Link to={`${paths.newComparison}?bikeId=${bikeId}`} className="ml-auto inline-flex min-h-11 items-center rounded-control px-3 font-semibold text-accent underline-offset-2 hover:underline">
+                  Compare the stages
+                </Link>
+              )}
             </div>
-            <UploadResults items={upload.items} bikeId={bikeId} onResult={upload.updateResult} />
+            <UploadResults items={upload.items} bikeId={bikeId} onResult={upload.updateResult} selection={selection} />
           </div>
         </Card>
       )}
+      {bikeId && <BulkActionBar bikeId={bikeId} selection={selection} onStageSet={upload.setStage} />}
     </div>
   );
 }

@@ -1,6 +1,6 @@
 import { useCallback, useRef, useState } from 'react';
 import { useQueryClient, type QueryClient } from '@tanstack/react-query';
-import type { UploadResponse, UploadResult } from '@shared/schemas/run';
+import type { RunSummaryDto, UploadResponse, UploadResult } from '@shared/schemas/run';
 import { ApiError, uploadWithProgress, type ApiErrorCodeOnClient, type UploadProgress } from '@/lib/api-client';
 import { invalidateKeys } from '@/lib/invalidate';
 import { runViews } from '../run-views';
@@ -94,8 +94,20 @@ export function useUploadRuns() {
 
   /** Replace a file's result, e.g. after it was mapped by hand or tagged. */
   const updateResult = useCallback((key: string, result: UploadResult) => patch(key, { result }), [patch]);
+  /** Runs of the list that took a stage elsewhere (bulk tagging): show it on their lines. */
+  const setStage = useCallback((runIds: string[], stageId: string | null, stageName: string | null) => {
+    const ids = new Set(runIds);
+    const retag = (run: RunSummaryDto) => (ids.has(run.id) ? { ...run, stageId, stageName } : run);
+    setItems((list) =>
+      list.map((it) => {
+        const r = it.result;
+        if (!r?.ok) return it;
+        return { ...it, result: { ...r, run: retag(r.run), runs: r.runs?.map(retag) } };
+      }),
+    );
+  }, []);
   const cancel = useCallback(() => abort.current?.abort(), []);
   const clear = useCallback(() => setItems((list) => list.filter((it) => it.state !== 'done')), []);
 
-  return { items, running, start, cancel, clear, updateResult };
+  return { items, running, start, cancel, clear, updateResult, setStage };
 }

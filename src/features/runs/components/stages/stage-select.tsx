@@ -4,7 +4,7 @@ import { stageQueries } from '../../api/stages/stage-queries';
 import { useUpdateRun } from '../../api/runs/update-run';
 
 /** Tag one run with a stage of its bike, saved as soon as it changes. */
-export function StageSelect({ runId, bikeId, stageId, runName, onChanged, disabled }: { runId: string; bikeId: string; stageId: string | null; runName: string; onChanged?: (stageId: string | null) => void; disabled?: boolean }) {
+export function StageSelect({ runId, bikeId, stageId, runName, onChanged, disabled }: { runId: string; bikeId: string; stageId: string | null; runName: string; onChanged?: (stageId: string | null, stageName: string | null) => void; disabled?: boolean }) {
   const stages = useQuery(stageQueries.list(bikeId));
   const update = useUpdateRun();
   const toast = useToast();
@@ -24,8 +24,9 @@ export function StageSelect({ runId, bikeId, stageId, runName, onChanged, disabl
           { id: runId, stageId: next },
           {
             onSuccess: () => {
-              onChanged?.(next);
-              toast.success(next ? `Tagged ${runName} as ${stages.data?.find((s) => s.id === next)?.name}` : `Removed the stage from ${runName}`);
+              const name = stages.data?.find((s) => s.id === next)?.name ?? null;
+              onChanged?.(next, name);
+              toast.success(next ? `Tagged ${runName} as ${name}` : `Removed the stage from ${runName}`);
             },
             onError: (err) => toast.error(`${runName} was not tagged`, { description: err.message }),
           },
