@@ -6,7 +6,7 @@ import { paths } from '@/config/paths';
 import { hasRole, useAuth } from '@/lib/auth';
 import { formatDate, formatDateTime } from '@shared/format';
 import { reportQueries } from '../api/report-queries';
-import { ReportChart } from '../components/report-chart';
+import { ReportCharts } from '../components/report-charts';
 import { HeadlineFigures } from '../components/gain-figures';
 import { SendReportDialog } from '../components/send-dialog';
 import { SharePanel } from '../components/share-panel';
@@ -132,7 +132,7 @@ export default function ReportPage() {
       </div>
 
       <Card title="Chart">
-        <ReportChart runs={r.data.runs} curves={r.data.curves} units={units} summary={r.data.summary} />
+        <ReportCharts runs={r.data.runs} curves={r.data.curves} gains={r.data.gains} units={units} summary={r.data.summary} />
       </Card>
       {staff ? <SendReportDialog key={String(sendOpen)} report={r} open={sendOpen} onClose={closeSend} onSent={setSentLink} /> : null}
     </div>
