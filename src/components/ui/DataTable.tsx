@@ -244,7 +244,7 @@ function DataTableView<TData>({
                           type="button"
                           onClick={header.column.getToggleSortingHandler()}
                           className={cn(
-                            '-mx-2 inline-flex min-h-10 items-center gap-1 rounded-control px-2 font-semibold hover:bg-line hover:text-ink',
+                            '-mx-2 inline-flex min-h-11 items-center gap-1 rounded-control px-2 font-semibold hover:bg-line hover:text-ink',
                             align === 'right' && 'flex-row-reverse',
                             sorted && 'text-ink',
                           )}

@@ -49,7 +49,7 @@ function CostGainScatter({ points }: { points: CostGainPoint[] }) {
   return (
     <figure className="m-0 min-w-0">
       <figcaption className="px-1 text-sm font-semibold text-ink">Peak gain against build cost</figcaption>
-      <div role="img" aria-label={description}>
+      <div>
         <ReactECharts ref={ref} option={option} notMerge style={{ height: 300, width: '100%' }} opts={{ renderer: 'svg' }} />
       </div>
     </figure>
@@ -92,7 +92,7 @@ function CategoryBoxPlot({ spreads }: { spreads: CategorySpread[] }) {
   return (
     <figure className="m-0 min-w-0">
       <figcaption className="px-1 text-sm font-semibold text-ink">Gains by part category</figcaption>
-      <div role="img" aria-label={description}>
+      <div>
         <ReactECharts ref={ref} option={option} notMerge style={{ height: 300, width: '100%' }} opts={{ renderer: 'svg' }} />
       </div>
       <p className="m-0 px-1 text-xs text-ink-muted">Box: middle half of the builds with the median; whiskers: lowest and highest. A build counts for every category it has.</p>

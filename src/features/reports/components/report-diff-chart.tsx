@@ -49,7 +49,7 @@ export function ReportDiffChart({ runs, curves, gains, units, height = 380 }: { 
   }, [diffs, byId, units, description]);
   if (diffs.length === 0) return null;
   return (
-    <div role="img" aria-label={description} className="min-w-0">
+    <div className="min-w-0">
       <ReactECharts ref={ref} option={option} notMerge style={{ height, width: '100%' }} opts={{ renderer: 'canvas' }} />
     </div>
   );

@@ -81,7 +81,7 @@ export function StageGainsChart({ bars }: { bars: GainBar[] }) {
   }, [bars, description]);
   const height = Math.max(140, bars.length * 48 + 64);
   return (
-    <div role="img" aria-label={description} className="min-w-0">
+    <div className="min-w-0">
       <ReactECharts ref={ref} option={option} notMerge style={{ height, width: '100%' }} opts={{ renderer: 'svg' }} />
     </div>
   );
