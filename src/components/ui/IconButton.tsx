@@ -18,7 +18,7 @@ export function IconButton({
   label,
   icon,
   variant = 'ghost',
-  size = 'md',
+  size: _size = 'md',
   loading = false,
   type = 'button',
   title,
