@@ -5,7 +5,9 @@
  * set taken on the code before the charts).
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startBrowserHarness, visible, type BrowserHarness } from '../support/browser';
+import fs from 'node:fs';
+import path from 'node:path';
+import { ARTIFACTS, startBrowserHarness, visible, type BrowserHarness } from '../support/browser';
 import { DEMO_PASSWORD, seedDemoIfEmpty, type DemoIds } from '@server/db/demo-seed';
 import '@server/db/demo-archive';
 
@@ -67,6 +69,10 @@ describe('pictures on the demo archive', () => {
     }
     await page.waitForTimeout(800);
     await h.screenshot(page, `ux-${PHASE}-report`);
+    // The PDF the customer keeps, for a look at its charts (pdftoppm turns it into pictures).
+    const pdf = await page.request.get(`${h.baseUrl}/api/reports/${items[0].id}/pdf`);
+    expect(pdf.status()).toBe(200);
+    fs.writeFileSync(path.join(ARTIFACTS, `ux-${PHASE}-report.pdf`), await pdf.body());
     await page.context().close();
   });
 });

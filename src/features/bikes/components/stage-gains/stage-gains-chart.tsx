@@ -4,6 +4,7 @@ import { ReactECharts } from '@/lib/echarts';
 import { CHART_COLORS, CHART_FONT_FAMILY, axisNumber, baseChartOption, lossDecal, whenChartFontReady } from '@/lib/chart-theme';
 import { palette } from '@shared/theme';
 import { formatMoney, formatNumber } from '@shared/format';
+import { niceStep } from '@shared/chart-scale';
 import type { GainBar } from './stage-gains-figures';
 
 const money = (cents: number) => formatMoney(cents, { minorUnits: true, wholeUnits: true });
@@ -53,7 +54,10 @@ export function StageGainsChart({ bars }: { bars: GainBar[] }) {
         },
       })),
     };
+    // Room beyond the longest bar for its label, on a round figure.
     const maxAbs = Math.max(1, ...bars.map((b) => Math.abs(b.gainHp)));
+    const step = niceStep(maxAbs * 1.8);
+    const edge = Math.ceil((maxAbs * 1.8) / step) * step;
     const hasLoss = bars.some((b) => b.gainHp < 0);
     return {
       ...base,
@@ -65,8 +69,9 @@ export function StageGainsChart({ bars }: { bars: GainBar[] }) {
         type: 'value',
         name: 'Peak power gain (hp)',
         scale: false,
-        min: hasLoss ? -maxAbs * 1.9 : 0,
-        max: maxAbs * 1.9,
+        min: hasLoss ? -edge : 0,
+        max: edge,
+        interval: step,
         axisLabel: { color: CHART_COLORS.mutedText, fontSize: 12, fontFamily: CHART_FONT_FAMILY, formatter: axisNumber },
       },
       yAxis: {

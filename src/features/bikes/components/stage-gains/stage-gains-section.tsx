@@ -19,19 +19,18 @@ const col = createColumnHelper<GainRow>();
 const columns = [
   col.accessor('name', {
     header: 'Stage',
-    meta: { priority: 'key', wrap: true },
+    meta: { priority: 'key' },
     cell: (c) => <span className="font-semibold">{c.getValue()}</span>,
   }),
   col.accessor('date', { header: 'Date', meta: { numeric: true, priority: 'extra' }, cell: (c) => (c.getValue() ? formatDate(c.getValue()!) : none) }),
   col.accessor('peakPowerHp', { header: 'Peak power (hp)', meta: { numeric: true }, cell: (c) => hp(c.getValue()) }),
-  col.accessor('peakPowerRpm', { header: 'at rpm', meta: { numeric: true, priority: 'extra' }, cell: (c) => (c.getValue() === null ? none : formatNumber(c.getValue())) }),
   col.accessor('peakTorqueLbft', { header: 'Peak torque (lb·ft)', meta: { numeric: true, priority: 'extra' }, cell: (c) => hp(c.getValue()) }),
   col.accessor('gainHp', { header: 'Gain (hp)', meta: { numeric: true, priority: 'key' }, cell: (c) => hp(c.getValue(), true) }),
   col.accessor('gainCostCents', { header: 'Its cost', meta: { numeric: true, priority: 'extra' }, cell: (c) => money(c.getValue()) }),
   col.accessor('costPerHpCents', { header: 'Cost per hp', meta: { numeric: true, priority: 'key' }, cell: (c) => money(c.getValue()) }),
   col.accessor('totalGainHp', { header: 'Total gain (hp)', meta: { numeric: true, priority: 'key' }, cell: (c) => hp(c.getValue(), true) }),
   col.accessor('totalCostCents', { header: 'Total cost', meta: { numeric: true, priority: 'extra' }, cell: (c) => money(c.getValue()) }),
-  col.accessor('totalCostPerHpCents', { header: 'Total cost per hp', meta: { numeric: true } , cell: (c) => money(c.getValue()) }),
+  col.accessor('totalCostPerHpCents', { header: 'Total cost per hp', meta: { numeric: true }, cell: (c) => money(c.getValue()) }),
   col.accessor('spreadHp', {
     header: 'Spread (± hp)',
     meta: { numeric: true, priority: 'extra' },
