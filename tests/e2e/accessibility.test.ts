@@ -69,9 +69,9 @@ const PAGES: PageSpec[] = [
 ];
 
 /** A page a role may not use, visited once by that role: the plain refusal page is checked too. */
-const FORBIDDEN_SAMPLES: { role: Who; path: string }[] = [
-  { role: 'customer', path: '/runs' },
-  { role: 'desk', path: '/settings/users' },
+const FORBIDDEN_SAMPLES: { role: Who; path: string; ready: string }[] = [
+  { role: 'customer', path: '/runs', ready: 'Not available for your role' },
+  { role: 'desk', path: '/settings/users', ready: 'Not for your role' },
 ];
 
 const EMAIL: Record<Exclude<Who, 'anonymous'>, string> = {
@@ -134,13 +134,25 @@ function describeViolations(where: string, violations: Result[]): Finding[] {
   }));
 }
 
-/** Waits until the page has settled: no loading message, and its ready text or an h1 visible. */
-async function settle(page: Page, ready?: string | RegExp) {
-  if (ready) await page.getByText(ready).first().waitFor({ state: 'visible', timeout: 20_000 });
-  else await page.locator('h1').first().waitFor({ state: 'visible', timeout: 20_000 });
+/**
+ * Waits until the page has settled: its ready text or an h1 visible, nothing busy. A page that
+ * never gets there is a finding too (and is still checked as it stands).
+ */
+async function settle(page: Page, where: string, ready?: string | RegExp): Promise<Finding[]> {
+  const target = ready ? page.getByText(ready).first() : page.locator('h1').first();
+  const loaded = await target.waitFor({ state: 'visible', timeout: 20_000 }).then(
+    () => true,
+    () => false,
+  );
   await page.waitForFunction(() => !document.querySelector('[aria-busy="true"]') && !/Loading/.test(document.querySelector('main')?.textContent?.slice(0, 40) ?? ''), null, { timeout: 20_000 }).catch(() => undefined);
   // Charts animate for 250 ms; let them finish so their labels are measured as drawn.
   await page.waitForTimeout(400);
+  const findings: Finding[] = [];
+  if (!loaded) findings.push({ where, rule: 'page-not-ready', impact: null, help: `neither ${ready ? `“${ready}”` : 'an h1'} appeared`, nodes: [] });
+  // Each page names its tab "page · shop" (or "page · Pullbook" signed out).
+  const title = await page.title();
+  if (!/ · /.test(title)) findings.push({ where, rule: 'own-document-title', impact: null, help: `title is “${title}”`, nodes: [] });
+  return findings;
 }
 
 async function check(page: Page, where: string): Promise<Finding[]> {
@@ -161,14 +173,15 @@ describe('accessibility (axe, WCAG 2.0/2.1/2.2 A and AA)', () => {
       const findings: Finding[] = [];
       const visits = [
         ...PAGES.filter((p) => p.roles.includes(who)).map((p) => ({ name: p.name, path: p.path(ids), ready: p.ready })),
-        ...FORBIDDEN_SAMPLES.filter((f) => f.role === who).map((f) => ({ name: `${f.path} (not for ${who})`, path: f.path, ready: 'Not available for your role' as string | RegExp | undefined })),
+        ...FORBIDDEN_SAMPLES.filter((f) => f.role === who).map((f) => ({ name: `${f.path} (not for ${who})`, path: f.path, ready: f.ready as string | RegExp | undefined })),
       ];
       for (const width of WIDTHS) {
         await page.setViewportSize({ width, height: width === 768 ? 1024 : 800 });
         for (const v of visits) {
+          const where = `${v.name} (${v.path}) as ${who} at ${width} px`;
           await page.goto(`${h.baseUrl}${v.path}`);
-          await settle(page, v.ready);
-          findings.push(...(await check(page, `${v.name} (${v.path}) as ${who} at ${width} px`)));
+          findings.push(...(await settle(page, where, v.ready)));
+          findings.push(...(await check(page, where)));
         }
       }
       await page.context().close();

@@ -31,6 +31,7 @@ export function BikePage() {
     if (bike.error instanceof ApiError && (bike.error.status === 404 || bike.error.status === 400)) {
       return (
         <EmptyState
+          headingLevel={1}
           title="No such bike"
           message="This bike is not on file, or it is not one you can see."
           action={
