@@ -21,10 +21,12 @@ export function DifferenceChart({ data, width, height }: { data: Pick<ReportData
   if (!baseline || diffs.length === 0) return null;
   const u = data.units;
   const labels = unitLabels(u);
-  const m = { left: 44, right: 16, top: 8, bottom: 30 };
+  const m = { left: 44, right: 46, top: 8, bottom: 30 };
   const w = width - m.left - m.right;
   const h = height - m.top - m.bottom;
-  const x = niceTicks(Math.min(...diffs.map((d) => d.rpm[0])), Math.max(...diffs.map((d) => d.rpm[d.rpm.length - 1])), 7);
+  // The same rpm axis as the absolute chart above it, so the two read straight down.
+  const all = data.curves.filter((c) => c.rpm.length > 1);
+  const x = niceTicks(Math.min(...all.map((c) => c.rpm[0])), Math.max(...all.map((c) => c.rpm[c.rpm.length - 1])), 7);
   const range = differenceRange(diffs, (v) => powerIn(v, u), (v) => torqueIn(v, u));
   const y = niceTicks(range.min, range.max === range.min ? range.min + 1 : range.max, 4);
   const sx = (rpm: number) => m.left + ((rpm - x.min) / (x.max - x.min)) * w;

@@ -45,8 +45,14 @@ export function ReportDiffChart({ runs, curves, gains, units, height = 380 }: { 
     const range = differenceRange(diffs, units.p, units.t);
     const step = niceStep(range.max - range.min || 1);
     const yAxis = Array.isArray(base.yAxis) ? { ...base.yAxis[0], scale: false, min: Math.floor(range.min / step) * step, max: Math.ceil(range.max / step) * step, interval: step } : base.yAxis;
-    return { ...base, yAxis, grid: { ...(base.grid as object), right: 24, bottom: 56 }, series };
-  }, [diffs, byId, units, description]);
+    // The same rpm axis as the absolute chart beside it (whole curves, round figures).
+    const rpms = curves.flatMap((c) => (c.rpm.length ? [c.rpm[0], c.rpm[c.rpm.length - 1]] : []));
+    const lo = Math.min(...rpms);
+    const hi = Math.max(...rpms);
+    const xStep = niceStep(hi - lo);
+    const xAxis = rpms.length ? { ...(base.xAxis as object), min: Math.floor(lo / xStep) * xStep, max: Math.ceil(hi / xStep) * xStep } : base.xAxis;
+    return { ...base, xAxis, yAxis, grid: { ...(base.grid as object), right: 24, bottom: 56 }, series };
+  }, [diffs, byId, units, description, curves]);
   if (diffs.length === 0) return null;
   return (
     <div className="min-w-0">
