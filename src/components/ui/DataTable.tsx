@@ -192,7 +192,7 @@ function DataTableView<TData>({
     <div className={cn('rounded-card border border-line bg-paper-raised', className)}>
       {(extraCount > 0 || scrolls) && (
         <div className="flex flex-wrap items-center justify-between gap-2 border-b border-line px-3 py-1 text-sm text-ink-muted" data-testid="table-hint">
-          <span id={hintId} aria-live="polite">
+          <span id={hintId}>
             {scrolls ? (moreRight ? 'More columns to the right: swipe or scroll sideways →' : 'Scroll sideways to see every column ←') : ''}
           </span>
           {extraCount > 0 && (
