@@ -12,6 +12,7 @@ import { ConfigError } from '../config/env';
 import { buildDeps } from '../main';
 import { cliConfig, importFolder } from '../modules/runs/run-cli';
 import type { RunSummaryDto, UploadResult } from '@shared/schemas/run';
+import { startProgress } from './progress';
 
 const usage = 'usage: npm run import -- --bike BIKE_ID --stage "STAGE NAME" FOLDER';
 
@@ -49,9 +50,16 @@ if (!fs.existsSync(dir) || !fs.statSync(dir).isDirectory()) {
 try {
   const deps = await buildDeps(cliConfig(), { poolMax: 2 });
   try {
-    const out = await importFolder(deps, { bikeId: bike, stageName: stage, dir }, (r) => console.log(line(r)));
+    // The files importFolder reads: every plain file of the folder that is not hidden.
+    const total = fs.readdirSync(dir, { withFileTypes: true }).filter((d) => d.isFile() && !d.name.startsWith('.')).length;
+    const progress = startProgress({ total, noun: 'files' });
+    const out = await importFolder(deps, { bikeId: bike, stageName: stage, dir }, (r) => progress.tick(line(r)));
     const stored = out.results.filter((r) => r.ok || r.runId).length;
-    console.log(`\nStage "${stage}" ${out.created ? 'created' : 'existing'} (${out.stageId}); ${stored} of ${out.results.length} file(s) in the archive.`);
+    const imported = out.results.filter((r) => r.ok && !r.duplicate).length;
+    const duplicates = out.results.filter((r) => r.ok && r.duplicate).length;
+    progress.finish(
+      `\nStage "${stage}" ${out.created ? 'created' : 'existing'} (${out.stageId}); ${stored} of ${out.results.length} file(s) in the archive: ${imported} imported, ${duplicates} already there, ${stored - imported - duplicates} kept but not read, ${out.results.length - stored} not stored.`,
+    );
     process.exitCode = stored === out.results.length ? 0 : 1;
   } finally {
     await deps.orm.close();

@@ -7,23 +7,29 @@
 import { ConfigError } from '../config/env';
 import { buildDeps } from '../main';
 import { cliConfig, reprocessAll, type ReprocessLine } from '../modules/runs/run-cli';
+import { Run } from '../modules/runs/run.entity';
+import { startProgress } from './progress';
 
 const fmt = (v: unknown) => (v === null || v === undefined ? '–' : String(v));
 
-function print(line: ReprocessLine) {
+function text(line: ReprocessLine): string {
   const head = `${line.runId}  ${line.file}${line.pull ? ` (${line.pull})` : ''}`;
-  if (line.error) console.log(`${head}: NOT RE-PROCESSED — ${line.error}`);
-  else if (!line.changes.length) console.log(`${head}: unchanged (${line.status})`);
-  else console.log(`${head}: ${line.changes.map((c) => `${c.field} ${fmt(c.before)} → ${fmt(c.after)}`).join('; ')}`);
+  if (line.error) return `${head}: NOT RE-PROCESSED — ${line.error}`;
+  if (!line.changes.length) return `${head}: unchanged (${line.status})`;
+  return `${head}: ${line.changes.map((c) => `${c.field} ${fmt(c.before)} → ${fmt(c.after)}`).join('; ')}`;
 }
 
 try {
   const deps = await buildDeps(cliConfig(), { poolMax: 2 });
   try {
-    const lines = await reprocessAll(deps, print);
+    // The same rows reprocessAll pages through (the ORM's filters apply to both).
+    const total = await deps.orm.em.fork().count(Run, {});
+    const progress = startProgress({ total, noun: 'runs' });
+    // On a terminal only changes and errors are worth a line above the bar; a log gets every run.
+    const lines = await reprocessAll(deps, (line) => progress.tick(!process.stdout.isTTY || line.error || line.changes.length ? text(line) : undefined));
     const changed = lines.filter((l) => l.changes.length).length;
     const errors = lines.filter((l) => l.error).length;
-    console.log(`\n${lines.length} run(s): ${changed} changed, ${lines.length - changed - errors} unchanged, ${errors} not re-processed.`);
+    progress.finish(`\n${lines.length} run(s): ${changed} changed, ${lines.length - changed - errors} unchanged, ${errors} not re-processed.`);
   } finally {
     await deps.orm.close();
   }

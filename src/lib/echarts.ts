@@ -5,13 +5,13 @@
  * still come from 'echarts' as `import type`.
  */
 import * as echarts from 'echarts/core';
-import { LineChart } from 'echarts/charts';
+import { BarChart, BoxplotChart, LineChart, ScatterChart } from 'echarts/charts';
 import { AriaComponent, DataZoomComponent, GridComponent, LegendComponent, MarkLineComponent, TooltipComponent } from 'echarts/components';
 import { CanvasRenderer, SVGRenderer } from 'echarts/renderers';
 import ReactEChartsCore from 'echarts-for-react/esm/core';
 import type { EChartsReactProps } from 'echarts-for-react/esm/types';
 
-echarts.use([LineChart, GridComponent, TooltipComponent, LegendComponent, DataZoomComponent, MarkLineComponent, AriaComponent, CanvasRenderer, SVGRenderer]);
+echarts.use([LineChart, BarChart, ScatterChart, BoxplotChart, GridComponent, TooltipComponent, LegendComponent, DataZoomComponent, MarkLineComponent, AriaComponent, CanvasRenderer, SVGRenderer]);
 
 export { echarts };
 

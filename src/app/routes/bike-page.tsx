@@ -6,9 +6,8 @@ import { Button, EmptyState, ErrorState, Icon, LoadingState, PageHeader } from '
 import { ApiError } from '@/lib/api-client';
 import { hasRole, useCurrentUser } from '@/lib/auth';
 import { paths } from '@/config/paths';
-import { BikeDetailsCard, BikeFormDialog, bikeQueries } from '@/features/bikes';
+import { BikeDetailsCard, BikeFormDialog, BikeStageGains, bikeQueries } from '@/features/bikes';
 import { BikeBuildTimeline, BikeRunsSection } from '@/features/runs';
-import { BikeStageTimeline } from '@/features/comparisons';
 import { BikeReportsSection } from '@/features/reports';
 import { SimilarBuilds, TypicalOutcomePanel } from '@/features/finder';
 import { PutOnDyno } from '@/features/dynos';
@@ -34,6 +33,7 @@ export function BikePage() {
     if (bike.error instanceof ApiError && (bike.error.status === 404 || bike.error.status === 400)) {
       return (
         <EmptyState
+          headingLevel={1}
           title="No such bike"
           message="This bike is not on file, or it is not one you can see."
           action={
@@ -66,7 +66,7 @@ export function BikePage() {
       {/* Everything the archive holds about the bike, each section from its own feature. */}
       <div className="mt-6 space-y-6">
         {/* Gains and cost per hp live in one place (Gains by stage); Stages and parts is the editing view. */}
-        <BikeStageTimeline bikeId={b.id} />
+        <BikeStageGains bikeId={b.id} />
         <BikeBuildTimeline bikeId={b.id} />
         <BikeRunsSection bikeId={b.id} />
         <BikeReportsSection bikeId={b.id} />

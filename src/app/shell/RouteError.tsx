@@ -36,6 +36,7 @@ export function NotFoundPage() {
   usePageTitle('Not found');
   return (
     <EmptyState
+      headingLevel={1}
       title="Nothing here"
       message="That page does not exist, or you do not have access to it."
       action={<Link className="text-accent underline" to={paths.home}>Go to the start page</Link>}

@@ -7,7 +7,7 @@ export type { ButtonSize, ButtonVariant };
 
 export interface ButtonProps extends ComponentProps<'button'> {
   variant?: ButtonVariant;
-  /** sm 40 px, md 44 px, lg 48 px tall — never below the 40 px touch target. */
+  /** sm and md 44 px, lg 48 px tall — never below the 44 px touch target (WCAG 2.5.5). */
   size?: ButtonSize;
   /** Shows a spinner, sets aria-busy and blocks clicks while keeping the label readable. */
   loading?: boolean;

@@ -29,7 +29,7 @@ export function CheckboxField({
     <div className={cn('flex flex-col', containerClassName)}>
       <label
         htmlFor={f.controlId}
-        className="flex min-h-10 cursor-pointer items-start gap-3 py-2 has-[:disabled]:cursor-not-allowed has-[:disabled]:opacity-60"
+        className="flex min-h-11 cursor-pointer items-start gap-3 py-2 has-[:disabled]:cursor-not-allowed has-[:disabled]:opacity-60"
       >
         <input
           type="checkbox"

@@ -1,4 +1,4 @@
-import type { ReactNode } from 'react';
+import { useEffect, useId, useRef, useState, type ReactNode, type RefObject } from 'react';
 import {
   flexRender,
   getCoreRowModel,
@@ -28,6 +28,12 @@ declare module '@tanstack/react-table' {
     wrap?: boolean;
     headerClassName?: string;
     cellClassName?: string;
+    /**
+     * How much the column matters on a narrow screen. "key": always shown, and the first key
+     * column stays put while the table scrolls sideways. "extra": left out below 1024 px (a
+     * tablet) until the reader asks for every column. Default: always shown.
+     */
+    priority?: 'key' | 'extra';
   }
 }
 
@@ -123,6 +129,41 @@ function ariaSort(header: Header<unknown, unknown>): 'ascending' | 'descending' 
 
 const alignClass = { left: 'text-left', center: 'text-center', right: 'text-right' } as const;
 
+/** Classes a column's priority adds to its header and cells: extras hide below lg, the first key column sticks to the left. */
+export function priorityClass(priority: 'key' | 'extra' | undefined, opts: { showExtras: boolean; sticky: boolean; header: boolean }): string {
+  const parts: string[] = [];
+  if (priority === 'extra' && !opts.showExtras) parts.push('max-lg:hidden');
+  if (priority === 'key' && opts.sticky) parts.push('sticky left-0', opts.header ? 'z-20 bg-paper-sunk' : 'z-[5] bg-paper-raised', 'border-r border-line');
+  return parts.join(' ');
+}
+
+/**
+ * Whether the box scrolls sideways and whether more lies to the right, kept current on resize and
+ * scroll, so the table can say so in words (a sideways scroll has no scroll bar on a tablet).
+ */
+function useSidewaysScroll(ref: RefObject<HTMLDivElement | null>) {
+  const [state, setState] = useState({ scrolls: false, moreRight: false });
+  useEffect(() => {
+    const el = ref.current;
+    if (!el) return;
+    const update = () => {
+      const scrolls = el.scrollWidth > el.clientWidth + 1;
+      const moreRight = scrolls && el.scrollLeft + el.clientWidth < el.scrollWidth - 1;
+      setState((s) => (s.scrolls === scrolls && s.moreRight === moreRight ? s : { scrolls, moreRight }));
+    };
+    update();
+    el.addEventListener('scroll', update, { passive: true });
+    const observer = typeof ResizeObserver === 'undefined' ? null : new ResizeObserver(update);
+    observer?.observe(el);
+    if (el.firstElementChild) observer?.observe(el.firstElementChild);
+    return () => {
+      el.removeEventListener('scroll', update);
+      observer?.disconnect();
+    };
+  }, [ref]);
+  return state;
+}
+
 function DataTableView<TData>({
   table,
   caption,
@@ -139,15 +180,36 @@ function DataTableView<TData>({
   const columnCount = table.getVisibleLeafColumns().length || 1;
   const { pagination } = table.getState();
   const paged = showPagination ?? Boolean(table.options.manualPagination || table.options.getPaginationRowModel);
+  const scrollRef = useRef<HTMLDivElement>(null);
+  const { scrolls, moreRight } = useSidewaysScroll(scrollRef);
+  const [showExtras, setShowExtras] = useState(false);
+  const leafColumns = table.getVisibleLeafColumns();
+  const extraCount = leafColumns.filter((c) => c.columnDef.meta?.priority === 'extra').length;
+  const stickyId = leafColumns.find((c) => c.columnDef.meta?.priority === 'key')?.id;
+  const hintId = `${useId()}-hint`;
 
   return (
     <div className={cn('rounded-card border border-line bg-paper-raised', className)}>
+      {(extraCount > 0 || scrolls) && (
+        <div className="flex flex-wrap items-center justify-between gap-2 border-b border-line px-3 py-1 text-sm text-ink-muted" data-testid="table-hint">
+          <span id={hintId}>
+            {scrolls ? (moreRight ? 'More columns to the right: swipe or scroll sideways →' : 'Scroll sideways to see every column ←') : ''}
+          </span>
+          {extraCount > 0 && (
+            <button type="button" onClick={() => setShowExtras((v) => !v)} aria-pressed={showExtras} className="focus-ring min-h-11 rounded-control px-2 font-semibold text-accent hover:underline lg:hidden">
+              {showExtras ? 'Fewer columns' : `All columns (${extraCount} more)`}
+            </button>
+          )}
+        </div>
+      )}
       {/* Focusable so keyboard users can scroll a wide table sideways. */}
       <div
+        ref={scrollRef}
         role="region"
         aria-label={caption}
+        aria-describedby={scrolls ? hintId : undefined}
         tabIndex={0}
-        className="overflow-auto overscroll-x-contain rounded-card"
+        className={cn('relative overflow-auto overscroll-x-contain rounded-card', moreRight && 'shadow-[inset_-12px_0_10px_-10px_rgb(30_28_25/0.25)]')}
         style={maxHeight ? { maxHeight } : undefined}
       >
         <table className="min-w-full border-separate border-spacing-0 text-left text-sm" aria-busy={isLoading || undefined}>
@@ -173,6 +235,7 @@ function DataTableView<TData>({
                       className={cn(
                         'sticky top-0 z-10 whitespace-nowrap border-b border-line-strong bg-paper-sunk px-3 py-2 font-semibold text-ink-muted',
                         alignClass[align],
+                        priorityClass(meta?.priority, { showExtras, sticky: header.column.id === stickyId, header: true }),
                         meta?.headerClassName,
                       )}
                     >
@@ -181,7 +244,7 @@ function DataTableView<TData>({
                           type="button"
                           onClick={header.column.getToggleSortingHandler()}
                           className={cn(
-                            '-mx-2 inline-flex min-h-10 items-center gap-1 rounded-control px-2 font-semibold hover:bg-line hover:text-ink',
+                            '-mx-2 inline-flex min-h-11 items-center gap-1 rounded-control px-2 font-semibold hover:bg-line hover:text-ink',
                             align === 'right' && 'flex-row-reverse',
                             sorted && 'text-ink',
                           )}
@@ -231,6 +294,7 @@ function DataTableView<TData>({
                           alignClass[align],
                           meta?.numeric && 'num',
                           meta?.wrap ? 'min-w-48' : 'whitespace-nowrap',
+                          priorityClass(meta?.priority, { showExtras, sticky: cell.column.id === stickyId, header: false }),
                           meta?.cellClassName,
                         )}
                       >

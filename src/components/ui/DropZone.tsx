@@ -180,7 +180,7 @@ export function DropZone({
             {!disabled && (
               <button
                 type="button"
-                className="min-h-10 px-2 font-semibold text-accent hover:text-accent-hover"
+                className="min-h-11 px-2 font-semibold text-accent hover:text-accent-hover"
                 onClick={() => {
                   onFilesChange([]);
                   setSkipped([]);

@@ -9,7 +9,7 @@ export interface IconButtonProps extends Omit<ComponentProps<'button'>, 'childre
   /** The icon, e.g. `<Icon name="x" />`. */
   icon: ReactNode;
   variant?: ButtonVariant;
-  /** sm 40 px, md 44 px square. */
+  /** Kept for callers; both are 44 px square now (the smallest touch target on the bay tablet). */
   size?: 'sm' | 'md';
   loading?: boolean;
 }
@@ -18,7 +18,7 @@ export function IconButton({
   label,
   icon,
   variant = 'ghost',
-  size = 'md',
+  size: _size = 'md',
   loading = false,
   type = 'button',
   title,
@@ -36,7 +36,7 @@ export function IconButton({
       aria-disabled={loading || disabled || undefined}
       aria-busy={loading || undefined}
       onClick={loading ? (event) => event.preventDefault() : onClick}
-      className={cn(buttonBaseClass, buttonVariantClass[variant], size === 'sm' ? 'size-10' : 'size-11', 'p-0', className)}
+      className={cn(buttonBaseClass, buttonVariantClass[variant], 'size-11', 'p-0', className)}
       {...rest}
     >
       {loading ? <Spinner size={18} /> : icon}

@@ -65,7 +65,7 @@ export function Pagination({
               value={pageSize}
               disabled={disabled}
               onChange={(event) => onPageSizeChange(Number(event.target.value))}
-              className="num min-h-10 rounded-control border border-line-strong bg-paper-raised px-2 text-ink"
+              className="num min-h-11 rounded-control border border-line-strong bg-paper-raised px-2 text-ink"
             >
               {pageSizeOptions.map((size) => (
                 <option key={size} value={size}>

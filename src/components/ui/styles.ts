@@ -35,7 +35,7 @@ export const buttonVariantClass: Record<ButtonVariant, string> = {
 };
 
 export const buttonSizeClass: Record<ButtonSize, string> = {
-  sm: 'min-h-10 px-3 text-sm gap-1.5',
+  sm: 'min-h-11 px-3 text-sm gap-1.5',
   md: 'min-h-11 px-4 text-base gap-2',
   lg: 'min-h-12 px-5 text-lg gap-2',
 };

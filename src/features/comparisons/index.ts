@@ -1,4 +1,3 @@
 /** What the comparisons feature offers other screens (composed in src/app/routes). */
-export { BikeStageTimeline } from './components/bike-stage-timeline';
 export { ComparisonView } from './components/comparison-view';
 export { comparisonQueries } from './api/comparison-queries';

@@ -12,6 +12,7 @@ import { headlineGain, type ReportData } from '../report-data';
 import { costCoverage } from '@shared/schemas/report';
 import { formatAirTemperature, formatBarometric } from '@shared/units-display';
 import { LegendSwatch, OverlayChart } from './chart';
+import { DifferenceChart } from './diff-chart';
 import { PDF_FONT } from './fonts';
 
 export interface ReportLogo {
@@ -222,6 +223,7 @@ export function GainReportDocument({ data, logo }: { data: ReportData; logo?: Re
             <Text style={[s.subtle, { fontSize: 8 }]}>{`power ${labels.power} solid · torque ${labels.torque} dashed`}</Text>
           </View>
         </View>
+        <DifferenceChart data={data} width={contentWidth} height={140} />
 
         <Section title="Gain figures">
           <Table

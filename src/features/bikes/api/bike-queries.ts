@@ -2,8 +2,9 @@ import { keepPreviousData, queryOptions } from '@tanstack/react-query';
 import type { BikeDto } from '@shared/schemas/bike';
 import type { Page } from '@shared/schemas/common';
 import type { CustomerDto } from '@shared/schemas/customer';
+import type { StageTimelineDto } from '@shared/schemas/comparison';
 import { api } from '@/lib/api-client';
-import { bikeKeys, customerKeys } from '@/lib/query-keys';
+import { bikeKeys, comparisonKeys, customerKeys } from '@/lib/query-keys';
 
 /** A page of the bike table as the server sorts and filters it. `sort` is "make" or "-make". */
 export interface BikeListFilters {
@@ -28,6 +29,15 @@ export const bikeQueries = {
     queryOptions({
       queryKey: bikeKeys.detail(id),
       queryFn: () => api.get<BikeDto>(`/api/bikes/${id}`),
+    }),
+  /**
+   * The bike's stages with gains and cost per hp (the comparisons module computes them). Under the
+   * comparisons' timeline key, so whatever refreshes the timeline (uploads, re-tagging) refreshes this.
+   */
+  stageGains: (bikeId: string) =>
+    queryOptions({
+      queryKey: comparisonKeys.timeline(bikeId),
+      queryFn: () => api.get<StageTimelineDto>('/api/comparisons/timeline', { bikeId }),
     }),
   /** Engine families already used in this shop, most common first — suggestions for the form. */
   engineFamilies: () =>

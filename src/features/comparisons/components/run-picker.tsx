@@ -15,6 +15,8 @@ export interface RunPickerProps {
   colourOf: (runId: string) => string | undefined;
 }
 
+const touchTarget = 'inline-flex size-11 cursor-pointer items-center justify-center has-[:disabled]:cursor-not-allowed';
+
 /** A bike's runs with a "compare" checkbox and a "baseline" radio each — native controls, so keyboard and touch work. */
 export function RunPicker({ bikeId, selected, baselineRunId, onToggle, onBaseline, onRemoveBike, colourOf }: RunPickerProps) {
   const q = useQuery(comparisonQueries.candidates(bikeId));
@@ -43,26 +45,31 @@ export function RunPicker({ bikeId, selected, baselineRunId, onToggle, onBaselin
             const colour = colourOf(r.id);
             return (
               <tr key={r.id} className={cn('border-t border-line', on && 'bg-accent-soft/40', !ready && 'text-ink-subtle')}>
-                <td className="px-3 py-2">
-                  <input
-                    type="checkbox"
-                    className="focus-ring h-5 w-5 accent-accent"
-                    aria-label={`Compare ${r.name}`}
-                    checked={on}
-                    disabled={!ready || (!on && full)}
-                    onChange={(e) => onToggle(r.id, e.target.checked)}
-                  />
+                {/* The whole 44 px square around each control takes the tap (bay tablet, gloved hands). */}
+                <td className="px-1 py-0">
+                  <label className={touchTarget}>
+                    <input
+                      type="checkbox"
+                      className="focus-ring size-6 accent-accent"
+                      aria-label={`Compare ${r.name}`}
+                      checked={on}
+                      disabled={!ready || (!on && full)}
+                      onChange={(e) => onToggle(r.id, e.target.checked)}
+                    />
+                  </label>
                 </td>
-                <td className="px-3 py-2">
-                  <input
-                    type="radio"
-                    name="baseline-run"
-                    className="focus-ring h-5 w-5 accent-accent"
-                    aria-label={`Use ${r.name} as the baseline`}
-                    checked={baselineRunId === r.id}
-                    disabled={!on}
-                    onChange={() => onBaseline(r.id)}
-                  />
+                <td className="px-1 py-0">
+                  <label className={touchTarget}>
+                    <input
+                      type="radio"
+                      name="baseline-run"
+                      className="focus-ring size-6 accent-accent"
+                      aria-label={`Use ${r.name} as the baseline`}
+                      checked={baselineRunId === r.id}
+                      disabled={!on}
+                      onChange={() => onBaseline(r.id)}
+                    />
+                  </label>
                 </td>
                 <th scope="row" className="px-3 py-2 text-left font-medium">
                   <span className="inline-flex items-center gap-2">

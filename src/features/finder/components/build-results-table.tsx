@@ -27,6 +27,7 @@ export function BuildResultsTable({ items, sort, onSortChange, isLoading, emptyM
         id: 'bike',
         header: 'Bike',
         enableSorting: false,
+        meta: { priority: 'key' },
         cell: ({ row }) => (
           <Link to={paths.bike(row.original.bikeId)} className="font-semibold text-accent underline-offset-2 hover:underline">
             {row.original.year ? `${row.original.year} ` : ''}
@@ -34,8 +35,8 @@ export function BuildResultsTable({ items, sort, onSortChange, isLoading, emptyM
           </Link>
         ),
       }),
-      col.accessor('engineFamily', { header: 'Engine', enableSorting: false, cell: (c) => c.getValue() ?? '—' }),
-      col.accessor('displacementCc', { header: 'Displacement', enableSorting: false, meta: { numeric: true }, cell: (c) => formatDisplacement(c.getValue()) }),
+      col.accessor('engineFamily', { header: 'Engine', enableSorting: false, meta: { priority: 'extra' }, cell: (c) => c.getValue() ?? '—' }),
+      col.accessor('displacementCc', { header: 'Displacement', enableSorting: false, meta: { numeric: true, priority: 'extra' }, cell: (c) => formatDisplacement(c.getValue()) }),
       col.accessor('stageName', { header: 'Stage', enableSorting: false }),
       col.accessor('parts', {
         header: 'Build',
@@ -44,8 +45,8 @@ export function BuildResultsTable({ items, sort, onSortChange, isLoading, emptyM
         cell: (c) => [...new Set(c.getValue().map((p) => categoryLabel(p.category)))].join(', ') || '—',
       }),
       col.accessor('peakPowerGainHp', { id: 'gain', header: 'Peak gain', meta: { numeric: true }, cell: (c) => formatGain(c.getValue()) }),
-      col.accessor('averagePowerGainHp', { header: 'Average gain', enableSorting: false, meta: { numeric: true }, cell: (c) => formatGain(c.getValue()) }),
-      col.accessor('areaGainPct', { header: 'Area gain', enableSorting: false, meta: { numeric: true }, cell: (c) => (c.getValue() === null ? '—' : `${formatNumber(c.getValue(), { decimals: 1, signed: true })} %`) }),
+      col.accessor('averagePowerGainHp', { header: 'Average gain', enableSorting: false, meta: { numeric: true, priority: 'extra' }, cell: (c) => formatGain(c.getValue()) }),
+      col.accessor('areaGainPct', { header: 'Area gain', enableSorting: false, meta: { numeric: true, priority: 'extra' }, cell: (c) => (c.getValue() === null ? '—' : `${formatNumber(c.getValue(), { decimals: 1, signed: true })} %`) }),
       col.accessor('cumulativeCostCents', { header: 'Build cost', enableSorting: false, meta: { numeric: true }, cell: (c) => formatMoney(c.getValue(), { minorUnits: true, wholeUnits: true }) }),
       col.accessor('date', { id: 'date', header: 'Date', meta: { numeric: true }, cell: (c) => formatDate(c.getValue()) }),
       col.accessor('score', { id: 'score', header: 'Match', meta: { numeric: true }, cell: (c) => formatNumber(c.getValue(), { decimals: 2 }) }),

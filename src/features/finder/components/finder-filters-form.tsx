@@ -103,8 +103,8 @@ export function FinderFiltersForm({ initial, onSearch, busy }: FinderFiltersForm
         <legend className="mb-1 text-sm font-semibold text-ink">The build has (all of)</legend>
         <div className="flex flex-wrap gap-x-4 gap-y-2">
           {PART_CATEGORIES.map((c) => (
-            <label key={c} className="inline-flex min-h-10 items-center gap-2 text-sm text-ink">
-              <input type="checkbox" value={c} className="size-4 accent-accent" {...form.register('parts')} />
+            <label key={c} className="inline-flex min-h-11 items-center gap-2 text-sm text-ink">
+              <input type="checkbox" value={c} className="size-5 accent-accent" {...form.register('parts')} />
               {categoryLabel(c)}
             </label>
           ))}

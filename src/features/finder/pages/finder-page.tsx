@@ -5,6 +5,7 @@ import { formatCount } from '@shared/format';
 import { finderQueries, type FinderFilters } from '../api/finder-queries';
 import { FinderFiltersForm } from '../components/finder-filters-form';
 import { BuildResultsTable, type BuildSort } from '../components/build-results-table';
+import { FinderCharts } from '../components/finder-charts';
 import { usePageTitle } from '@/lib/page-title';
 
 /** Build finder: search the shop's past builds; filters live in the URL so a search can be shared. */
@@ -39,6 +40,7 @@ export default function FinderPage() {
           <EmptyState title="No builds match" message="Loosen a filter, or check the spelling of the engine family." />
         ) : (
           <>
+            <FinderCharts items={items} />
             <BuildResultsTable items={items} sort={sort} onSortChange={(s) => setParams({ ...filters, sort: s })} isLoading={query.isFetching && !query.isFetchingNextPage} />
             {query.hasNextPage && (
               <div>

@@ -7,7 +7,7 @@ import { hasRole, useAuth } from '@/lib/auth';
 import { formatDate, formatDateTime } from '@shared/format';
 import { reportQueries } from '../api/report-queries';
 import { ReportRunsCard } from '../components/report-runs';
-import { ReportChart } from '../components/report-chart';
+import { ReportCharts } from '../components/report-charts';
 import { HeadlineFigures } from '../components/gain-figures';
 import { SendReportDialog } from '../components/send-dialog';
 import { SharePanel } from '../components/share-panel';
@@ -133,7 +133,7 @@ export default function ReportPage() {
       </div>
 
       <Card title="Chart">
-        <ReportChart runs={r.data.runs} curves={r.data.curves} units={units} summary={r.data.summary} />
+        <ReportCharts runs={r.data.runs} curves={r.data.curves} gains={r.data.gains} units={units} summary={r.data.summary} />
       </Card>
       <ReportRunsCard runs={r.data.runs} units={units} />
       {staff ? <SendReportDialog key={String(sendOpen)} report={r} open={sendOpen} onClose={closeSend} onSent={setSentLink} /> : null}

@@ -4,7 +4,7 @@ import { Caution, LoadingState, buttonBaseClass, buttonSizeClass, buttonVariantC
 import { ApiError } from '@/lib/api-client';
 import { formatDate, formatRpm } from '@shared/format';
 import { reportQueries } from '../api/report-queries';
-import { ReportChart } from '../components/report-chart';
+import { ReportCharts } from '../components/report-charts';
 import { HeadlineFigures } from '../components/gain-figures';
 import { powerValue, torqueValue, displayUnits } from '@shared/units-display';
 import { usePageTitle } from '@/lib/page-title';
@@ -62,9 +62,9 @@ export default function SharePage() {
       ) : null}
       <section aria-labelledby="chart-title" className="rounded-card border border-line bg-paper-raised p-4">
         <h2 id="chart-title" className="mt-0 text-lg font-semibold">
-          Power and torque
+          Charts
         </h2>
-        <ReportChart runs={s.runs} curves={s.curves} units={units} summary={s.summary} />
+        <ReportCharts runs={s.runs} curves={s.curves} gains={s.gains} units={units} summary={s.summary} />
       </section>
       <section aria-labelledby="runs-title">
         <h2 id="runs-title" className="text-lg font-semibold">

@@ -1,0 +1,74 @@
+/**
+ * The PDF's second chart, under the absolute curves: each run minus the baseline at every rpm
+ * (power solid, torque dashed, in the run's colour) around a zero line, from the same stored
+ * curves as the screen's difference chart (@shared/curve-difference).
+ */
+import { G, Line, Polyline, Rect, Svg, Text, View } from '@react-pdf/renderer';
+import { LINE_DASHARRAY, LINE_STYLES, runColor } from '@shared/run-style';
+import { palette } from '@shared/theme';
+import { formatNumber } from '@shared/format';
+import { differenceFromBaseline, differenceRange } from '@shared/curve-difference';
+import { powerIn, torqueIn, unitLabels } from '../figures';
+import type { ReportData } from '../report-data';
+import { niceTicks } from './chart';
+
+const FONT = 'Barlow';
+
+/** The difference chart with its title line; nothing when the report has no baseline or no other run. */
+export function DifferenceChart({ data, width, height }: { data: Pick<ReportData, 'runs' | 'curves' | 'units'>; width: number; height: number }) {
+  const baseline = data.runs.find((r) => r.isBaseline);
+  const diffs = baseline ? differenceFromBaseline(data.curves, baseline.id) : [];
+  if (!baseline || diffs.length === 0) return null;
+  const u = data.units;
+  const labels = unitLabels(u);
+  const m = { left: 44, right: 46, top: 8, bottom: 30 };
+  const w = width - m.left - m.right;
+  const h = height - m.top - m.bottom;
+  // The same rpm axis as the absolute chart above it, so the two read straight down.
+  const all = data.curves.filter((c) => c.rpm.length > 1);
+  const x = niceTicks(Math.min(...all.map((c) => c.rpm[0])), Math.max(...all.map((c) => c.rpm[c.rpm.length - 1])), 7);
+  const range = differenceRange(diffs, (v) => powerIn(v, u), (v) => torqueIn(v, u));
+  const y = niceTicks(range.min, range.max === range.min ? range.min + 1 : range.max, 4);
+  const sx = (rpm: number) => m.left + ((rpm - x.min) / (x.max - x.min)) * w;
+  const sy = (v: number) => m.top + h - ((v - y.min) / (y.max - y.min)) * h;
+  const colorOf = new Map(data.runs.map((r) => [r.id, runColor(r.colorIndex)]));
+  const tick = { fontFamily: FONT, fontSize: 7.5, fill: palette.ink.muted } as const;
+  const pts = (rpm: number[], values: number[]) => rpm.map((r, i) => `${sx(r).toFixed(2)},${sy(values[i]).toFixed(2)}`).join(' ');
+  return (
+    <View wrap={false} style={{ marginTop: 8 }}>
+      <Text style={{ fontFamily: FONT, fontSize: 9, fontWeight: 600, color: palette.ink.DEFAULT, marginBottom: 2 }}>
+        {`Difference from the baseline (${baseline.label}): above the line more, below less`}
+      </Text>
+      <Svg width={width} height={height} viewBox={`0 0 ${width} ${height}`}>
+        <Rect x={m.left} y={m.top} width={w} height={h} fill="#FFFFFF" stroke={palette.line.DEFAULT} strokeWidth={0.6} />
+        {y.ticks.map((v) => (
+          <G key={`y${v}`}>
+            <Line x1={m.left} x2={m.left + w} y1={sy(v)} y2={sy(v)} stroke={palette.line.DEFAULT} strokeWidth={0.5} />
+            <Text x={m.left - 5} y={sy(v) + 2.6} textAnchor="end" style={tick}>
+              {formatNumber(v, { signed: v !== 0 })}
+            </Text>
+          </G>
+        ))}
+        {x.ticks.map((v) => (
+          <G key={`x${v}`}>
+            <Line x1={sx(v)} x2={sx(v)} y1={m.top} y2={m.top + h} stroke={palette.line.DEFAULT} strokeWidth={0.5} strokeDasharray="2 2" />
+            <Text x={sx(v)} y={m.top + h + 11} textAnchor="middle" style={tick}>
+              {formatNumber(v)}
+            </Text>
+          </G>
+        ))}
+        {/* the baseline itself: zero difference */}
+        <Line x1={m.left} x2={m.left + w} y1={sy(0)} y2={sy(0)} stroke={palette.ink.DEFAULT} strokeWidth={1} />
+        {diffs.map((d) => (
+          <Polyline key={`t${d.runId}`} points={pts(d.rpm, d.torqueLbft.map((v) => torqueIn(v, u)))} fill="none" stroke={colorOf.get(d.runId) ?? palette.ink.DEFAULT} strokeWidth={LINE_STYLES.torque.width * 0.55} strokeDasharray={LINE_DASHARRAY.torque} strokeLinejoin="round" />
+        ))}
+        {diffs.map((d) => (
+          <Polyline key={`p${d.runId}`} points={pts(d.rpm, d.powerHp.map((v) => powerIn(v, u)))} fill="none" stroke={colorOf.get(d.runId) ?? palette.ink.DEFAULT} strokeWidth={LINE_STYLES.power.width * 0.55} strokeLinejoin="round" />
+        ))}
+        <Text x={m.left + w / 2} y={height - 4} textAnchor="middle" style={{ fontFamily: FONT, fontSize: 8.5, fill: palette.ink.muted }}>
+          {`Engine speed (rpm) · power ${labels.power} solid, torque ${labels.torque} dashed`}
+        </Text>
+      </Svg>
+    </View>
+  );
+}
