@@ -1,7 +1,8 @@
 /**
  * Use case: send a plan to the customer. Each send is a new version: the prediction is refreshed,
- * the deposit is fixed from the shop's rule, the quote PDF is stored and mailed (through the same
- * mailer as gain reports) with a new plan link, and the version row freezes what was sent.
+ * the deposit is fixed from the shop's rule, the quote PDF is stored and mailed with a new plan link
+ * (queued in the same transaction as the version row, through the durable mail queue like every
+ * other message), and the version row freezes what was sent.
  */
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { z } from 'zod';
@@ -18,6 +19,8 @@ import { Plan, PlanVersion } from './plan.entity';
 import { findPlan, newPlanToken, requireStatus, toPlanDto } from './plan-access';
 import { predictPlan } from './plan-prediction';
 import { renderPlanQuote } from './pdf/plan-quote';
+import { enqueueMail } from '../../lib/mail/mail-queue';
+import { clip, fitSubject } from '../../lib/mail/mail-text';
 
 export const planLinkUrl = (deps: AppDeps, token: string) => `${deps.config.PUBLIC_URL.replace(/\/$/, '')}/plan/${token}`;
 
@@ -65,12 +68,6 @@ export async function sendPlan(deps: AppDeps, em: EntityManager, actor: Actor, i
     `Hello ${first},\n\nHere is our plan for your ${bikeLabel(b)}: ${plan.title}. The quote is attached as a PDF.\n\n` +
     `Review it, accept it with your name${depositCents ? ' and pay the deposit' : ''} here (open until ${validUntil.toISOString().slice(0, 10)}):\n${url}\n\n` +
     `The expected gain is what similar builds measured in our shop in the past, not a promise.\n\nThank you,\n${shop.name}`;
-  try {
-    await deps.mailer.send({ shopId: actor.shopId, to, subject: `Build plan for your ${bikeLabel(b)} — ${shop.name}`, text, attachments: [{ filename: `build-plan-v${version}.pdf`, content: pdf, contentType: 'application/pdf' }] });
-  } catch (e) {
-    throw new AppError('MAIL_FAILED', `The plan could not be sent: ${e instanceof Error ? e.message : String(e)}`, 502);
-  }
-
   await em.transactional(async (tx) => {
     const p = await tx.findOneOrFail(Plan, plan.id);
     Object.assign(p, { status: 'sent', version, sentAt, validUntil, linkTokenHash: hash, depositCents, prediction, updatedAt: sentAt });
@@ -88,6 +85,18 @@ export async function sendPlan(deps: AppDeps, em: EntityManager, actor: Actor, i
       pdfKey,
     } as PlanVersion);
     await recordAudit(tx, actor, 'plan.send', 'plan', p.id, { version, to, totalCostCents: p.totalCostCents, depositCents });
+    await enqueueMail(tx, {
+      shopId: actor.shopId,
+      kind: 'plan',
+      key: `plan:${p.id}:v${version}`,
+      to,
+      // A 100-character make and model must still give a subject within limits (mail-text.ts).
+      subject: fitSubject(`Build plan for your ${clip(bikeLabel(b), 70)} — ${clip(shop.name, 40)}`),
+      text,
+      fromName: shop.name,
+      replyTo: shop.email ?? undefined,
+      attachments: [{ filename: `build-plan-v${version}.pdf`, contentType: 'application/pdf', storageKey: pdfKey }],
+    });
   });
   em.clear();
   return { plan: await toPlanDto(em, await findPlan(em, actor, id)), to, url };
