@@ -54,7 +54,7 @@ export async function listSessionRows(em: EntityManager, actor: Actor, query: { 
     left join app_user sc on sc.id = s.safety_confirmed_by_id
    order by s.started_at desc, s.id asc`;
   const rows = (await em.getConnection().execute(sql, where.params)) as SessionListRow[];
-  const { total, exact } = await boundedTotal(em, where.sql, where.params, { atLeast: rows.length });
+  const { total, exact } = await boundedTotal(em, where.sql, where.params, { atLeast: rows.length, orderBy: 's.started_at desc, s.id asc' });
   const items = rows.map((s): SessionDto => ({
     id: s.id,
     bikeId: s.bike_id,
