@@ -74,6 +74,8 @@ describe('query plans (EXPLAIN on 20 000 runs)', () => {
       [{ q: 'zephyrtag' }, 'run_search_trgm'],
       [{ bikeId: shop.bike.id }, 'Index'],
       [{ status: 'failed' }, 'run_list_status'],
+      // A customer's bikes, then their runs from the bike index (never a walk of the whole order index).
+      [{ customerId: shop.otherBike.customer.id }, 'run_shop_id_bike_id_created_at_index'],
     ];
     for (const [query, index] of cases) {
       const p = await plan(owner, query);
