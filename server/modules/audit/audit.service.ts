@@ -36,7 +36,7 @@ export async function recordAudit(em: EntityManager, actor: Actor, action: strin
  * The newest entries, a page at a time; `kinds` narrows to actions whose first part is one of
  * them ("run" → run.upload, run.delete…). Keyset paging: `nextCursor` is the time of the last entry
  * on a full page (pass it back as `before`), null when there is nothing older. `total` counts every
- * entry matching `kinds` exactly up to 1 000, beyond that it is an estimate (`totalIsEstimate`).
+ * entry matching `kinds` exactly up to 200, beyond that it is an estimate (`totalIsEstimate`).
  * `page` stays 1: keyset paging has no page numbers.
  */
 export async function listAudit(em: EntityManager, actor: Actor, opts: { before?: string; limit: number; kinds?: string[] }): Promise<Page<AuditEntryDto>> {
@@ -46,9 +46,9 @@ export async function listAudit(em: EntityManager, actor: Actor, opts: { before?
     tenantScope<AuditEntry>(actor, undefined, { ...(opts.before ? { createdAt: { $lt: new Date(opts.before) } } : {}), ...byKind }),
     { orderBy: { createdAt: 'desc' }, limit: opts.limit, populate: ['user'] },
   );
-  // Exact up to 1 000 entries, else the planner's estimate (a shop's log grows with every change).
+  // Exact up to 200 entries, else the planner's estimate (a shop's log grows with every change).
   const kindSql = opts.kinds?.length ? ` and (${opts.kinds.map(() => `action like ?`).join(' or ')})` : '';
-  const { total, exact } = await boundedTotal(em, `from audit_entry where shop_id = ?${kindSql}`, [actor.shopId, ...(opts.kinds ?? []).map((k) => `${escapeLike(k)}.%`)], { atLeast: rows.length });
+  const { total, exact } = await boundedTotal(em, `from audit_entry where shop_id = ?${kindSql}`, [actor.shopId, ...(opts.kinds ?? []).map((k) => `${escapeLike(k)}.%`)], { atLeast: rows.length, orderBy: 'created_at desc' });
   const items = rows.map((r) => ({
     id: r.id,
     at: r.createdAt.toISOString(),

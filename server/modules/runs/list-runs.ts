@@ -6,7 +6,7 @@ import { bikeLabel } from '@shared/labels';
 import type { Page } from '@shared/schemas/common';
 import type { CorrectionId, RunStatusId, RunSummaryDto } from '@shared/schemas/run';
 import { boundedTotal } from '../../db/bounded-total';
-import { encodeCursor, pageSql, totalFromWhere, type RunListQuery, type RunListRow } from './run-list-sql';
+import { encodeCursor, orderBy, pageSql, totalFromWhere, type RunListQuery, type RunListRow } from './run-list-sql';
 
 export type { RunListQuery } from './run-list-sql';
 
@@ -61,8 +61,8 @@ export async function listRuns(em: EntityManager, actor: Actor, query: RunListQu
   const nextCursor = more && last ? encodeCursor({ sort: spec.name, key: last.sort_key, createdAt: last.created_at_text, id: last.id }) : null;
   const page = query.cursor ? 1 : query.page;
   const before = query.cursor ? 0 : (query.page - 1) * query.pageSize;
-  // Exact up to 1 000 matches (a bounded walk), else the planner's estimate, flagged.
+  // Exact up to 200 matches (a bounded walk of the page's own index), else the planner's estimate, flagged.
   const all = totalFromWhere(actor, query);
-  const { total, exact } = await boundedTotal(em, all.sql, all.params, { atLeast: before + shown.length + (more ? 1 : 0) });
+  const { total, exact } = await boundedTotal(em, all.sql, all.params, { orderBy: orderBy(spec), atLeast: before + shown.length + (more ? 1 : 0) });
   return { items: shown.map(toRunListItem), total, ...(exact ? {} : { totalIsEstimate: true }), page, pageSize: query.pageSize, nextCursor };
 }

@@ -86,9 +86,13 @@ export function whereOf(sql: Sql, actor: Actor, query: RunListQuery): string {
   const and = [`r.shop_id = ${sql.p(shopId)}`];
   const withDeleted = query.includeDeleted === true && actor.role === 'owner';
   if (!withDeleted) and.push('r.deleted_at is null');
-  if (customerId !== null) and.push(`r.bike_id in (select b.id from bike b where b.shop_id = r.shop_id and b.customer_id = ${sql.p(customerId)})`);
+  // A customer's bikes as an array computed once (= ANY of an InitPlan): the planner then reads
+  // those bikes' runs from the bike index. Written as IN (subquery) it walks the whole order
+  // index testing every run (seconds at 250 000 runs a shop).
+  const bikesOf = (customer: string) => `r.bike_id = any(array(select b.id from bike b where b.shop_id = ${sql.p(shopId)} and b.customer_id = ${sql.p(customer)}))`;
+  if (customerId !== null) and.push(bikesOf(customerId));
   if (query.bikeId) and.push(`r.bike_id = ${sql.p(query.bikeId)}`);
-  if (query.customerId) and.push(`r.bike_id in (select b.id from bike b where b.shop_id = r.shop_id and b.customer_id = ${sql.p(query.customerId)})`);
+  if (query.customerId) and.push(bikesOf(query.customerId));
   if (query.stageId) and.push(`r.stage_id = ${sql.p(query.stageId)}`);
   if (query.sessionId) and.push(`r.session_id = ${sql.p(query.sessionId)}`);
   if (query.status) and.push(`r.status = ${sql.p(query.status)}`);

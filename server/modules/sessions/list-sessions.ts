@@ -38,7 +38,7 @@ export function sessionFromWhere(actor: Actor, query: { bikeId?: string }): { sq
   const s = new Sql();
   const { shopId, customerId } = tenantParams(actor);
   const and = [`s.shop_id = ${s.p(shopId)}`];
-  if (customerId !== null) and.push(`s.bike_id in (select b.id from bike b where b.shop_id = s.shop_id and b.customer_id = ${s.p(customerId)})`);
+  if (customerId !== null) and.push(`s.bike_id = any(array(select b.id from bike b where b.shop_id = ${s.p(shopId)} and b.customer_id = ${s.p(customerId)}))`);
   if (query.bikeId) and.push(`s.bike_id = ${s.p(query.bikeId)}`);
   return { sql: `from dyno_session s where ${and.join(' and ')}`, params: s.params };
 }
@@ -54,7 +54,7 @@ export async function listSessionRows(em: EntityManager, actor: Actor, query: { 
     left join app_user sc on sc.id = s.safety_confirmed_by_id
    order by s.started_at desc, s.id asc`;
   const rows = (await em.getConnection().execute(sql, where.params)) as SessionListRow[];
-  const { total, exact } = await boundedTotal(em, where.sql, where.params, { atLeast: rows.length });
+  const { total, exact } = await boundedTotal(em, where.sql, where.params, { atLeast: rows.length, orderBy: 's.started_at desc, s.id asc' });
   const items = rows.map((s): SessionDto => ({
     id: s.id,
     bikeId: s.bike_id,

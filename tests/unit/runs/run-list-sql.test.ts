@@ -36,7 +36,7 @@ describe('page statement', () => {
     const q = runListQuery.parse({ q: "o'brien", tag: 'x', page: '3', pageSize: '10' });
     const { sql, params } = pageSql(customer, q);
     expect(sql).not.toContain("o'brien");
-    expect(params).toEqual([owner.shopId, customer.customerId, 'x', "%o'brien%", 11, 20]);
+    expect(params).toEqual([owner.shopId, owner.shopId, customer.customerId, 'x', "%o'brien%", 11, 20]);
     expect(sql).toContain('b.customer_id = ?');
     expect((sql.match(/\?/g) ?? []).length).toBe(params.length);
   });
