@@ -13,7 +13,7 @@ import { watch, type FSWatcher } from 'chokidar';
 import { isRunFileName } from '@shared/run-files';
 import { Journal } from './journal';
 import { backoffDelayMs } from './backoff';
-import { FatalSendError, sendRunFile, TokenRefusedError, type SendOutcome } from './sender';
+import { FatalSendError, sendHeartbeat, sendRunFile, TokenRefusedError, type SendOutcome } from './sender';
 
 export interface AgentOptions {
   server: string;
@@ -27,6 +27,8 @@ export interface AgentOptions {
   maxBackoffMs?: number;
   /** Poll the folder instead of OS events (network shares, some virtual machines). */
   poll?: boolean;
+  /** Tell the server the agent is running this often while idle (the bay board's "last heard"); 0 = never. */
+  heartbeatMs?: number;
   /** Where the one-line-per-file results go. */
   log?: (line: string) => void;
 }
@@ -47,6 +49,9 @@ export class SyncAgent {
   private draining: Promise<void> = Promise.resolve();
   private stopped = false;
   private wake?: () => void;
+  private heartbeat?: NodeJS.Timeout;
+  /** Set once the agent stopped for good on a refused token or a fatal answer (reported once). */
+  private ended = false;
   private readonly journal: Journal;
   private readonly listeners: ((e: AgentEvent) => void)[] = [];
   /** Settles when the agent stops for good (stop() or a refused token). */
@@ -82,11 +87,37 @@ export class SyncAgent {
     this.watcher.on('change', (p) => this.enqueue(p));
     this.watcher.on('error', (err) => this.opts.log?.(`watching the folder failed: ${(err as Error).message}`));
     await new Promise<void>((resolve) => this.watcher!.once('ready', () => resolve()));
+    const every = this.opts.heartbeatMs ?? 60_000;
+    if (every > 0) {
+      const beat = () => void this.beat();
+      beat();
+      this.heartbeat = setInterval(beat, every);
+      this.heartbeat.unref();
+    }
+  }
+
+  /** One heartbeat while no file is on its way (an upload says the same); a refused token stops the agent. */
+  private async beat() {
+    if (this.stopped || this.running) return;
+    try {
+      await sendHeartbeat({ server: this.opts.server, token: this.opts.token });
+    } catch (err) {
+      if (!(err instanceof TokenRefusedError) || this.stopped || this.ended) return;
+      this.ended = true;
+      this.emit({ kind: 'token-refused', message: err.message });
+      this.stopped = true;
+      clearInterval(this.heartbeat);
+      this.wake?.();
+      await this.watcher?.close();
+      await this.draining;
+      this.finish({ tokenRefused: true });
+    }
   }
 
   /** Stops watching; an upload already on its way is finished (and journalled) first. */
   async stop(): Promise<void> {
     this.stopped = true;
+    clearInterval(this.heartbeat);
     this.wake?.();
     await this.watcher?.close();
     await this.draining;
@@ -140,8 +171,11 @@ export class SyncAgent {
         outcome = await sendRunFile({ server: this.opts.server, token: this.opts.token, fileName: path.basename(absPath), bytes });
       } catch (err) {
         if (err instanceof FatalSendError) {
+          if (this.ended) return false; // the heartbeat found the token refused first
+          this.ended = true;
           this.emit(err instanceof TokenRefusedError ? { kind: 'token-refused', message: err.message } : { kind: 'fatal', message: err.message });
           this.stopped = true;
+          clearInterval(this.heartbeat);
           await this.watcher?.close();
           this.finish({ tokenRefused: err instanceof TokenRefusedError });
           return false;

@@ -64,3 +64,23 @@ export async function sendRunFile({ server, token, fileName, bytes, timeoutMs = 
   }
   return { kind: 'refused', status: res.status, code: body.error?.code ?? `HTTP_${res.status}`, message: body.error?.message ?? res.statusText };
 }
+
+/** Header that marks a POST to the device route as a heartbeat: no file, only "the agent is running". */
+export const HEARTBEAT_HEADER = 'X-Pullbook-Heartbeat';
+
+/**
+ * Tells the server the agent is running (the bay board's "agent last heard"), on the device upload
+ * route itself, the only one a device token may use. True when heard; a refused token throws
+ * TokenRefusedError (so a revoked token stops an idle agent too); anything else is false.
+ */
+export async function sendHeartbeat({ server, token, timeoutMs = 15_000 }: { server: string; token: string; timeoutMs?: number }): Promise<boolean> {
+  let res: Response;
+  try {
+    res = await fetch(new URL(DEVICE_UPLOAD_PATH, server), { method: 'POST', headers: { Authorization: `Bearer ${token}`, [HEARTBEAT_HEADER]: '1' }, signal: AbortSignal.timeout(timeoutMs) });
+  } catch {
+    return false;
+  }
+  await res.arrayBuffer().catch(() => undefined);
+  if (res.status === 401 || res.status === 403) throw new TokenRefusedError(res.status, 'the server refused the device token');
+  return res.ok;
+}

@@ -86,6 +86,11 @@ describe('device tokens', () => {
     // The device route itself: a person is refused, and so is a wrong token or none.
     expect((await owner.post(DEVICE_UPLOAD_PATH).attach('files', runFile(1), 'x.csv')).status).toBe(403);
     expect((await t.request.post(DEVICE_UPLOAD_PATH).attach('files', runFile(1), 'x.csv')).status).toBe(401);
+    // A heartbeat (no file) is only "the agent is running": 204, and the token's last use is set.
+    const beat = await t.request.post(DEVICE_UPLOAD_PATH).set('Authorization', `Bearer ${token}`).set('X-Pullbook-Heartbeat', '1');
+    expect(beat.status).toBe(204);
+    expect((await owner.get(`/api/dynos/${dynoId}/device-tokens`)).body.items[0].lastUsedAt).not.toBeNull();
+    expect((await t.request.post(DEVICE_UPLOAD_PATH).set('Authorization', `Bearer ${token}`)).status).toBe(400);
     const wrong = await deviceSend(t, `${token}x`, 'x.csv', runFile(1));
     expect(wrong.status).toBe(401);
     expect(wrong.body.error.code).toBe('DEVICE_TOKEN_REFUSED');

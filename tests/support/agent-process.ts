@@ -12,6 +12,8 @@ export interface AgentProcess {
   child: ChildProcess;
   /** Every line printed so far (stdout and stderr), without the time stamp. */
   lines: string[];
+  /** performance.now() when each line arrived (same index as `lines`). */
+  lineTimes: number[];
   waitForLine(match: RegExp, timeoutMs?: number, from?: number): Promise<string>;
   /** SIGTERM, then the exit code. */
   stop(): Promise<number | null>;
@@ -21,11 +23,15 @@ export function startAgentProcess(opts: { server: string; token: string; folder:
   const args = ['--import', 'tsx', path.join(ROOT, 'server', 'cli', 'sync.ts'), '--server', opts.server, '--token', opts.token, '--journal', opts.journal, '--settle-ms', String(opts.settleMs ?? 1000), opts.folder];
   const child = spawn(process.execPath, args, { cwd: ROOT, env: { ...process.env, AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED: 'true' }, stdio: ['ignore', 'pipe', 'pipe'] });
   const lines: string[] = [];
+  const lineTimes: number[] = [];
   const waiters = new Set<() => void>();
   const take = (chunk: Buffer) => {
     for (const raw of chunk.toString('utf8').split('\n')) {
       const line = raw.replace(/^\d{4}-\d\d-\d\d \d\d:\d\d:\d\d {2}/, '').trimEnd();
-      if (line) lines.push(line);
+      if (line) {
+        lines.push(line);
+        lineTimes.push(performance.now());
+      }
     }
     for (const w of waiters) w();
   };
@@ -35,6 +41,7 @@ export function startAgentProcess(opts: { server: string; token: string; folder:
   return {
     child,
     lines,
+    lineTimes,
     waitForLine(match, timeoutMs = 20_000, from = 0) {
       return new Promise((resolve, reject) => {
         const check = () => {

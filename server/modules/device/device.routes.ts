@@ -1,4 +1,4 @@
-import { ApiRouter } from '../../http/api-router';
+import { ApiRouter, reply, type Reply } from '../../http/api-router';
 import type { AppDeps } from '../../app-deps';
 import { STAFF } from '@shared/roles';
 import { idParams, type Page } from '@shared/schemas/common';
@@ -23,11 +23,13 @@ export function deviceRoutes(deps: AppDeps): ApiRouter[] {
     summary: 'A dyno’s sync agent sends a run file (multipart field "files"; Bearer device token)',
     before: [runFilesUpload(deps.config)],
     status: 201,
-    handler: async ({ em, req, deps: d }): Promise<DeviceUploadResponse> => {
+    handler: async ({ em, req, deps: d }): Promise<DeviceUploadResponse | Reply<DeviceUploadResponse>> => {
       try {
         const caller = req.res ? deviceCallerOf(req.res) : null;
         if (!caller) throw new AppError('DEVICE_TOKEN_REFUSED', 'A device token is required', 401);
         const files = uploadedFiles(req).map((f) => ({ originalName: f.originalname, contentType: f.mimetype || null, path: f.path }));
+        // A heartbeat (no file): the gate has already recorded that the agent was heard.
+        if (!files.length && req.get('x-pullbook-heartbeat')) return reply(undefined as unknown as DeviceUploadResponse, { status: 204 });
         return await deviceUpload(em, d, caller, files);
       } finally {
         await removeUploadedFiles(req);

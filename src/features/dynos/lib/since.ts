@@ -15,5 +15,5 @@ export function sinceText(iso: string | null, now: number = Date.now()): string 
   return `${d} day${d === 1 ? '' : 's'} ago`;
 }
 
-/** The agent counts as quiet when not heard for this long (it retries within a minute when the server is away). */
-export const AGENT_QUIET_MS = 10 * 60 * 1000;
+/** The agent counts as quiet when not heard for this long (a running agent checks in every minute). */
+export const AGENT_QUIET_MS = 3 * 60 * 1000;
