@@ -6,6 +6,8 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import Stripe from 'stripe';
+import { AxeBuilder } from '@axe-core/playwright';
+import type { Page } from 'playwright-core';
 import { startBrowserHarness, visible, type BrowserHarness } from '../support/browser';
 import { latestMailTo } from '../support/mail';
 import type { TestShop } from '../support/test-app';
@@ -49,6 +51,12 @@ afterAll(async () => {
   await h?.close();
 });
 
+/** WCAG 2 A/AA problems axe finds in the page's main content (serious and critical ones). */
+async function axeProblems(page: Page) {
+  const result = await new AxeBuilder({ page }).include('main').withTags(['wcag2a', 'wcag2aa']).analyze();
+  return result.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`);
+}
+
 describe('build plan', () => {
   it('is drafted and sent by staff, accepted and paid by the customer, and the deposit shows on the staff page', async () => {
     const staff = await h.signInPage(shop.users.desk.email);
@@ -70,6 +78,7 @@ describe('build plan', () => {
     await staff.getByRole('button', { name: 'Send to the customer' }).click();
     await visible(staff, 'Sent, awaiting answer');
     await h.screenshot(staff, 'plan-staff-sent');
+    expect(await axeProblems(staff)).toEqual([]);
 
     const mail = await latestMailTo(shop.customer.email!, 10_000);
     expect(mail.attachments.map((a) => a.contentType)).toContain('application/pdf');
@@ -80,6 +89,7 @@ describe('build plan', () => {
     await customer.goto(link!);
     await visible(customer, 'Slip-ons and tune');
     await visible(customer, /not a promise/);
+    expect(await axeProblems(customer)).toEqual([]);
     await customer.getByLabel('Type your full name to accept').fill('Sam Ridgeway');
     await customer.getByRole('button', { name: 'Accept the plan' }).click();
     await visible(customer, 'Thank you, Sam Ridgeway.');
