@@ -100,7 +100,9 @@ export async function predictPlan(em: EntityManager, shopId: string, bikeId: str
         costPerHpCents: costPerHpCents(totalCostCents, sum.peakPowerGainHp),
         lowConfidence: true,
         message:
-          `Only ${summary.count} similar build${summary.count === 1 ? '' : 's'} added ${what.toLowerCase()} together — too few to call typical. ` +
+          (summary.count
+            ? `Only ${summary.count} similar build${summary.count === 1 ? '' : 's'} added ${what.toLowerCase()} together — too few to call typical. `
+            : `No similar build added ${what.toLowerCase()} together. `) +
           `Estimate: adding the median step of each part measured separately gives ${fmtHpChange(sum.peakPowerGainHp)} at peak (` +
           parts.map((p) => `${partKeyLabel(p.key)} ${fmtHpChange(p.summary.peakPowerGainHp!.median)}, ${p.summary.count} build${p.summary.count === 1 ? '' : 's'}`).join('; ') +
           '). Parts that work together rarely add up exactly, so treat this as a rough guide.',

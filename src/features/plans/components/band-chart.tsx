@@ -2,13 +2,14 @@ import { formatNumber } from '@shared/format';
 import type { PredictionBandDto } from '@shared/schemas/plans';
 import { palette } from '@shared/theme';
 
-/** "Nice" ticks (1, 2, 2.5, 5 × 10ⁿ) covering lo…hi. */
+/** "Nice" ticks (1, 2, 2.5, 5 × 10ⁿ) from at or below lo to at or above hi. */
 function ticks(lo: number, hi: number, count: number) {
   const raw = (hi - lo) / count || 1;
   const mag = 10 ** Math.floor(Math.log10(raw));
   const step = [1, 2, 2.5, 5, 10].map((m) => m * mag).find((s) => s >= raw) ?? 10 * mag;
   const out: number[] = [];
-  for (let v = Math.floor(lo / step) * step; v <= hi + step / 1e6; v += step) out.push(Number(v.toFixed(6)));
+  const end = Math.ceil(hi / step - 1e-9) * step;
+  for (let v = Math.floor(lo / step) * step; v <= end + step / 1e6; v += step) out.push(Number(v.toFixed(6)));
   return out;
 }
 
