@@ -9,6 +9,10 @@ import { Migration } from '@mikro-orm/migrations';
  * never send the same row. The body (which may hold a one-time link) is cleared once the row is
  * sent or failed. share_link_id: the share link a report e-mail carries, removed if the send fails.
  *
+ * object_write: an object write that started (journaled before the object is stored), so an
+ * object whose row never committed because the process died is found and removed by the
+ * reconciliation (modules/runs/orphan-reconcile.ts) once the write is old enough.
+ *
  * login_throttle: failed sign-ins per account, per account and client address, and per address,
  * with the time of the last failure (for the exponential delay), plus the pairs that signed in
  * successfully (kind 'known'), which skip the account-wide cap.
@@ -37,6 +41,7 @@ export class Migration20261202200000 extends Migration {
       "updated_at" timestamptz not null default now());`);
     this.addSql(`create index "mail_message_status_next_index" on "mail_message" ("status", "next_attempt_at");`);
     this.addSql(`create index "mail_message_shop_created_index" on "mail_message" ("shop_id", "created_at" desc);`);
+    this.addSql(`create table "object_write" ("key" varchar(500) not null primary key, "started_at" timestamptz not null default now());`);
     this.addSql(`create table "login_throttle" (
       "key" varchar(400) not null primary key,
       "failures" int not null default 0,
@@ -47,5 +52,6 @@ export class Migration20261202200000 extends Migration {
   override async down(): Promise<void> {
     this.addSql(`drop table if exists "mail_message";`);
     this.addSql(`drop table if exists "login_throttle";`);
+    this.addSql(`drop table if exists "object_write";`);
   }
 }

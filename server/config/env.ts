@@ -74,6 +74,15 @@ const envSchema = z.object({
    * load balancer e.g. "loopback", a subnet like "10.0.0.0/8", or a hop count like "1".
    */
   TRUST_PROXY: z.string().default('false'),
+  /**
+   * Age, in seconds, after which a stored object whose write started but whose row never
+   * committed (a crash) is removed, and an unfinished multipart upload aborted.
+   */
+  ORPHAN_GRACE_SECONDS: z.coerce.number().int().min(0).default(900),
+  /** How often each instance reconciles stored objects with their rows, in seconds (0: only at start-up). */
+  RECONCILE_EVERY_SECONDS: z.coerce.number().int().min(0).default(900),
+  /** Temporary upload files older than this (seconds) are removed at start-up (a crashed request's). */
+  UPLOAD_TMP_GRACE_SECONDS: z.coerce.number().int().min(0).default(300),
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
 });
 

@@ -7,7 +7,7 @@ import pg from 'pg';
 import supertest from 'supertest';
 import type { Role } from '@shared/roles';
 import { loadConfig } from '@server/config/env';
-import { buildDeps, startWorkers } from '@server/main';
+import { buildDeps, startWorkers, stopWorkers } from '@server/main';
 import { createApp, type CreatedApp } from '@server/app';
 import type { AppDeps } from '@server/app-deps';
 import { hashPassword } from '@server/modules/auth/auth.service';
@@ -95,7 +95,7 @@ export async function createTestApp(opts: { clientDir?: string; env?: Record<str
     },
     async close() {
       await created.close();
-      await deps.mail.stop();
+      await stopWorkers(deps);
       await deps.orm.close();
       if (opts.databaseUrl) return;
       const c = new pg.Client({ connectionString: templateUrl.replace(/\/[^/]+$/, '/postgres') });

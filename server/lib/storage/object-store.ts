@@ -1,5 +1,7 @@
 import {
+  AbortMultipartUploadCommand,
   DeleteObjectCommand,
+  ListMultipartUploadsCommand,
   GetObjectCommand,
   HeadBucketCommand,
   HeadObjectCommand,
@@ -19,6 +21,11 @@ export interface ObjectStore {
   delete(key: string): Promise<void>;
   /** Throws when the bucket cannot be reached. */
   ping(): Promise<void>;
+  /**
+   * Aborts multipart uploads started more than `olderThanSeconds` ago and never completed (a
+   * process died mid-upload); answers how many. Optional: stores without multipart lack it.
+   */
+  abortStaleUploads?(olderThanSeconds: number): Promise<number>;
 }
 
 export interface S3Settings {
@@ -105,6 +112,24 @@ export function createS3ObjectStore(settings: S3Settings): ObjectStore {
     },
     async ping() {
       await client.send(new HeadBucketCommand({ Bucket }));
+    },
+    async abortStaleUploads(olderThanSeconds) {
+      const before = Date.now() - olderThanSeconds * 1000;
+      let aborted = 0;
+      let KeyMarker: string | undefined;
+      let UploadIdMarker: string | undefined;
+      for (let page = 0; page < 100; page++) {
+        const out = await client.send(new ListMultipartUploadsCommand({ Bucket, KeyMarker, UploadIdMarker }));
+        for (const u of out.Uploads ?? []) {
+          if (!u.Key || !u.UploadId || (u.Initiated && u.Initiated.getTime() > before)) continue;
+          await client.send(new AbortMultipartUploadCommand({ Bucket, Key: u.Key, UploadId: u.UploadId }));
+          aborted++;
+        }
+        if (!out.IsTruncated) break;
+        KeyMarker = out.NextKeyMarker;
+        UploadIdMarker = out.NextUploadIdMarker;
+      }
+      return aborted;
     },
   };
 }
