@@ -22,6 +22,8 @@ import { TEST_PASSWORD, type TestShop } from '../support/test-app';
 
 /** The tuner's part of the job must take at most this many clicks (63 before this work). */
 const TUNER_MAX_CLICKS = 30;
+/** Waits for the page under a loaded machine (vitest's poll gives up after 1 s by default). */
+const WAIT = { timeout: 15_000 };
 
 let h: BrowserHarness;
 let shop: TestShop;
@@ -124,7 +126,7 @@ describe('the whole job', () => {
     await desk.waitForURL(/\/customers\/[0-9a-f-]{36}$/);
     await desk.getByRole('link', { name: 'Add bike' }).first().click();
     const bikeDialog = desk.getByRole('dialog', { name: 'New bike' });
-    await expect.poll(() => bikeDialog.getByLabel('Owner').locator('option:checked').textContent()).toBe(customerName);
+    await expect.poll(() => bikeDialog.getByLabel('Owner').locator('option:checked').textContent(), WAIT).toBe(customerName);
     await bikeDialog.getByLabel('Make').fill('Corvale');
     await bikeDialog.getByLabel('Model').fill('Tourer');
     await bikeDialog.getByLabel('Displacement').fill('1746');
@@ -149,18 +151,18 @@ describe('the whole job', () => {
     await tuner.getByRole('button', { name: 'Confirm safety checks' }).click();
     await visible(tuner, 'Safety checks confirmed');
     // The new step's heading takes the focus.
-    await expect.poll(() => tuner.evaluate(() => document.activeElement?.textContent ?? '')).toContain('Run files');
+    await expect.poll(() => tuner.evaluate(() => document.activeElement?.textContent ?? ''), WAIT).toContain('Run files');
 
     // Stages made where the files are dropped; each batch is tagged with the stage chosen.
     await tuner.getByRole('button', { name: 'Add “Baseline”' }).click();
-    await expect.poll(() => tuner.getByLabel('Stage for these files').locator('option:checked').textContent()).toBe('Baseline');
+    await expect.poll(() => tuner.getByLabel('Stage for these files').locator('option:checked').textContent(), WAIT).toBe('Baseline');
     await tuner.locator('input[type=file]').setInputFiles(baseline);
     await tuner.getByRole('button', { name: 'Upload 3 files' }).click();
     await expect.poll(() => tuner.getByText('3 of 3 done').isVisible(), { timeout: 60_000 }).toBe(true);
     await tuner.getByRole('button', { name: 'Other name…' }).click();
     await tuner.getByLabel('New stage name').fill('Stage 1 — exhaust + tune');
     await tuner.getByRole('button', { name: 'Add stage', exact: true }).click();
-    await expect.poll(() => tuner.getByLabel('Stage for these files').locator('option:checked').textContent()).toBe('Stage 1 — exhaust + tune');
+    await expect.poll(() => tuner.getByLabel('Stage for these files').locator('option:checked').textContent(), WAIT).toBe('Stage 1 — exhaust + tune');
     await tuner.locator('input[type=file]').setInputFiles(stage1);
     await tuner.getByRole('button', { name: 'Upload 3 files' }).click();
     await expect.poll(() => tuner.getByText('6 of 6 done').isVisible(), { timeout: 60_000 }).toBe(true);
@@ -169,7 +171,7 @@ describe('the whole job', () => {
     // The builder opens on baseline against stage 1, already chosen.
     await tuner.getByRole('link', { name: 'Compare the stages' }).click();
     await tuner.getByTestId('comparison-summary').waitFor();
-    await expect.poll(() => tuner.getByRole('checkbox', { name: /^Compare /, checked: true }).count()).toBe(2);
+    await expect.poll(() => tuner.getByRole('checkbox', { name: /^Compare /, checked: true }).count(), WAIT).toBe(2);
     await tuner.getByRole('button', { name: 'Save comparison' }).click();
     await tuner.getByRole('dialog').getByRole('button', { name: 'Save', exact: true }).click();
     await tuner.waitForURL(/\/comparisons\/[0-9a-f-]{36}$/);
@@ -179,8 +181,9 @@ describe('the whole job', () => {
     const send = tuner.getByRole('dialog');
     expect(await send.getByLabel('To').inputValue()).toBe(customerEmail);
     await send.getByRole('button', { name: 'Send report' }).click();
-    await expect.poll(() => send.isVisible()).toBe(false);
+    await expect.poll(() => send.isVisible(), { timeout: 20_000 }).toBe(false);
     // Sending shares it: the link e-mailed is the one the report page shows to copy.
+    await expect.poll(() => tuner.getByLabel('New share link').isVisible(), { timeout: 10_000 }).toBe(true);
     const link = await tuner.getByLabel('New share link').inputValue();
     expect(link).toMatch(/\/share\/[A-Za-z0-9_-]{43}$/);
     const mail = await latestMailTo(customerEmail, 10_000);
@@ -202,7 +205,7 @@ describe('the whole job', () => {
     // ---- the customer: the e-mailed link, signed out
     const rider = await rolePage('customer (signed out)');
     await rider.goto(link);
-    await expect.poll(() => rider.getByRole('heading', { name: 'Gain report · Corvale Tourer', level: 1 }).isVisible()).toBe(true);
+    await expect.poll(() => rider.getByRole('heading', { name: 'Gain report · Corvale Tourer', level: 1 }).isVisible(), WAIT).toBe(true);
     await h.screenshot(rider, 'job-walkthrough-03-share');
 
     const counts = Object.fromEntries([...tallies.values()].map(({ role, tally }) => [role, { clicks: tally.clicks, keystrokes: tally.keystrokes }]));

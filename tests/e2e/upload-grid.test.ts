@@ -118,6 +118,14 @@ describe('forty files at once', () => {
     const latest = page.getByRole('region', { name: 'Latest upload' });
     await expect.poll(() => latest.getByTestId('upload-item').count()).toBe(COUNT);
     expect(await latest.getByTestId('upload-item').filter({ hasText: BROKEN }).getByRole('img', { name: 'Not read' }).count()).toBe(1);
+
+    // On the session page, tick one run and make it its stage's reference from the bar.
+    const table = page.getByRole('table', { name: 'Runs of this session' });
+    await table.getByLabel('Select pull-01.csv').check();
+    await bar.getByRole('button', { name: 'Make reference' }).click();
+    await visible(page, 'pull-01.csv now represents Baseline');
+    await expect.poll(() => table.getByText('Reference of Baseline').isVisible(), { timeout: 10_000 }).toBe(true);
+    await h.screenshot(page, 'ux-after-session-latest-upload');
   }, 240_000);
 
   it('asks before leaving the page while files are still uploading', async () => {

@@ -172,7 +172,14 @@ function ReadRow({ result: r, file, bikeId, onResult, select }: { result: Extrac
           </Link>
         </>
       }
-      detail={open && <WarningsList warnings={run.warnings} />}
+      // In the page while folded (hidden), so find-in-page and the line's text still carry it.
+      detail={
+        run.warnings.length > 0 && (
+          <div hidden={!open}>
+            <WarningsList warnings={run.warnings} />
+          </div>
+        )
+      }
     />
   );
 }

@@ -163,7 +163,8 @@ export function SessionForm({ bikeId, units: shopUnits, onCreated, onCancel }: {
           {...form.register('units', { onChange: () => unitsChanged() })}
           aria-describedby={conditionsNoteId}
         />
-        <NumberField label="Ambient temperature" unit={u.temperature} {...form.register('ambientTemp', { valueAsNumber: true })} error={errors.ambientTemp} />
+        {/* The date is filled in already: the air conditions are what the tuner types first. */}
+        <NumberField label="Ambient temperature" unit={u.temperature} autoFocus {...form.register('ambientTemp', { valueAsNumber: true })} error={errors.ambientTemp} />
         <div>
           <NumberField label="Barometric pressure" unit={u.pressure} {...form.register('baro', { valueAsNumber: true })} error={errors.baro} aria-describedby={conditionsNoteId} />
           {suggestion && (
