@@ -14,31 +14,28 @@ import { niceTicks } from './chart';
 
 const FONT = 'Barlow';
 
-/** The difference chart with its title line; nothing when the report has no baseline or no other run. */
+/** The difference chart, titled inside its drawing (it stands beside the absolute chart); nothing without a baseline and another run. */
 export function DifferenceChart({ data, width, height }: { data: Pick<ReportData, 'runs' | 'curves' | 'units'>; width: number; height: number }) {
   const baseline = data.runs.find((r) => r.isBaseline);
   const diffs = baseline ? differenceFromBaseline(data.curves, baseline.id) : [];
   if (!baseline || diffs.length === 0) return null;
   const u = data.units;
   const labels = unitLabels(u);
-  const m = { left: 44, right: 46, top: 8, bottom: 30 };
+  const m = { left: 30, right: 8, top: 26, bottom: 34 };
   const w = width - m.left - m.right;
   const h = height - m.top - m.bottom;
   // The same rpm axis as the absolute chart above it, so the two read straight down.
   const all = data.curves.filter((c) => c.rpm.length > 1);
   const x = niceTicks(Math.min(...all.map((c) => c.rpm[0])), Math.max(...all.map((c) => c.rpm[c.rpm.length - 1])), 7);
   const range = differenceRange(diffs, (v) => powerIn(v, u), (v) => torqueIn(v, u));
-  const y = niceTicks(range.min, range.max === range.min ? range.min + 1 : range.max, 4);
+  const y = niceTicks(range.min, range.max === range.min ? range.min + 1 : range.max, 3);
   const sx = (rpm: number) => m.left + ((rpm - x.min) / (x.max - x.min)) * w;
   const sy = (v: number) => m.top + h - ((v - y.min) / (y.max - y.min)) * h;
   const colorOf = new Map(data.runs.map((r) => [r.id, runColor(r.colorIndex)]));
   const tick = { fontFamily: FONT, fontSize: 7.5, fill: palette.ink.muted } as const;
   const pts = (rpm: number[], values: number[]) => rpm.map((r, i) => `${sx(r).toFixed(2)},${sy(values[i]).toFixed(2)}`).join(' ');
   return (
-    <View wrap={false} style={{ marginTop: 8 }}>
-      <Text style={{ fontFamily: FONT, fontSize: 9, fontWeight: 600, color: palette.ink.DEFAULT, marginBottom: 2 }}>
-        {`Difference from the baseline (${baseline.label}): above the line more, below less`}
-      </Text>
+    <View wrap={false}>
       <Svg width={width} height={height} viewBox={`0 0 ${width} ${height}`}>
         <Rect x={m.left} y={m.top} width={w} height={h} fill="#FFFFFF" stroke={palette.line.DEFAULT} strokeWidth={0.6} />
         {y.ticks.map((v) => (
@@ -52,7 +49,7 @@ export function DifferenceChart({ data, width, height }: { data: Pick<ReportData
         {x.ticks.map((v) => (
           <G key={`x${v}`}>
             <Line x1={sx(v)} x2={sx(v)} y1={m.top} y2={m.top + h} stroke={palette.line.DEFAULT} strokeWidth={0.5} strokeDasharray="2 2" />
-            <Text x={sx(v)} y={m.top + h + 11} textAnchor="middle" style={tick}>
+            <Text x={sx(v)} y={m.top + h + 10} textAnchor="middle" style={tick}>
               {formatNumber(v)}
             </Text>
           </G>
@@ -65,8 +62,15 @@ export function DifferenceChart({ data, width, height }: { data: Pick<ReportData
         {diffs.map((d) => (
           <Polyline key={`p${d.runId}`} points={pts(d.rpm, d.powerHp.map((v) => powerIn(v, u)))} fill="none" stroke={colorOf.get(d.runId) ?? palette.ink.DEFAULT} strokeWidth={LINE_STYLES.power.width * 0.55} strokeLinejoin="round" />
         ))}
-        <Text x={m.left + w / 2} y={height - 4} textAnchor="middle" style={{ fontFamily: FONT, fontSize: 8.5, fill: palette.ink.muted }}>
-          {`Engine speed (rpm) · power ${labels.power} solid, torque ${labels.torque} dashed`}
+        {/* Title inside the drawing, so the chart costs the page as little height as it can. */}
+        <Text x={m.left} y={9} style={{ fontFamily: FONT, fontSize: 8.5, fontWeight: 600, fill: palette.ink.DEFAULT }}>
+          Difference from the baseline
+        </Text>
+        <Text x={m.left} y={20} style={{ fontFamily: FONT, fontSize: 7.5, fill: palette.ink.muted }}>
+          {`above the line more, below less (${labels.power}, ${labels.torque})`}
+        </Text>
+        <Text x={m.left + w / 2} y={height - 6} textAnchor="middle" style={{ fontFamily: FONT, fontSize: 8.5, fill: palette.ink.muted }}>
+          Engine speed (rpm)
         </Text>
       </Svg>
     </View>

@@ -209,7 +209,10 @@ export function GainReportDocument({ data, logo }: { data: ReportData; logo?: Re
         <Text style={s.summary}>{data.summary}</Text>
 
         <View wrap={false}>
-          <OverlayChart width={contentWidth} height={250} runs={data.runs} curves={data.curves} units={u} />
+          <View style={{ flexDirection: 'row', gap: 8 }}>
+            <OverlayChart width={contentWidth * 0.58} height={250} runs={data.runs} curves={data.curves} units={u} />
+            <DifferenceChart data={data} width={contentWidth * 0.42 - 8} height={250} />
+          </View>
           <View style={s.legend}>
             {data.runs.map((r) => (
               <View key={r.id} style={s.legendItem}>
@@ -223,7 +226,6 @@ export function GainReportDocument({ data, logo }: { data: ReportData; logo?: Re
             <Text style={[s.subtle, { fontSize: 8 }]}>{`power ${labels.power} solid · torque ${labels.torque} dashed`}</Text>
           </View>
         </View>
-        <DifferenceChart data={data} width={contentWidth} height={140} />
 
         <Section title="Gain figures">
           <Table
