@@ -429,3 +429,35 @@ describe('a comparison printed as measured', () => {
     expect(text).not.toContain('corrected every run to Uncorrected');
   });
 });
+
+describe('long unbroken words in the PDF header', () => {
+  /** Every word's box on every page, from pdftotext -bbox (points). */
+  function wordBoxes(pdf: Buffer): { pageWidth: number; words: { text: string; xMax: number }[] } {
+    const file = path.join(os.tmpdir(), `pb-report-bbox-${process.pid}-${Date.now()}.pdf`);
+    fs.writeFileSync(file, pdf);
+    try {
+      const html = execFileSync('pdftotext', ['-bbox', file, '-'], { encoding: 'utf8' });
+      const pageWidth = Number(/<page width="([\d.]+)"/.exec(html)?.[1]);
+      const words = [...html.matchAll(/<word xMin="[\d.]+" yMin="[\d.]+" xMax="([\d.]+)" yMax="[\d.]+">([^<]*)<\/word>/g)].map((m) => ({ xMax: Number(m[1]), text: m[2] }));
+      return { pageWidth, words };
+    } finally {
+      fs.rmSync(file, { force: true });
+    }
+  }
+
+  it('breaks a shop name, address and note typed without spaces inside the page instead of running off it', async () => {
+    const longName = 'Overlongworkshopnamewithoutanyspaces'.repeat(4);
+    const em = t.deps.orm.em.fork();
+    await em.nativeUpdate(Shop, { id: b.shop.id }, { name: longName, address: 'Unit' + '7'.repeat(140) });
+    const sc = await seedReportScenario(t, b);
+    const deskB = await t.signIn(b.users.desk);
+    const res = await deskB.post('/api/reports').send({ comparisonId: sc.comparisonId, technicianNote: 'Checked'.repeat(40) });
+    expect(res.status).toBe(201);
+    const { pageWidth, words } = wordBoxes((await binary(deskB.get(res.body.pdfUrl))).body as Buffer);
+    expect(pageWidth).toBeGreaterThan(500);
+    // The name is there, in pieces, and nothing reaches past the page's right edge.
+    expect(words.some((w) => w.text.startsWith('Overlong'))).toBe(true);
+    const outside = words.filter((w) => w.xMax > pageWidth);
+    expect(outside).toEqual([]);
+  });
+});

@@ -57,6 +57,19 @@ describe('bulk stage tagging', () => {
     expect((await tuner.post('/api/runs/stage').send({ runIds: ids.slice(0, 1), stageId: null })).body).toEqual({ updated: 1 });
   }, 60_000);
 
+  it('lets two people tag runs of one stage at the same moment (the build index refresh waits its turn)', async () => {
+    const tuner = await t.signIn(a.users.tuner);
+    const owner = await t.signIn(a.users.owner);
+    const ids = [...(await fourRuns(tuner, a.bike.id, 7300)), ...(await fourRuns(tuner, a.bike.id, 7400))];
+    const stage = (await tuner.post('/api/stages').send({ bikeId: a.bike.id, name: 'Stage 2' })).body.id as string;
+    // Each PATCH refreshes the bike's build_index rows; before the per-bike lock, parallel ones
+    // collided on its primary key and answered 500.
+    const answers = await Promise.all(ids.map((id, i) => (i % 2 ? owner : tuner).patch(`/api/runs/${id}`).send({ stageId: stage })));
+    expect(answers.map((r) => r.status)).toEqual(ids.map(() => 200));
+    const stages = (await tuner.get('/api/stages').query({ bikeId: a.bike.id })).body.items as { id: string; runCount: number }[];
+    expect(stages.find((s) => s.id === stage)).toMatchObject({ runCount: 8 });
+  }, 60_000);
+
   it('refuses runs of two bikes, a stage of another bike, another shop and the wrong roles', async () => {
     const tuner = await t.signIn(a.users.tuner);
     const mine = await fourRuns(tuner, a.bike.id, 7200);

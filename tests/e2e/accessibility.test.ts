@@ -31,6 +31,9 @@ interface Ids {
   comparisonId: string;
   reportId: string;
   shareToken: string;
+  dynoId: string;
+  planId: string;
+  planToken: string;
 }
 
 interface PageSpec {
@@ -67,6 +70,11 @@ const PAGES: PageSpec[] = [
   { name: 'dynos', path: () => '/settings/dynos', roles: ['owner'] },
   { name: 'audit log', path: () => '/settings/audit', roles: ['owner'] },
   { name: 'outbox', path: () => '/settings/outbox', roles: ['owner'] },
+  { name: 'bay boards', path: () => '/bay', roles: STAFF },
+  { name: 'bay board', path: (i) => `/bay/${i.dynoId}`, roles: STAFF },
+  { name: 'inbox', path: () => '/inbox', roles: STAFF },
+  { name: 'build plan', path: (i) => `/plans/${i.planId}`, roles: EVERYONE_SIGNED_IN },
+  { name: 'build plan link', path: (i) => `/plan/${i.planToken}`, roles: ['anonymous'] },
   { name: 'not found', path: () => '/no-such-page', roles: ['owner'] },
 ];
 
@@ -106,6 +114,18 @@ beforeAll(async () => {
   const report = await firstItem(desk, `/api/reports?bikeId=${bike.id}`);
   const share = await desk.post(`/api/reports/${report.id}/share`).send({ expiresInDays: 7 });
   expect(share.status).toBe(201);
+  const owner = await h.t.signIn(EMAIL.owner, DEMO_PASSWORD);
+  const dynos = await owner.get('/api/dynos');
+  expect(dynos.status).toBe(200);
+  const dyno = ((dynos.body.items ?? dynos.body) as { id: string }[])[0];
+  expect(dyno, 'a demo dyno').toBeTruthy();
+  const plan = await desk.post(`/api/bikes/${bike.id}/plans`).send({
+    title: 'Stage 2 — ported heads',
+    items: [{ category: 'cylinder-heads', description: 'Mild port and valve job', partCostCents: 20_000, labourCostCents: 45_000, headWork: 'mild-port' }],
+  });
+  expect(plan.status, JSON.stringify(plan.body)).toBe(201);
+  const sent = await desk.post(`/api/plans/${plan.body.id}/send`).send({});
+  expect(sent.status, JSON.stringify(sent.body)).toBe(200);
   ids = {
     bikeId: bike.id,
     customerId: String(bike.customerId),
@@ -114,6 +134,9 @@ beforeAll(async () => {
     comparisonId: comparison.id,
     reportId: report.id,
     shareToken: new URL(share.body.url as string).pathname.split('/').pop()!,
+    dynoId: dyno.id,
+    planId: plan.body.id as string,
+    planToken: new URL(sent.body.url as string).pathname.split('/').pop()!,
   };
 }, 300_000);
 afterAll(() => h?.close());

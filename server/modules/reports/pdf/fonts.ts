@@ -11,6 +11,19 @@ let registered = false;
 
 export const PDF_FONT = 'Barlow';
 
+/** Words up to this many characters stay whole; longer ones may break between pieces of LONG_WORD_PIECE. */
+const LONG_WORD = 24;
+const LONG_WORD_PIECE = 8;
+
+/** The places a word may break at, as react-pdf's hyphenation callback wants them (its pieces in order). */
+export function breakableParts(word: string): string[] {
+  const chars = Array.from(word);
+  if (chars.length <= LONG_WORD) return [word];
+  const parts: string[] = [];
+  for (let i = 0; i < chars.length; i += LONG_WORD_PIECE) parts.push(chars.slice(i, i + LONG_WORD_PIECE).join(''));
+  return parts;
+}
+
 export function registerReportFonts(): void {
   if (registered) return;
   const file = (weight: number, style: 'normal' | 'italic' = 'normal') => require.resolve(`@fontsource/barlow/files/barlow-latin-${weight}-${style}.woff`);
@@ -24,7 +37,9 @@ export function registerReportFonts(): void {
       { src: file(700), fontWeight: 700 },
     ],
   });
-  // Words are never split with hyphens (part descriptions, names).
-  Font.registerHyphenationCallback((word) => [word]);
+  // Ordinary words are never split (part descriptions, names); a long unbroken one (a pasted
+  // reference, an address typed without spaces) may break every few letters instead of running
+  // off the page.
+  Font.registerHyphenationCallback(breakableParts);
   registered = true;
 }
