@@ -12,11 +12,15 @@ export const runColumn = createColumnHelper<RunSummaryDto>();
 /** The run's one name everywhere (src/shared/labels.ts): its label, else "<stage> · pull <n>". */
 export const runName = (r: RunSummaryDto) => sharedRunName(r);
 
+/** On a tablet a table keeps its 'key' columns in view and folds its 'extra' ones (DataTable). */
+type Priority = 'key' | 'extra' | undefined;
+
 /** Run name linking to the run page, with its file as secondary text. */
-export const runNameColumn = () =>
+export const runNameColumn = (priority?: Priority) =>
   runColumn.accessor(runName, {
     id: 'name',
     header: 'Run',
+    meta: { priority },
     cell: (c) => (
       <>
         <Link to={paths.run(c.row.original.id)} className="font-semibold text-accent underline-offset-2 hover:underline">
@@ -40,18 +44,18 @@ function PeakCell({ value, rpm }: { value: string; rpm: number | null }) {
   );
 }
 
-export const peakPowerColumn = () =>
+export const peakPowerColumn = (priority?: Priority) =>
   runColumn.accessor('peakPowerHp', {
     id: 'peakPowerHp',
     header: 'Peak power',
-    meta: { numeric: true },
+    meta: { numeric: true, priority },
     cell: (c) => <PeakCell value={formatHp(c.getValue())} rpm={c.row.original.peakPowerRpm} />,
   });
 
-export const peakTorqueColumn = () =>
+export const peakTorqueColumn = (priority?: Priority) =>
   runColumn.accessor('peakTorqueLbft', {
     id: 'peakTorqueLbft',
     header: 'Peak torque',
-    meta: { numeric: true },
+    meta: { numeric: true, priority },
     cell: (c) => <PeakCell value={formatTorque(c.getValue())} rpm={c.row.original.peakTorqueRpm} />,
   });

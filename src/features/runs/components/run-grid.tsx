@@ -11,7 +11,7 @@ import { paths } from '@/config/paths';
  * latest upload): one line per file with a status icon, the run's name and file, its peaks, its
  * stage and what can be done next, so forty files fit on a screen or two.
  */
-export const GRID_COLUMNS = 'md:grid-cols-[2.75rem_7.5rem_minmax(12rem,1.4fr)_7rem_7rem_minmax(10rem,1fr)_auto]';
+export const GRID_COLUMNS = 'lg:grid-cols-[2.75rem_7.5rem_minmax(12rem,1.4fr)_7rem_7rem_minmax(10rem,1fr)_auto]';
 
 export type GridStatus = RunStatusId | 'queued' | 'uploading' | 'failed-upload';
 
@@ -41,7 +41,7 @@ export function StatusMark({ status, word }: { status: GridStatus; word?: string
 /** The grid's column titles (from md up; below that each line stacks). */
 export function RunGridHeader({ selectAll }: { selectAll?: ReactNode }) {
   return (
-    <div className={cn('hidden items-end gap-3 border-b border-line px-3 py-2 text-xs font-semibold uppercase tracking-wide text-ink-muted md:grid', GRID_COLUMNS)} aria-hidden="true">
+    <div className={cn('hidden items-end gap-3 border-b border-line px-3 py-2 text-xs font-semibold uppercase tracking-wide text-ink-muted lg:grid', GRID_COLUMNS)} aria-hidden="true">
       <span>{selectAll}</span>
       <span>Status</span>
       <span>Run · file</span>
@@ -79,7 +79,7 @@ export function PeakCells({ run }: { run?: Pick<RunSummaryDto, 'peakPowerHp' | '
   const ok = run?.status === 'ready';
   return (
     <>
-      <span className="num text-sm md:text-right">
+      <span className="num text-sm lg:text-right">
         {ok && (
           <>
             <span className="sr-only">Peak power</span>
@@ -88,7 +88,7 @@ export function PeakCells({ run }: { run?: Pick<RunSummaryDto, 'peakPowerHp' | '
           </>
         )}
       </span>
-      <span className="num text-sm md:text-right">
+      <span className="num text-sm lg:text-right">
         {ok && (
           <>
             <span className="sr-only">Peak torque</span>
@@ -104,19 +104,20 @@ export function PeakCells({ run }: { run?: Pick<RunSummaryDto, 'peakPowerHp' | '
 /** One line of the grid; `children` spans the name-to-end columns when given (progress, messages). */
 export function RunGridRow({ select, status, name, peaks, stage, actions, detail, testId = 'upload-item' }: { select?: ReactNode; status: ReactNode; name: ReactNode; peaks?: ReactNode; stage?: ReactNode; actions?: ReactNode; detail?: ReactNode; testId?: string }) {
   return (
-    <li className={cn('grid grid-cols-[2.75rem_1fr] items-center gap-x-3 gap-y-0.5 px-3 py-1', GRID_COLUMNS)} data-testid={testId}>
-      <span className="row-span-2 flex items-center md:row-span-1">{select}</span>
-      <span>{status}</span>
+    // Below lg (a tablet held upright): status over the name and its peaks, the stage and actions under them.
+    <li className={cn('grid grid-cols-[2.75rem_minmax(0,1fr)_6.5rem_6.5rem] items-center gap-x-3 gap-y-0.5 px-3 py-1', GRID_COLUMNS)} data-testid={testId}>
+      <span className="row-span-3 flex items-center self-start lg:row-span-1 lg:self-center">{select}</span>
+      <span className="col-span-3 lg:col-span-1">{status}</span>
       {name}
       {peaks ?? (
         <>
-          <span className="hidden md:block" />
-          <span className="hidden md:block" />
+          <span className="hidden lg:block" />
+          <span className="hidden lg:block" />
         </>
       )}
-      <span>{stage}</span>
-      <span className="flex flex-wrap items-center gap-2 md:justify-end">{actions}</span>
-      {detail && <div className="col-start-2 md:col-span-6 md:col-start-2">{detail}</div>}
+      <span className="col-start-2 lg:col-start-auto">{stage}</span>
+      <span className="col-span-2 flex flex-wrap items-center gap-2 lg:col-span-1 lg:justify-end">{actions}</span>
+      {detail && <div className="col-span-3 col-start-2 lg:col-span-6 lg:col-start-2">{detail}</div>}
     </li>
   );
 }

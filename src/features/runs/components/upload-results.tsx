@@ -121,7 +121,7 @@ function ItemRow({ item, bikeId, onResult, selection }: { item: UploadItem; bike
         status={<StatusMark status={item.state === 'queued' ? 'queued' : 'uploading'} word={item.state === 'analysing' ? 'Reading' : undefined} />}
         name={
           <ProgressBar
-            className="md:col-span-5"
+            className="lg:col-span-5"
             label={
               <span className="[overflow-wrap:anywhere]" title={file}>
                 {label} <span className="text-ink-subtle">· {formatFileSize(item.file.size)}</span>

@@ -112,14 +112,17 @@ export function SessionPage() {
             }),
           ]
         : []),
-      col.accessor('sequence', { header: 'Pull', meta: { numeric: true } }),
-      runNameColumn(),
+      // At 768 px the name, its status and the editable stage and reference stay in view; the pull
+      // number (also in the name) and the peaks fold behind "All columns".
+      col.accessor('sequence', { header: 'Pull', meta: { numeric: true, priority: 'extra' } }),
+      runNameColumn('key'),
       col.accessor('status', { header: 'Status', cell: (c) => <RunStatusBadge status={c.getValue()} /> }),
-      peakPowerColumn(),
-      peakTorqueColumn(),
+      peakPowerColumn('extra'),
+      peakTorqueColumn('extra'),
       col.display({
         id: 'stage',
         header: 'Stage',
+        meta: { priority: 'key' },
         cell: (c) =>
           canEdit ? (
             <StageSelect runId={c.row.original.id} bikeId={c.row.original.bikeId} stageId={c.row.original.stageId} runName={c.row.original.originalName} />
@@ -127,7 +130,7 @@ export function SessionPage() {
             (c.row.original.stageName ?? 'none')
           ),
       }),
-      col.display({ id: 'reference', header: 'Reference run', cell: (c) => <ReferenceCell run={c.row.original} stages={stageList} canEdit={canEdit} /> }),
+      col.display({ id: 'reference', header: 'Reference run', meta: { priority: 'key' }, cell: (c) => <ReferenceCell run={c.row.original} stages={stageList} canEdit={canEdit} /> }),
     ],
     [canEdit, stageList, selected, toggle, selectAll],
   );
