@@ -70,9 +70,9 @@ function Board({ board }: { board: BayBoardDto }) {
           <div className="flex flex-wrap items-start justify-between gap-4">
             <div>
               <p className="text-base uppercase tracking-wide text-ink-muted">On the dyno now</p>
-              <p className="text-5xl font-bold leading-tight" data-testid="on-dyno">
+              <h2 className="text-5xl font-bold leading-tight" data-testid="on-dyno">
                 {board.current.bikeLabel}
-              </p>
+              </h2>
               <p className="text-xl text-ink-muted">
                 {board.current.customerName} · session of {formatDateTime(board.current.session.startedAt)} ·{' '}
                 <Link className="text-accent underline" to={paths.session(board.current.session.id)}>
@@ -91,9 +91,9 @@ function Board({ board }: { board: BayBoardDto }) {
         </Card>
       ) : (
         <Card className="space-y-4 p-6">
-          <p className="text-3xl font-semibold" data-testid="on-dyno">
+          <h2 className="text-3xl font-semibold" data-testid="on-dyno">
             Nothing on the dyno
-          </p>
+          </h2>
           <p className="text-ink-muted">Files from this dyno’s PC wait in the inbox until a bike is set. Put a bike on with one tap:</p>
           <BayBikePicker dynoId={board.dyno.id} canSet={canSet} />
         </Card>
