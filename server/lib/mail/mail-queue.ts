@@ -22,6 +22,7 @@ import type { ObjectStore } from '../storage/object-store';
 import { JobQueue, type JobInfo, type JobQueueOptions, type QueueName } from '../jobs/job-queue';
 import type { MailAttachment, Mailer } from './mailer';
 import { describeMailError, fitSubject, isPermanentMailError } from './mail-text';
+import type { MailLogEntry } from '@shared/schemas/outbox';
 
 export type MailKind = 'invite' | 'reset' | 'report' | 'notice' | (string & {});
 export type MailStatus = 'queued' | 'sending' | 'sent' | 'failed';
@@ -146,19 +147,8 @@ export interface MailQueueOptions {
   retry?: JobQueueOptions['retry'];
 }
 
-export interface MailLogRow {
-  id: string;
-  kind: string;
-  to: string;
-  subject: string;
-  status: 'queued' | 'sent' | 'failed';
-  attempts: number;
-  error: string | null;
-  createdAt: string;
-  sentAt: string | null;
-  nextAttemptAt: string | null;
-  retryable: boolean;
-}
+/** One line of the owner's send log, as the outbox route answers it. */
+export type MailLogRow = MailLogEntry;
 
 type Worker = { queue: QueueName; handler: (data: object, job: JobInfo) => Promise<void> };
 
