@@ -4,14 +4,14 @@
  * gain worded as past results, the band chart and the cautions.
  */
 import { createElement } from 'react';
-import { Document, Image, Page, Text, View, renderToBuffer } from '@react-pdf/renderer';
+import { Document, Page, Text, View, renderToBuffer } from '@react-pdf/renderer';
 import { formatDate, formatMoney, formatNumber } from '@shared/format';
 import { HEAD_WORK_LABELS, PART_CATEGORY_LABELS } from '@shared/parts';
 import { palette } from '@shared/theme';
 import type { PlanItemDto, PlanPredictionDto } from '@shared/schemas/plans';
 import type { UnitSystem } from '../../shops/shop.entity';
 import { fmtPowerGain } from '../../reports/figures';
-import { ReportSection as Section, ReportStat as Stat, ReportTable as Table, reportStyles as s } from '../../reports/pdf/gain-report';
+import { Letterhead, PageFooter, ReportSection as Section, ReportStat as Stat, ReportTable as Table, reportStyles as s } from '../../reports/pdf/gain-report';
 import { registerReportFonts } from '../../reports/pdf/fonts';
 import { readImageHeader, withinImageLimits } from '../../../lib/image-guard';
 import { BandChart } from './band-chart';
@@ -46,25 +46,8 @@ function PlanQuoteDocument({ d, logo }: { d: PlanQuoteData; logo: { data: Buffer
   return (
     <Document title={`Build plan v${d.version} — ${d.bikeLine}`} author={d.shop.name} subject="Build plan quote" creator="Pullbook" producer="Pullbook" language="en">
       <Page size={d.shop.paperSize === 'a4' ? 'A4' : 'LETTER'} style={s.page} wrap>
-        <View style={s.footer} fixed>
-          <Text style={s.footerText}>{`${d.shop.name}  ·  Build plan v${d.version}  ·  ${date}`}</Text>
-          <Text style={s.footerText} render={({ pageNumber, totalPages }) => `Page ${pageNumber} of ${totalPages}`} />
-        </View>
-        <View style={s.header}>
-          <View style={s.shopBlock}>
-            {logo ? <Image style={s.logo} src={{ data: logo.data, format: logo.format }} /> : null}
-            <View>
-              <Text style={s.shopName}>{d.shop.name}</Text>
-              {d.shop.address ? <Text style={s.muted}>{d.shop.address}</Text> : null}
-              <Text style={s.muted}>{[d.shop.phone, d.shop.email].filter(Boolean).join('  ·  ')}</Text>
-            </View>
-          </View>
-          <View style={s.titleBlock}>
-            <Text style={s.title}>Build plan</Text>
-            <Text style={[s.muted, { fontFeatureSettings: [...tnum] }]}>{`version ${d.version}`}</Text>
-            <Text style={s.muted}>{`${date} · open until ${formatDate(d.validUntil, { timeZone: 'UTC' })}`}</Text>
-          </View>
-        </View>
+        <PageFooter text={`${d.shop.name}  ·  Build plan v${d.version}  ·  ${date}`} />
+        <Letterhead shop={d.shop} logo={logo} title="Build plan" lines={[`version ${d.version}`, `${date} · open until ${formatDate(d.validUntil, { timeZone: 'UTC' })}`]} />
         <View style={s.accentRule} />
         <View style={s.twoCol}>
           <View style={s.col}>

@@ -138,6 +138,36 @@ function BandBar({ value, max }: { value: number; max: number }) {
   );
 }
 
+/** The running footer every Pullbook PDF shares (gain report, build-plan quote). */
+export function PageFooter({ text }: { text: string }) {
+  return (
+    <View style={s.footer} fixed>
+      <Text style={s.footerText}>{text}</Text>
+      <Text style={s.footerText} render={({ pageNumber, totalPages }) => `Page ${pageNumber} of ${totalPages}`} />
+    </View>
+  );
+}
+
+/** The letterhead every Pullbook PDF shares: the shop (logo, name, address, contact), the document's title and lines. */
+export function Letterhead({ shop, logo, title, lines }: { shop: { name: string; address: string | null; phone: string | null; email: string | null }; logo?: ReportLogo | null; title: string; lines: string[] }) {
+  return (
+    <View style={s.header}>
+      <View style={s.shopBlock}>
+        {logo ? <Image style={s.logo} src={{ data: logo.data, format: logo.format }} /> : null}
+        <View>
+          <Text style={s.shopName}>{shop.name}</Text>
+          {shop.address ? <Text style={s.muted}>{shop.address}</Text> : null}
+          <Text style={s.muted}>{[shop.phone, shop.email].filter(Boolean).join('  ·  ')}</Text>
+        </View>
+      </View>
+      <View style={s.titleBlock}>
+        <Text style={s.title}>{title}</Text>
+        {lines.map((line) => <Text key={line} style={[s.muted, { fontFeatureSettings: [...tnum] }]}>{line}</Text>)}
+      </View>
+    </View>
+  );
+}
+
 export function GainReportDocument({ data, logo }: { data: ReportData; logo?: ReportLogo | null }) {
   const u = data.units;
   const labels = unitLabels(u);
@@ -154,28 +184,8 @@ export function GainReportDocument({ data, logo }: { data: ReportData; logo?: Re
   return (
     <Document title={`Gain report ${data.number} v${data.version} — ${bikeLine(data.bike)}`} author={data.shop.name} subject="Dyno gain report" creator="Pullbook" producer="Pullbook" language="en">
       <Page size={size} style={s.page} wrap>
-        <View style={s.footer} fixed>
-          <Text style={s.footerText}>{`${data.shop.name}  ·  Gain report ${data.number} v${data.version}  ·  ${date}`}</Text>
-          <Text style={s.footerText} render={({ pageNumber, totalPages }) => `Page ${pageNumber} of ${totalPages}`} />
-        </View>
-        {/* Header: the shop, and which report this is */}
-        <View style={s.header}>
-          <View style={s.shopBlock}>
-            {logo ? <Image style={s.logo} src={{ data: logo.data, format: logo.format }} /> : null}
-            <View>
-              <Text style={s.shopName}>{data.shop.name}</Text>
-              {data.shop.address ? <Text style={s.muted}>{data.shop.address}</Text> : null}
-              <Text style={s.muted}>{[data.shop.phone, data.shop.email].filter(Boolean).join('  ·  ')}</Text>
-            </View>
-          </View>
-          <View style={s.titleBlock}>
-            <Text style={s.title}>Gain report</Text>
-            <Text style={[s.muted, { fontFeatureSettings: [...tnum] }]}>
-              {`No. ${data.number}  ·  version ${data.version}`}
-            </Text>
-            <Text style={s.muted}>{date}</Text>
-          </View>
-        </View>
+        <PageFooter text={`${data.shop.name}  ·  Gain report ${data.number} v${data.version}  ·  ${date}`} />
+        <Letterhead shop={data.shop} logo={logo} title="Gain report" lines={[`No. ${data.number}  ·  version ${data.version}`, date]} />
         <View style={s.accentRule} />
 
         <View style={s.twoCol}>
