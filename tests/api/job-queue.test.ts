@@ -44,6 +44,20 @@ async function waitFor(cond: () => boolean, what: string, ms = 30_000) {
 }
 
 describe('job queue', () => {
+  it('starts when several instances set up an empty queue schema at the same moment', async () => {
+    // Two app processes booting together both create the queues; without a lock around that,
+    // PostgreSQL resolves their deadlock by aborting one, which then failed to start.
+    for (let round = 0; round < 4; round++) {
+      const schema = `pgboss_race_${round}`;
+      const starts = await Promise.allSettled(
+        Array.from({ length: 4 }, () => JobQueue.start({ connectionString: url, logger, retry: fast, schema })),
+      );
+      const failures = starts.filter((s) => s.status === 'rejected').map((s) => String((s as PromiseRejectedResult).reason));
+      await Promise.all(starts.map((s) => (s.status === 'fulfilled' ? s.value.stop() : undefined)));
+      expect(failures).toEqual([]);
+    }
+  });
+
   it('hands each job to exactly one of two instances', async () => {
     const a = await JobQueue.start({ connectionString: url, logger, pollingIntervalSeconds: 0.5, retry: fast });
     const b = await JobQueue.start({ connectionString: url, logger, pollingIntervalSeconds: 0.5, retry: fast });

@@ -5,6 +5,7 @@
  * handed to exactly one worker at a time; a failed job is retried with exponential backoff.
  */
 import PgBoss from 'pg-boss';
+import pg from 'pg';
 import type { Logger } from 'pino';
 
 /** Each queue's retry rule. Delays double from `retryDelay` seconds (pg-boss `retryBackoff`). */
@@ -35,6 +36,8 @@ export interface JobQueueOptions {
   pollingIntervalSeconds?: number;
   /** Overrides of the retry rules (tests use short delays). */
   retry?: Partial<Record<QueueName, Partial<PgBoss.Queue>>>;
+  /** PostgreSQL schema holding the queue tables; `pgboss` unless a test wants an empty one. */
+  schema?: string;
 }
 
 export class JobQueue {
@@ -44,18 +47,21 @@ export class JobQueue {
   ) {}
 
   static async start(opts: JobQueueOptions): Promise<JobQueue> {
-    const boss = new PgBoss({ connectionString: opts.connectionString, schema: 'pgboss', max: 3, application_name: 'pullbook-jobs' });
+    const schema = opts.schema ?? 'pgboss';
+    const boss = new PgBoss({ connectionString: opts.connectionString, schema, max: 3, application_name: 'pullbook-jobs' });
     // Without a listener a lost connection would be an unhandled 'error' event and end the process.
     boss.on('error', (err) => opts.logger.error({ err }, 'job queue error'));
-    await boss.start();
-    for (const [key, rule] of Object.entries(QUEUES) as [QueueName, PgBoss.Queue][]) {
-      const queue = { ...rule, ...opts.retry?.[key] };
-      // createQueue is idempotent in effect, but two instances starting at once can race on it.
-      await boss.createQueue(queue.name, queue).catch(async (err) => {
-        if (!(await boss.getQueue(queue.name))) throw err;
-      });
-      await boss.updateQueue(queue.name, queue);
-    }
+    // Two instances booting together would both create the queues, and pg-boss's create_queue
+    // deadlocks against itself (each inserts a queue row, then alters the shared job table).
+    // A session advisory lock on a connection of our own lets one instance set up at a time.
+    await withSetupLock(opts.connectionString, schema, async () => {
+      await boss.start();
+      for (const [key, rule] of Object.entries(QUEUES) as [QueueName, PgBoss.Queue][]) {
+        const queue = { ...rule, ...opts.retry?.[key] };
+        if (!(await boss.getQueue(queue.name))) await boss.createQueue(queue.name, queue);
+        await boss.updateQueue(queue.name, queue);
+      }
+    });
     return new JobQueue(boss, opts);
   }
 
@@ -79,5 +85,21 @@ export class JobQueue {
 
   async stop(): Promise<void> {
     await this.boss.stop({ graceful: true, wait: true, timeout: 10_000 });
+  }
+}
+
+/** Runs `fn` while holding a PostgreSQL session advisory lock named after the queue schema. */
+async function withSetupLock(connectionString: string, schema: string, fn: () => Promise<void>): Promise<void> {
+  const client = new pg.Client({ connectionString, application_name: 'pullbook-jobs-setup' });
+  client.on('error', () => undefined); // a lost connection surfaces as the failed query below
+  await client.connect();
+  const key = `pullbook.job-queue-setup.${schema}`;
+  try {
+    await client.query('select pg_advisory_lock(hashtext($1))', [key]);
+    await fn();
+  } finally {
+    // Ending the session releases the lock even if the unlock itself fails.
+    await client.query('select pg_advisory_unlock(hashtext($1))', [key]).catch(() => undefined);
+    await client.end().catch(() => undefined);
   }
 }
