@@ -66,6 +66,7 @@ export async function seedDemoIfEmpty(deps: AppDeps): Promise<DemoIds | null> {
     units: 'imperial',
     paperSize: 'letter',
     defaultCorrection: 'sae-j1349',
+    timeZone: 'America/Los_Angeles',
   } as Shop);
   const dyno = em.create(Dyno, { shop, name: 'Bay 1 roller', kind: 'inertia', notes: 'Inertia chassis dyno, fan and extraction on bay 1' } as Dyno);
   em.create(Dyno, { shop, name: 'Bay 2 load unit', kind: 'eddy-current', notes: 'Eddy-current load dyno for steady-state tuning' } as Dyno);
@@ -91,7 +92,7 @@ export async function seedDemoIfEmpty(deps: AppDeps): Promise<DemoIds | null> {
   }
 
   // A second shop with its own people and bikes: none of it is visible to the first.
-  const other = em.create(Shop, { name: 'Bluewater Dyno Lab', address: '88 Harbour Road, Eastport', phone: '(555) 020-9000', units: 'metric', paperSize: 'a4', defaultCorrection: 'din-70020' } as Shop);
+  const other = em.create(Shop, { name: 'Bluewater Dyno Lab', address: '88 Harbour Road, Eastport', phone: '(555) 020-9000', units: 'metric', paperSize: 'a4', defaultCorrection: 'din-70020', timeZone: 'Europe/London' } as Shop);
   em.create(User, { shop: other, email: 'owner@bluewater.pullbook.test', name: 'Noor Haddad', role: 'owner', passwordHash: hash } as User);
   const otherCustomer = em.create(Customer, { shop: other, name: 'Sam Iverson', email: 'sam.iverson@example.com', phone: '555-0300' } as Customer);
   em.create(Bike, { shop: other, customer: otherCustomer, make: 'Orrin', model: 'Quarrel 1200', year: 2022, engineFamily: 'Orrin R2-1200', displacementCc: 1200, cylinders: 2 } as Bike);

@@ -10,6 +10,7 @@ import type { BayBoardDto, DeviceTokenDto, InboxItemDto } from '@shared/schemas/
 import { DeviceToken } from '@server/modules/device/device-token.entity';
 import { AuditEntry } from '@server/modules/audit/audit-entry.entity';
 import { Run } from '@server/modules/runs/run.entity';
+import { startOfDayIn } from '@shared/time-zone';
 
 /**
  * Bay capture through the real app: device tokens (upload only), what is on the dyno now, files
@@ -117,6 +118,29 @@ describe('on the dyno now', () => {
     // Entering the conditions by hand clears the flag.
     await tuner.patch(`/api/sessions/${sessionId}`).send({ ambientTempC: 21, baroKpa: 100.2, humidityPct: 40 });
     expect((await tuner.get(`/api/sessions/${sessionId}`)).body.conditionsToConfirm).toBe(false);
+  });
+
+  it('counts "today" in the shop’s time zone, not in UTC', async () => {
+    const bOwner = await t.signIn(b.users.owner);
+    const shop = (await bOwner.get('/api/shop')).body;
+    const base = { name: shop.name, units: shop.units, paperSize: shop.paperSize, defaultCorrection: shop.defaultCorrection };
+    const refused = await bOwner.put('/api/shop').send({ ...base, timeZone: 'Mars/Olympus_Mons' });
+    expect(refused.status).toBe(400);
+    expect(JSON.stringify(refused.body)).toContain('time zone');
+    // A zone far from UTC, so its calendar day and the UTC day begin at different instants.
+    const zone = 'Pacific/Kiritimati';
+    expect((await bOwner.put('/api/shop').send({ ...base, timeZone: zone })).body.timeZone).toBe(zone);
+    const bDyno = (await bOwner.post('/api/dynos').send({ name: 'Far bay', kind: 'inertia' })).body.id;
+    const now = new Date();
+    const localStart = startOfDayIn(zone, now).getTime();
+    const utcStart = Date.UTC(now.getUTCFullYear(), now.getUTCMonth(), now.getUTCDate());
+    // A session inside one of the two "todays" but not the other: reused only if in the shop's.
+    const inShopDayOnly = localStart < utcStart;
+    const startedAt = new Date((inShopDayOnly ? localStart : utcStart) + 60_000);
+    const earlier = (await bOwner.post('/api/sessions').send({ bikeId: b.bike.id, dynoId: bDyno, startedAt })).body.id;
+    const set = (await bOwner.put(`/api/dynos/${bDyno}/current`).send({ bikeId: b.bike.id })).body;
+    if (inShopDayOnly) expect(set.sessionId).toBe(earlier);
+    else expect(set.sessionId).not.toBe(earlier);
   });
 
   it('checks that the bike, session and stage belong to the shop and fit together', async () => {

@@ -1,7 +1,7 @@
 /**
  * "On the dyno now": the bike strapped to a dyno, with its session and stage. Files from the
  * dyno PC's sync agent land there. Set without a session, today's session of that bike on that
- * dyno is used, or started with the shop's default correction and its conditions flagged to be
+ * dyno is used (the day of the shop's time zone), or started with the shop's default correction and its conditions flagged to be
  * confirmed (temperature, pressure and humidity are not guessed).
  */
 import type { EntityManager } from '@mikro-orm/postgresql';
@@ -10,6 +10,7 @@ import type { Actor } from '../../http/actor';
 import { AppError, notFound } from '../../lib/errors';
 import { tenantScope } from '../../http/tenant-scope';
 import type { DynoCurrentDto, dynoCurrentInput } from '@shared/schemas/bay';
+import { startOfDayIn } from '@shared/time-zone';
 import { Dyno } from './dyno.entity';
 import { getDynoEntity } from './dyno.service';
 import { Bike } from '../bikes/bike.entity';
@@ -21,9 +22,6 @@ import { recordAudit } from '../audit/audit.service';
 
 type CurrentInput = z.output<typeof dynoCurrentInput>;
 
-/** Midnight (UTC) of today: "today's session" started at or after it. */
-const startOfToday = (now = new Date()) => new Date(Date.UTC(now.getUTCFullYear(), now.getUTCMonth(), now.getUTCDate()));
-
 async function sessionFor(tx: EntityManager, actor: Actor, dyno: Dyno, bike: Bike, sessionId: string | undefined): Promise<{ session: DynoSession; created: boolean }> {
   if (sessionId) {
     const session = await tx.findOne(DynoSession, tenantScope<DynoSession>(actor, undefined, { id: sessionId }));
@@ -33,9 +31,11 @@ async function sessionFor(tx: EntityManager, actor: Actor, dyno: Dyno, bike: Bik
     if (!session.dyno) session.dyno = dyno;
     return { session, created: false };
   }
-  const today = await tx.findOne(DynoSession, tenantScope<DynoSession>(actor, undefined, { bike: bike.id, dyno: dyno.id, startedAt: { $gte: startOfToday() } }), { orderBy: { startedAt: 'desc' } });
-  if (today) return { session: today, created: false };
+  // "Today" is the shop's calendar day: an evening session in Denver is not tomorrow's in UTC.
   const shop = await tx.findOneOrFail(Shop, { id: actor.shopId });
+  const since = startOfDayIn(shop.timeZone);
+  const today = await tx.findOne(DynoSession, tenantScope<DynoSession>(actor, undefined, { bike: bike.id, dyno: dyno.id, startedAt: { $gte: since } }), { orderBy: { startedAt: 'desc' } });
+  if (today) return { session: today, created: false };
   const session = tx.create(DynoSession, {
     shop,
     bike,

@@ -42,7 +42,7 @@ export async function sendPlan(deps: AppDeps, em: EntityManager, actor: Actor, i
   const logo = shop.logoKey ? await deps.storage.getBuffer(shop.logoKey).catch(() => null) : null;
   const pdf = await renderPlanQuote(
     {
-      shop: { name: shop.name, address: shop.address, phone: shop.phone, email: shop.email, units: shop.units, paperSize: shop.paperSize },
+      shop: { name: shop.name, address: shop.address, phone: shop.phone, email: shop.email, units: shop.units, paperSize: shop.paperSize, timeZone: shop.timeZone },
       customerName: b.customer.name,
       bikeLine: bikeLabel(b),
       bikeDetails: [b.engineFamily, b.displacementCc ? `${formatNumber(b.displacementCc)} cm³` : null, b.vin ? `VIN ${b.vin}` : null].filter(Boolean).join('  ·  '),

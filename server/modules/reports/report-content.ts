@@ -128,6 +128,7 @@ export async function buildReportData(
     shop: { name: shop.name, address: shop.address, phone: shop.phone, email: shop.email },
     units: shop.units,
     paperSize: shop.paperSize,
+    timeZone: shop.timeZone,
     customer: { name: bike.customer.name },
     bike: { make: bike.make, model: bike.model, year: bike.year, vin: bike.vin, engineFamily: bike.engineFamily, displacementCc: bike.displacementCc },
     comparison: { id: comparison.id, name: comparison.name },

@@ -21,6 +21,8 @@ export class Shop {
   paperSize: PaperSize = 'letter';
   /** Correction standard proposed for new sessions and comparisons. */
   defaultCorrection = 'sae-j1349';
+  /** IANA zone of the shop's calendar day: today's session, dates on reports and quotes. */
+  timeZone = 'UTC';
   /** Labour rate used when a part row has no labour cost of its own (cents per hour). */
   createdAt: Date = new Date();
   /** ISO 4217 code, lower case (as the payment provider takes it); every amount is in its minor unit (cents). */
@@ -44,6 +46,7 @@ export const ShopSchema = new EntitySchema<Shop>({
     units: { type: 'string', length: 16, default: 'imperial' },
     paperSize: { type: 'string', length: 16, default: 'letter' },
     defaultCorrection: { type: 'string', length: 32, default: 'sae-j1349' },
+    timeZone: { type: 'string', length: 64, default: 'UTC', fieldName: 'time_zone' },
     createdAt: { type: 'datetime', columnType: 'timestamptz' },
     currency: { type: 'string', length: 3, default: 'usd' },
     depositMode: { type: 'string', length: 16, default: 'off' },

@@ -14,6 +14,7 @@ const toDto = (s: Shop): ShopDto => ({
   units: s.units,
   paperSize: s.paperSize,
   defaultCorrection: s.defaultCorrection as ShopDto['defaultCorrection'],
+  timeZone: s.timeZone,
   currency: s.currency,
   depositMode: s.depositMode,
   depositPercent: s.depositPercent,

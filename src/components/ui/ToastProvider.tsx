@@ -25,9 +25,25 @@ export interface ToastProviderProps {
 
 let nextId = 0;
 
+/** Width of the toast column (max-w-sm) plus its padding, in CSS pixels. */
+const COLUMN_PX = 384 + 32;
+
+/**
+ * The side the toasts stack on: the right, unless the control just used (the focused element,
+ * e.g. a form's Save button at the bottom right) sits where they would appear. Then the left, so
+ * a toast never covers the control the user is about to use again.
+ */
+export function toastSide(focused: Element | null, viewport: { width: number; height: number }): 'left' | 'right' {
+  if (!focused || focused === document.body || viewport.width < COLUMN_PX * 2) return 'right';
+  const r = focused.getBoundingClientRect();
+  const underColumn = r.right > viewport.width - COLUMN_PX && r.bottom > viewport.height / 2;
+  return underColumn ? 'left' : 'right';
+}
+
 /** Holds the toast queue and renders the polite live region they appear in. */
 export function ToastProvider({ children, limit = 4 }: ToastProviderProps) {
   const [toasts, setToasts] = useState<ToastItem[]>([]);
+  const [side, setSide] = useState<'left' | 'right'>('right');
 
   const dismiss = useCallback((id: string) => {
     setToasts((list) => list.filter((t) => t.id !== id));
@@ -37,6 +53,7 @@ export function ToastProvider({ children, limit = 4 }: ToastProviderProps) {
     (toast: ToastInput) => {
       nextId += 1;
       const id = `toast-${nextId}`;
+      setSide(toastSide(document.activeElement, { width: window.innerWidth, height: window.innerHeight }));
       setToasts((list) => [...list, { ...toast, id }].slice(-limit));
       return id;
     },
@@ -52,7 +69,11 @@ export function ToastProvider({ children, limit = 4 }: ToastProviderProps) {
     <ToastContext.Provider value={api}>
       {children}
       {/* Above any bar fixed to the bottom of the screen (useBottomBar), so no toast covers its controls. */}
-      <section aria-label="Notifications" className="pointer-events-none fixed inset-x-0 bottom-[var(--pb-bottom-bar,0px)] z-toast flex justify-end p-4">
+      <section
+        aria-label="Notifications"
+        data-side={side}
+        className={cn('pointer-events-none fixed inset-x-0 bottom-[var(--pb-bottom-bar,0px)] z-toast flex p-4', side === 'left' ? 'justify-start' : 'justify-end')}
+      >
         {/* The live region is always in the DOM, so additions to it are announced. */}
         <ol aria-live="polite" aria-relevant="additions text" className="flex w-full max-w-sm flex-col gap-2">
           {toasts.map((toast) => (

@@ -97,6 +97,8 @@ export interface ReportData {
   shop: { name: string; address: string | null; phone: string | null; email: string | null };
   units: ReportUnits;
   paperSize: ReportPaperSize;
+  /** The shop's IANA zone for printed dates; reports made before it was kept print UTC. */
+  timeZone?: string;
   customer: { name: string };
   bike: { make: string; model: string; year: number | null; vin: string | null; engineFamily: string | null; displacementCc: number | null };
   comparison: { id: string; name: string };

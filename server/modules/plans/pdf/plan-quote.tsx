@@ -17,7 +17,7 @@ import { readImageHeader, withinImageLimits } from '../../../lib/image-guard';
 import { BandChart } from './band-chart';
 
 export interface PlanQuoteData {
-  shop: { name: string; address: string | null; phone: string | null; email: string | null; units: UnitSystem; paperSize: 'letter' | 'a4' };
+  shop: { name: string; address: string | null; phone: string | null; email: string | null; units: UnitSystem; paperSize: 'letter' | 'a4'; timeZone: string };
   customerName: string;
   bikeLine: string;
   bikeDetails: string;
@@ -41,13 +41,13 @@ function PlanQuoteDocument({ d, logo }: { d: PlanQuoteData; logo: { data: Buffer
   const money = (c: number) => formatMoney(c, { minorUnits: true, currency: d.currency.toUpperCase() });
   const p = d.prediction;
   const width = (d.shop.paperSize === 'a4' ? 595.28 : 612) - 80;
-  const date = formatDate(d.sentAt, { timeZone: 'UTC' });
+  const date = formatDate(d.sentAt, { timeZone: d.shop.timeZone });
   const median = p.peakPowerGainHp?.median ?? p.estimate?.peakPowerGainHp ?? null;
   return (
     <Document title={`Build plan v${d.version} — ${d.bikeLine}`} author={d.shop.name} subject="Build plan quote" creator="Pullbook" producer="Pullbook" language="en">
       <Page size={d.shop.paperSize === 'a4' ? 'A4' : 'LETTER'} style={s.page} wrap>
         <PageFooter text={`${d.shop.name}  ·  Build plan v${d.version}  ·  ${date}`} />
-        <Letterhead shop={d.shop} logo={logo} title="Build plan" lines={[`version ${d.version}`, `${date} · open until ${formatDate(d.validUntil, { timeZone: 'UTC' })}`]} />
+        <Letterhead shop={d.shop} logo={logo} title="Build plan" lines={[`version ${d.version}`, `${date} · open until ${formatDate(d.validUntil, { timeZone: d.shop.timeZone })}`]} />
         <View style={s.accentRule} />
         <View style={s.twoCol}>
           <View style={s.col}>

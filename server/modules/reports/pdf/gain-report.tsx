@@ -177,7 +177,7 @@ export function GainReportDocument({ data, logo }: { data: ReportData; logo?: Re
   const finalRun = head ? runById.get(head.runId) : undefined;
   const size = data.paperSize === 'a4' ? 'A4' : 'LETTER';
   const contentWidth = (data.paperSize === 'a4' ? 595.28 : 612) - 80;
-  const date = formatDate(data.createdAt, { timeZone: 'UTC' });
+  const date = formatDate(data.createdAt, { timeZone: data.timeZone ?? 'UTC' });
   const perPower = data.cost ? costPerPower(data.cost.totalCostCents, data.cost.gainHp, u) : null;
   const corrected = correctionHeadline(data.runs);
 
@@ -353,7 +353,7 @@ export function GainReportDocument({ data, logo }: { data: ReportData; logo?: Re
                 <Text>{runLabel(r.label)}</Text>
                 {r.fileName ? <Text style={[s.subtle, { fontSize: 7.5 }]}>{r.fileName}</Text> : null}
               </View>,
-              r.recordedAt ? formatDate(r.recordedAt, { timeZone: 'UTC' }) : '—',
+              r.recordedAt ? formatDate(r.recordedAt, { timeZone: data.timeZone ?? 'UTC' }) : '—',
               [r.dynoName, r.dynoKind].filter(Boolean).join(', ') || '—',
               formatAirTemperature(r.conditions.temperatureC, u, '—'),
               formatBarometric(r.conditions.baroKpa, u, '—'),

@@ -2,8 +2,10 @@ import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useQuery } from '@tanstack/react-query';
-import type { z } from 'zod';
-import { shopSettingsInput, type CorrectionStandard, type ShopDto, type ShopSettingsValues } from '@shared/schemas/shop';
+import { z } from 'zod';
+import { formatDateTime } from '@shared/format';
+import { timeZoneNames } from '@shared/time-zone';
+import { shopSettingsInput, type CorrectionStandard, type ShopDto } from '@shared/schemas/shop';
 import { Button, Card, ErrorState, FormError, LoadingState, NumberField, PageHeader, SelectField, type SelectOption, TextAreaField, TextField, useToast, fieldProblemsSummary } from '@/components/ui';
 import { applyFieldErrors } from '@/lib/api-client';
 import { shopQuery } from '@/lib/shop-query';
@@ -33,6 +35,19 @@ const DEPOSIT_OPTIONS: SelectOption[] = [
   { value: 'fixed', label: 'A fixed amount' },
 ];
 const CORRECTION_SELECT: SelectOption[] = Object.entries(CORRECTION_LABELS).map(([value, label]) => ({ value, label }));
+const TIME_ZONE_OPTIONS: SelectOption[] = timeZoneNames().map((name) => ({ value: name, label: name.replaceAll('_', ' ') }));
+
+/** The form takes the fixed deposit in the currency's main unit (250.00), the API in cents. */
+const shopSettingsForm = shopSettingsInput.omit({ depositFixedCents: true }).extend({
+  depositFixed: z.coerce
+    .number({ message: 'Enter an amount, e.g. 250.00' })
+    .min(0, 'Not below zero')
+    .max(100_000, 'At most 100,000')
+    .refine((v) => Math.abs(v * 100 - Math.round(v * 100)) < 1e-6, 'At most two decimals'),
+});
+type ShopSettingsFormValues = z.input<typeof shopSettingsForm>;
+type ShopSettingsFormOutput = z.output<typeof shopSettingsForm>;
+const toInput = ({ depositFixed, ...rest }: ShopSettingsFormOutput): z.output<typeof shopSettingsInput> => ({ ...rest, depositFixedCents: Math.round(depositFixed * 100) });
 
 /** Owner only: the guard is the settings layout route (../routes.tsx). */
 export default function ShopSettingsPage() {
@@ -56,8 +71,8 @@ function ShopForm({ shop }: { shop: ShopDto }) {
   const toast = useToast();
   const save = useUpdateShop();
   const [formError, setFormError] = useState<string | null>(null);
-  const form = useForm<ShopSettingsValues, unknown, z.output<typeof shopSettingsInput>>({
-    resolver: zodResolver(shopSettingsInput),
+  const form = useForm<ShopSettingsFormValues, unknown, ShopSettingsFormOutput>({
+    resolver: zodResolver(shopSettingsForm),
     mode: 'onTouched',
     defaultValues: {
       name: shop.name,
@@ -67,13 +82,16 @@ function ShopForm({ shop }: { shop: ShopDto }) {
       units: shop.units,
       paperSize: shop.paperSize,
       defaultCorrection: shop.defaultCorrection,
+      timeZone: shop.timeZone,
       currency: shop.currency.toUpperCase(),
       depositMode: shop.depositMode,
       depositPercent: shop.depositPercent,
-      depositFixedCents: shop.depositFixedCents,
+      depositFixed: shop.depositFixedCents / 100,
     },
   });
   const depositMode = form.watch('depositMode');
+  const timeZone = form.watch('timeZone');
+  const currency = (form.watch('currency') || shop.currency).toUpperCase();
   const { errors, isDirty, isSubmitted } = form.formState;
   // After a submit, every field problem is also summed up in the form's alert, so it is announced.
   const fieldProblems = fieldProblemsSummary(isSubmitted, errors);
@@ -81,8 +99,8 @@ function ShopForm({ shop }: { shop: ShopDto }) {
   const onSubmit = form.handleSubmit(async (values) => {
     setFormError(null);
     try {
-      const saved = await save.mutateAsync(values);
-      form.reset({ ...values, address: saved.address ?? '', phone: saved.phone ?? '', email: saved.email ?? '' });
+      const saved = await save.mutateAsync(toInput(values));
+      form.reset({ ...values, address: saved.address ?? '', phone: saved.phone ?? '', email: saved.email ?? '', currency: saved.currency.toUpperCase() });
       toast.success('Shop settings saved');
     } catch (err) {
       if (!applyFieldErrors(err, form.setError)) setFormError(err instanceof Error ? err.message : 'Try again in a moment.');
@@ -130,9 +148,16 @@ function ShopForm({ shop }: { shop: ShopDto }) {
             error={errors.defaultCorrection}
             {...form.register('defaultCorrection')}
           />
+          <SelectField
+            label="Time zone"
+            hint={`The shop's calendar day: today's session on each dyno, and the dates printed on reports and quotes.${timeZone ? ` Now ${formatDateTime(new Date(), { timeZone })} there.` : ''}`}
+            options={TIME_ZONE_OPTIONS}
+            error={errors.timeZone}
+            {...form.register('timeZone')}
+          />
         </div>
       </Card>
-      <Card title="Build plan deposits" description="Asked when a customer accepts a build plan, paid online through the payment service. Amounts are kept in whole cents.">
+      <Card title="Build plan deposits" description="Asked when a customer accepts a build plan, paid online through the payment service.">
         <div className="space-y-4">
           <TextField label="Currency" hint="Three-letter code, e.g. USD, EUR, GBP." maxLength={3} error={errors.currency} {...form.register('currency')} />
           <SelectField label="Deposit" options={DEPOSIT_OPTIONS} error={errors.depositMode} {...form.register('depositMode')} />
@@ -140,12 +165,12 @@ function ShopForm({ shop }: { shop: ShopDto }) {
           {depositMode === 'fixed' && (
             <NumberField
               label="Fixed deposit"
-              unit="cents"
-              hint="In cents: 25000 is 250.00. Never more than the plan's total."
+              unit={currency}
+              hint="For example 250.00. Never more than the plan's total."
               min={0}
-              step={1}
-              error={errors.depositFixedCents}
-              {...form.register('depositFixedCents')}
+              step={0.01}
+              error={errors.depositFixed}
+              {...form.register('depositFixed')}
             />
           )}
         </div>
