@@ -2,6 +2,7 @@
 import { ShopSchema } from '../modules/shops/shop.entity';
 import { ShopOwnedSchema } from './base-entity';
 import { UserSchema, AuthTokenSchema } from '../modules/users/user.entity';
+import { PendingInviteSchema } from '../modules/users/pending-invite.entity';
 import { CustomerSchema } from '../modules/customers/customer.entity';
 import { BikeSchema } from '../modules/bikes/bike.entity';
 import { DynoSchema } from '../modules/dynos/dyno.entity';
@@ -21,6 +22,7 @@ export const entities = [
   ShopOwnedSchema,
   UserSchema,
   AuthTokenSchema,
+  PendingInviteSchema,
   CustomerSchema,
   BikeSchema,
   DynoSchema,

@@ -107,6 +107,34 @@ describe('invitations', () => {
     expect(Number(n)).toBe(1);
     // The same address within one's own shop is still refused (the owner sees their own users).
     expect((await owner.post('/api/users').send({ email: a.users.desk.email, name: 'Dup', role: 'desk' })).status).toBe(409);
+
+    // A reload shows both invitations alike; a second invitation of either is refused alike.
+    const listed = (await owner.get('/api/users')).body.items as { id: string; email: string; invitePending: boolean }[];
+    const shape = (email: string) => listed.filter((u) => u.email === email).map((u) => ({ invitePending: u.invitePending, keys: Object.keys(u).sort() }));
+    expect(shape(b.users.desk.email)).toEqual(shape('brand.new@mailq-a.test'));
+    expect(shape(b.users.desk.email)).toHaveLength(1);
+    const again = (email: string) => owner.post('/api/users').send({ email, name: 'Again', role: 'desk' });
+    expect([(await again('brand.new@mailq-a.test')).status, (await again(b.users.desk.email)).status]).toEqual([409, 409]);
+    // Resending and renaming answer alike too.
+    const resendFresh = await owner.post(`/api/users/${fresh.body.id}/resend-invite`);
+    const resendTaken = await owner.post(`/api/users/${taken.body.id}/resend-invite`);
+    expect([resendTaken.status, resendTaken.body]).toEqual([resendFresh.status, resendFresh.body]);
+    const renamed = await owner.patch(`/api/users/${taken.body.id}`).send({ name: 'Someone Else' });
+    expect(renamed.status).toBe(200);
+    expect(renamed.body).toMatchObject({ id: taken.body.id, name: 'Someone Else', invitePending: true });
+
+    // A customer invited with an address of another shop shows as having portal access, as any.
+    const customer = (await owner.post('/api/customers').send({ name: 'Elsewhere Rider', email: b.users.customer.email })).body;
+    expect((await owner.post('/api/users').send({ email: b.users.customer.email, name: 'Elsewhere Rider', role: 'customer', customerId: customer.id })).status).toBe(201);
+    expect((await owner.get(`/api/customers/${customer.id}`)).body.hasPortalAccess).toBe(true);
+
+    // Once the address no longer signs in anywhere, a resend sends the real invitation.
+    await sql(`delete from app_user where lower(email) = lower(?)`, [b.users.desk.email]);
+    expect((await owner.post(`/api/users/${taken.body.id}/resend-invite`)).status).toBe(resendFresh.status);
+    const mail = await latestMailTo(b.users.desk.email, 20_000, (m) => m.text.includes('/invite/'));
+    expect((await t.request.get(`/api/auth/token/${linkIn(mail.text, '/invite/')}`)).status).toBe(200);
+    const after = (await owner.get('/api/users')).body.items as { id: string; email: string }[];
+    expect(after.filter((u) => u.email === b.users.desk.email).map((u) => u.id)).toEqual([taken.body.id]);
   });
 });
 

@@ -13,6 +13,7 @@ import { Shop } from '../shops/shop.entity';
 import { Bike } from '../bikes/bike.entity';
 import { User } from '../users/user.entity';
 import { recordAudit } from '../audit/audit.service';
+import { PendingInvite } from '../users/pending-invite.entity';
 
 type CustomerData = z.output<typeof customerInput>;
 type ListQuery = z.output<typeof customerListQuery>;
@@ -26,8 +27,10 @@ async function decorate(em: EntityManager, customers: Customer[]): Promise<Custo
     [customers[0].shop.id, ...ids],
   )) as { customer_id: string; n: number }[];
   const portal = await em.find(User, { customer: { $in: ids } }, { fields: ['customer'] });
+  // An invitation to an address of another shop counts as one, as any invitation does.
+  const pending = await em.find(PendingInvite, { customer: { $in: ids } }, { fields: ['customer'] });
   const bikeCount = new Map(counts.map((r) => [r.customer_id, r.n]));
-  const withPortal = new Set(portal.map((u) => u.customer?.id));
+  const withPortal = new Set([...portal, ...pending].map((u) => u.customer?.id));
   return customers.map((c) => ({
     id: c.id,
     name: c.name,

@@ -3,11 +3,11 @@ import type { Actor } from '../../http/actor';
 import { AppError, conflict, notFound } from '../../lib/errors';
 import { tenantScope } from '../../http/tenant-scope';
 import { wholePage, type Page } from '@shared/schemas/common';
-import { randomUUID } from 'node:crypto';
 import { enqueueMail } from '../../lib/mail/mail-queue';
 import type { InviteUserInput, UserDto } from '@shared/schemas/auth';
 import type { Role } from '@shared/roles';
 import { AuthToken, User } from './user.entity';
+import { PendingInvite } from './pending-invite.entity';
 import { ShareLink } from '../reports/report.entity';
 import { Customer } from '../customers/customer.entity';
 import { Shop } from '../shops/shop.entity';
@@ -27,10 +27,25 @@ export const toUserDto = (u: User): UserDto => ({
   lastLoginAt: u.lastLoginAt?.toISOString() ?? null,
 });
 
+/** An invitation to an address of another shop, shown as any invitation waiting to be accepted. */
+const pendingToUserDto = (p: PendingInvite): UserDto => ({
+  id: p.id,
+  email: p.email,
+  name: p.name,
+  role: p.role,
+  disabled: p.disabled,
+  invitePending: true,
+  customerId: p.customer?.id ?? null,
+  lastLoginAt: null,
+});
+
 /** The shop's sign-ins, by role then name: a short list by nature, answered whole. */
 export async function listUsers(em: EntityManager, actor: Actor): Promise<Page<UserDto>> {
-  const users = await em.find(User, tenantScope<User>(actor), { orderBy: { role: 'asc', name: 'asc' } });
-  return wholePage(users.map(toUserDto));
+  const users = await em.find(User, tenantScope<User>(actor));
+  const pending = await em.find(PendingInvite, tenantScope<PendingInvite>(actor));
+  const all = [...users.map(toUserDto), ...pending.map(pendingToUserDto)];
+  all.sort((x, y) => (x.role === y.role ? x.name.localeCompare(y.name) : x.role < y.role ? -1 : 1));
+  return wholePage(all);
 }
 
 /** Queues the invitation mail in the transaction `tx` that issued its token (sent once it commits). */
@@ -47,8 +62,10 @@ async function queueInvite(tx: EntityManager, publicUrl: string, user: User, sho
 
 /** Create a user without a password and e-mail them a link to set one. */
 export async function inviteUser(em: EntityManager, publicUrl: string, actor: Actor, input: InviteUserInput): Promise<UserDto> {
-  const existing = await em.findOne(User, { email: input.email.trim().toLowerCase() }, { populate: ['shop'] });
-  if (existing && existing.shop.id === actor.shopId) {
+  const email = input.email.trim().toLowerCase();
+  const existing = await em.findOne(User, { email }, { populate: ['shop'] });
+  const pendingHere = await em.count(PendingInvite, { shop: actor.shopId, email });
+  if ((existing && existing.shop.id === actor.shopId) || pendingHere) {
     throw conflict('EMAIL_TAKEN', 'A user with that e-mail address already exists');
   }
   let customer: Customer | null = null;
@@ -69,30 +86,60 @@ export async function inviteUser(em: EntityManager, publicUrl: string, actor: Ac
   return toUserDto(user);
 }
 
+/** Tells the owner of an address that already signs in elsewhere that this shop invited it. */
+async function queueElsewhereNotice(tx: EntityManager, publicUrl: string, shopId: string, shopName: string, email: string) {
+  await enqueueMail(tx, {
+    shopId,
+    kind: 'invite',
+    to: email,
+    subject: `${shopName} invited you to Pullbook`,
+    text: `Hello,\n\n${shopName} tried to give this address a Pullbook sign-in, but it already has one. If you want a separate sign-in for ${shopName}, ask them to invite another address of yours.\n\nSign in as usual at ${publicUrl.replace(/\/$/, '')}/login\n`,
+  });
+}
+
 /**
  * The address already signs in at another shop (addresses are unique across Pullbook). The
- * inviting shop gets the same answer as for a new address, so an invitation never tells whether
- * an address is known elsewhere; the audit notes the invitation, and the address's owner gets a
- * notice instead of a link (they can ask the shop to use another address).
+ * inviting shop gets the same answer as for a new address, and keeps seeing the invitation as
+ * pending (a PendingInvite row), so neither the answer nor a reload tells whether the address is
+ * known elsewhere. The address's owner gets a notice instead of a link.
  */
 async function inviteAccountOfAnotherShop(em: EntityManager, publicUrl: string, actor: Actor, shop: Shop, existing: User, input: InviteUserInput): Promise<UserDto> {
-  const standIn: UserDto = { id: randomUUID(), email: input.email.trim().toLowerCase(), name: input.name, role: input.role, disabled: false, invitePending: true, customerId: input.customerId ?? null, lastLoginAt: null };
-  await em.transactional(async (tx) => {
-    await recordAudit(tx, actor, 'user.invite', 'user', standIn.id, { email: standIn.email, role: standIn.role });
-    await enqueueMail(tx, {
-      shopId: actor.shopId,
-      kind: 'invite',
-      to: existing.email,
-      subject: `${shop.name} invited you to Pullbook`,
-      text: `Hello,\n\n${shop.name} tried to give this address a Pullbook sign-in, but it already has one. If you want a separate sign-in for ${shop.name}, ask them to invite another address of yours.\n\nSign in as usual at ${publicUrl.replace(/\/$/, '')}/login\n`,
-    });
+  const pending = await em.transactional(async (tx) => {
+    const customer = input.customerId ? tx.getReference(Customer, input.customerId) : null;
+    const row = tx.create(PendingInvite, { shop, email: existing.email, name: input.name, role: input.role, customer } as PendingInvite);
+    await recordAudit(tx, actor, 'user.invite', 'user', row.id, { email: row.email, role: row.role });
+    await queueElsewhereNotice(tx, publicUrl, actor.shopId, shop.name, existing.email);
+    return row;
   });
-  return standIn;
+  return pendingToUserDto(pending);
+}
+
+/**
+ * Resending an invitation to an address of another shop: the notice again, or, when that address
+ * no longer signs in anywhere, the real invitation (the pending row becomes the user).
+ */
+async function resendPendingInvite(em: EntityManager, publicUrl: string, actor: Actor, pending: PendingInvite): Promise<void> {
+  const shop = await em.findOneOrFail(Shop, actor.shopId);
+  await em.transactional(async (tx) => {
+    await recordAudit(tx, actor, 'user.resend-invite', 'user', pending.id, { email: pending.email });
+    if (await tx.count(User, { email: pending.email })) {
+      await queueElsewhereNotice(tx, publicUrl, actor.shopId, shop.name, pending.email);
+      return;
+    }
+    const user = tx.create(User, { id: pending.id, shop, email: pending.email, name: pending.name, role: pending.role, customer: pending.customer, disabled: pending.disabled } as User);
+    tx.remove(tx.getReference(PendingInvite, pending.id));
+    const issued = await issueToken(tx, user, 'invite');
+    await queueInvite(tx, publicUrl, user, shop.name, issued);
+  });
 }
 
 export async function resendInvite(em: EntityManager, publicUrl: string, actor: Actor, id: string) {
   const user = await em.findOne(User, tenantScope<User>(actor, undefined, { id }), { populate: ['shop'] });
-  if (!user) throw notFound('User');
+  if (!user) {
+    const pending = await em.findOne(PendingInvite, tenantScope<PendingInvite>(actor, undefined, { id }));
+    if (!pending) throw notFound('User');
+    return resendPendingInvite(em, publicUrl, actor, pending);
+  }
   if (user.passwordHash) throw conflict('ALREADY_ACTIVE', 'This user has already set a password');
   await em.transactional(async (tx) => {
     const issued = await issueToken(tx, user, 'invite');
@@ -110,6 +157,8 @@ export async function resendInvite(em: EntityManager, publicUrl: string, actor: 
 }
 
 export async function updateUser(em: EntityManager, actor: Actor, id: string, patch: { name?: string; role?: Role; disabled?: boolean }): Promise<UserDto> {
+  const pending = await em.findOne(PendingInvite, tenantScope<PendingInvite>(actor, undefined, { id }));
+  if (pending) return updatePendingInvite(em, actor, pending, patch);
   const user = await em.transactional(async (tx) => {
     const found = await tx.findOne(User, tenantScope<User>(actor, undefined, { id }));
     if (!found) throw notFound('User');
@@ -139,4 +188,18 @@ export async function updateUser(em: EntityManager, actor: Actor, id: string, pa
     await em.getConnection().execute(`delete from http_session where sess->'passport'->>'user' = ?`, [user.id]);
   }
   return toUserDto(user);
+}
+
+/** The same edits on an invitation to an address of another shop, with the same rules and audit. */
+async function updatePendingInvite(em: EntityManager, actor: Actor, pending: PendingInvite, patch: { name?: string; role?: Role; disabled?: boolean }): Promise<UserDto> {
+  if (patch.role === 'customer' && !pending.customer) {
+    throw new AppError('CUSTOMER_REQUIRED', 'A customer sign-in must belong to a customer record; invite them from the customer page', 400);
+  }
+  await em.transactional(async (tx) => {
+    const before = { name: pending.name, role: pending.role, disabled: pending.disabled };
+    tx.assign(pending, Object.fromEntries(Object.entries(patch).filter(([, v]) => v !== undefined)));
+    await tx.persist(pending).flush();
+    await recordAudit(tx, actor, 'user.update', 'user', pending.id, { before, after: { name: pending.name, role: pending.role, disabled: pending.disabled } });
+  });
+  return pendingToUserDto(pending);
 }
