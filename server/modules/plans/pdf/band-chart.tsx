@@ -3,13 +3,12 @@
  * report's chart style: the run's power solid, the middle half of past gains shaded, the median
  * gain dashed. Axis ticks by the report chart's niceTicks.
  */
-import { G, Line, Polygon, Polyline, Rect, Svg, Text } from '@react-pdf/renderer';
+import { Polygon, Polyline, Svg, Text } from '@react-pdf/renderer';
 import { palette } from '@shared/theme';
-import { formatNumber } from '@shared/format';
 import type { PredictionBandDto } from '@shared/schemas/plans';
 import type { UnitSystem } from '../../shops/shop.entity';
 import { powerIn, unitLabels } from '../../reports/figures';
-import { niceTicks } from '../../reports/pdf/chart';
+import { niceTicks, PlotFrame } from '../../reports/pdf/chart';
 import { PDF_FONT } from '../../reports/pdf/fonts';
 
 export function BandChart({ band, width, height, units }: { band: PredictionBandDto; width: number; height: number; units: UnitSystem }) {
@@ -26,26 +25,9 @@ export function BandChart({ band, width, height, units }: { band: PredictionBand
   const sy = (v: number) => m.top + h - ((v - y.min) / (y.max - y.min)) * h;
   const line = (vs: number[]) => band.rpm.map((r, i) => `${sx(r).toFixed(2)},${sy(vs[i]).toFixed(2)}`).join(' ');
   const area = [...band.rpm.map((r, i) => `${sx(r).toFixed(2)},${sy(hi[i]).toFixed(2)}`), ...band.rpm.map((r, i) => `${sx(r).toFixed(2)},${sy(lo[i]).toFixed(2)}`).reverse()].join(' ');
-  const tick = { fontFamily: PDF_FONT, fontSize: 7.5, fill: palette.ink.muted } as const;
   return (
     <Svg width={width} height={height} viewBox={`0 0 ${width} ${height}`}>
-      <Rect x={m.left} y={m.top} width={w} height={h} fill="#FFFFFF" stroke={palette.line.DEFAULT} strokeWidth={0.6} />
-      {y.ticks.map((v) => (
-        <G key={`y${v}`}>
-          <Line x1={m.left} x2={m.left + w} y1={sy(v)} y2={sy(v)} stroke={palette.line.DEFAULT} strokeWidth={0.5} />
-          <Text x={m.left - 5} y={sy(v) + 2.6} textAnchor="end" style={tick}>
-            {formatNumber(v)}
-          </Text>
-        </G>
-      ))}
-      {x.ticks.map((v) => (
-        <G key={`x${v}`}>
-          <Line x1={sx(v)} x2={sx(v)} y1={m.top} y2={m.top + h} stroke={palette.line.DEFAULT} strokeWidth={0.5} strokeDasharray="2 2" />
-          <Text x={sx(v)} y={m.top + h + 12} textAnchor="middle" style={tick}>
-            {formatNumber(v)}
-          </Text>
-        </G>
-      ))}
+      <PlotFrame left={m.left} top={m.top} width={w} height={h} xTicks={x.ticks} yTicks={y.ticks} sx={sx} sy={sy} />
       <Polygon points={area} fill={palette.gain.DEFAULT} fillOpacity={0.22} stroke="none" />
       <Polyline points={line(base)} fill="none" stroke={palette.ink.DEFAULT} strokeWidth={1.3} strokeLinejoin="round" />
       <Polyline points={line(med)} fill="none" stroke={palette.gain.DEFAULT} strokeWidth={1.1} strokeDasharray="4 2" strokeLinejoin="round" />

@@ -142,3 +142,49 @@ export function LegendSwatch({ colorIndex }: { colorIndex: number }) {
     </Svg>
   );
 }
+
+export interface PlotFrameProps {
+  /** Plot area: left and top edge, width and height, in points. */
+  left: number;
+  top: number;
+  width: number;
+  height: number;
+  xTicks: number[];
+  yTicks: number[];
+  sx: (v: number) => number;
+  sy: (v: number) => number;
+  /** How a y tick reads (default: the number as is). */
+  formatY?: (v: number) => string;
+  /** Distance from the plot's bottom edge to the rpm labels' baseline. */
+  xLabelGap?: number;
+}
+
+/**
+ * The frame the single-axis PDF charts share (the build plan's expected-gain band, the report's
+ * difference chart): white plot area, horizontal grid with y labels on the left, dashed rpm grid
+ * with labels below.
+ */
+export function PlotFrame({ left, top, width, height, xTicks, yTicks, sx, sy, formatY = (v) => formatNumber(v), xLabelGap = 12 }: PlotFrameProps) {
+  const tick = { fontFamily: FONT, fontSize: 7.5, fill: palette.ink.muted } as const;
+  return (
+    <G>
+      <Rect x={left} y={top} width={width} height={height} fill="#FFFFFF" stroke={palette.line.DEFAULT} strokeWidth={0.6} />
+      {yTicks.map((v) => (
+        <G key={`y${v}`}>
+          <Line x1={left} x2={left + width} y1={sy(v)} y2={sy(v)} stroke={palette.line.DEFAULT} strokeWidth={0.5} />
+          <Text x={left - 5} y={sy(v) + 2.6} textAnchor="end" style={tick}>
+            {formatY(v)}
+          </Text>
+        </G>
+      ))}
+      {xTicks.map((v) => (
+        <G key={`x${v}`}>
+          <Line x1={sx(v)} x2={sx(v)} y1={top} y2={top + height} stroke={palette.line.DEFAULT} strokeWidth={0.5} strokeDasharray="2 2" />
+          <Text x={sx(v)} y={top + height + xLabelGap} textAnchor="middle" style={tick}>
+            {formatNumber(v)}
+          </Text>
+        </G>
+      ))}
+    </G>
+  );
+}

@@ -3,14 +3,14 @@
  * (power solid, torque dashed, in the run's colour) around a zero line, from the same stored
  * curves as the screen's difference chart (@shared/curve-difference).
  */
-import { G, Line, Polyline, Rect, Svg, Text, View } from '@react-pdf/renderer';
+import { Line, Polyline, Svg, Text, View } from '@react-pdf/renderer';
 import { LINE_DASHARRAY, LINE_STYLES, runColor } from '@shared/run-style';
 import { palette } from '@shared/theme';
 import { formatNumber } from '@shared/format';
 import { differenceFromBaseline, differenceRange } from '@shared/curve-difference';
 import { powerIn, torqueIn, unitLabels } from '../figures';
 import type { ReportData } from '../report-data';
-import { niceTicks } from './chart';
+import { niceTicks, PlotFrame } from './chart';
 
 const FONT = 'Barlow';
 
@@ -32,28 +32,11 @@ export function DifferenceChart({ data, width, height }: { data: Pick<ReportData
   const sx = (rpm: number) => m.left + ((rpm - x.min) / (x.max - x.min)) * w;
   const sy = (v: number) => m.top + h - ((v - y.min) / (y.max - y.min)) * h;
   const colorOf = new Map(data.runs.map((r) => [r.id, runColor(r.colorIndex)]));
-  const tick = { fontFamily: FONT, fontSize: 7.5, fill: palette.ink.muted } as const;
   const pts = (rpm: number[], values: number[]) => rpm.map((r, i) => `${sx(r).toFixed(2)},${sy(values[i]).toFixed(2)}`).join(' ');
   return (
     <View wrap={false}>
       <Svg width={width} height={height} viewBox={`0 0 ${width} ${height}`}>
-        <Rect x={m.left} y={m.top} width={w} height={h} fill="#FFFFFF" stroke={palette.line.DEFAULT} strokeWidth={0.6} />
-        {y.ticks.map((v) => (
-          <G key={`y${v}`}>
-            <Line x1={m.left} x2={m.left + w} y1={sy(v)} y2={sy(v)} stroke={palette.line.DEFAULT} strokeWidth={0.5} />
-            <Text x={m.left - 5} y={sy(v) + 2.6} textAnchor="end" style={tick}>
-              {formatNumber(v, { signed: v !== 0 })}
-            </Text>
-          </G>
-        ))}
-        {x.ticks.map((v) => (
-          <G key={`x${v}`}>
-            <Line x1={sx(v)} x2={sx(v)} y1={m.top} y2={m.top + h} stroke={palette.line.DEFAULT} strokeWidth={0.5} strokeDasharray="2 2" />
-            <Text x={sx(v)} y={m.top + h + 10} textAnchor="middle" style={tick}>
-              {formatNumber(v)}
-            </Text>
-          </G>
-        ))}
+        <PlotFrame left={m.left} top={m.top} width={w} height={h} xTicks={x.ticks} yTicks={y.ticks} sx={sx} sy={sy} formatY={(v) => formatNumber(v, { signed: v !== 0 })} xLabelGap={10} />
         {/* the baseline itself: zero difference */}
         <Line x1={m.left} x2={m.left + w} y1={sy(0)} y2={sy(0)} stroke={palette.ink.DEFAULT} strokeWidth={1} />
         {diffs.map((d) => (

@@ -1,11 +1,14 @@
-import type { ReportRun } from '@shared/schemas/report';
+import type { PublicShareRun } from '@shared/schemas/report';
 import { Card, SimpleTable } from '@/components/ui';
 import { formatRpm } from '@shared/format';
 import { powerValue, torqueValue, type displayUnits } from '@shared/units-display';
 import { runColor } from '@/lib/chart-theme';
 
-/** The report's runs by their one name, with the file each came from, so pulls match their files. */
-export function ReportRunsCard({ runs, units }: { runs: ReportRun[]; units: ReturnType<typeof displayUnits> }) {
+/**
+ * The report's runs by their one name, with the file each came from, so pulls match their files.
+ * Shown on the staff report page and on the customer's shared page alike.
+ */
+export function ReportRunsCard({ runs, units }: { runs: PublicShareRun[]; units: ReturnType<typeof displayUnits> }) {
   return (
     <Card title="Runs in this report" flush>
       <SimpleTable columns={['Run', { label: 'Peak power', numeric: true }, { label: 'Peak torque', numeric: true }, 'Correction']} caption="Runs in this report" className="overflow-x-auto" minWidth="min-w-[32rem]">

@@ -2,11 +2,12 @@ import { useQuery } from '@tanstack/react-query';
 import { useParams } from 'react-router-dom';
 import { Caution, LoadingState, buttonBaseClass, buttonSizeClass, buttonVariantClass, cn } from '@/components/ui';
 import { ApiError } from '@/lib/api-client';
-import { formatDate, formatRpm } from '@shared/format';
+import { formatDate } from '@shared/format';
 import { reportQueries } from '../api/report-queries';
 import { ReportCharts } from '../components/report-charts';
 import { HeadlineFigures } from '../components/gain-figures';
-import { powerValue, torqueValue, displayUnits } from '@shared/units-display';
+import { ReportRunsCard } from '../components/report-runs';
+import { displayUnits } from '@shared/units-display';
 import { usePageTitle } from '@/lib/page-title';
 
 function NotValid({ rateLimited }: { rateLimited: boolean }) {
@@ -66,41 +67,7 @@ export default function SharePage() {
         </h2>
         <ReportCharts runs={s.runs} curves={s.curves} gains={s.gains} units={units} summary={s.summary} />
       </section>
-      <section aria-labelledby="runs-title">
-        <h2 id="runs-title" className="text-lg font-semibold">
-          Runs
-        </h2>
-        <div className="overflow-x-auto" role="region" aria-labelledby="runs-title" tabIndex={0}>
-          <table className="w-full text-sm">
-            <thead>
-              <tr className="border-b border-line text-left text-ink-subtle">
-                <th className="py-2 pr-3 font-medium">Run</th>
-                <th className="py-2 pr-3 text-right font-medium">Peak power</th>
-                <th className="py-2 pr-3 text-right font-medium">Peak torque</th>
-                <th className="py-2 font-medium">Correction</th>
-              </tr>
-            </thead>
-            <tbody>
-              {s.runs.map((r) => (
-                <tr key={r.id} className="border-b border-line">
-                  <td className="py-2 pr-3">
-                    {r.label}
-                    {r.isBaseline ? ' (baseline)' : ''}
-                    {r.fileName && <span className="block text-xs text-ink-muted [overflow-wrap:anywhere]">{r.fileName}</span>}
-                  </td>
-                  <td className="num py-2 pr-3 text-right">
-                    {powerValue(units, r.peakPower.hp)} <span className="text-ink-subtle">at {formatRpm(r.peakPower.rpm)}</span>
-                  </td>
-                  <td className="num py-2 pr-3 text-right">
-                    {torqueValue(units, r.peakTorque.lbft)} <span className="text-ink-subtle">at {formatRpm(r.peakTorque.rpm)}</span>
-                  </td>
-                  <td className="py-2">{r.correctionLabel}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
-      </section>
+      <ReportRunsCard runs={s.runs} units={units} />
       <Caution title="Reading these figures">
         Dyno figures depend on the dyno, the correction standard and the conditions on the day; compare only like with like. Modifications may affect emissions compliance, noise limits, warranty and insurance, and on-road use is governed by local law. The PDF has the full details.
       </Caution>
