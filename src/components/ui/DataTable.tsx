@@ -52,6 +52,8 @@ interface DataTableCommonProps {
   pageSizeOptions?: readonly number[];
   /** Total rows on the server, for "21–40 of 312". */
   totalRows?: number;
+  /** `totalRows` is an estimate: "21–40 of about 24,800". */
+  totalIsEstimate?: boolean;
   className?: string;
 }
 
@@ -174,6 +176,7 @@ function DataTableView<TData>({
   showPagination,
   pageSizeOptions,
   totalRows,
+  totalIsEstimate,
   className,
 }: DataTableInstanceProps<TData>) {
   const rows = table.getRowModel().rows;
@@ -318,6 +321,7 @@ function DataTableView<TData>({
             pageSizeOptions={pageSizeOptions}
             onPageSizeChange={(size) => table.setPagination({ pageIndex: 0, pageSize: size })}
             totalRows={totalRows ?? (table.options.rowCount !== undefined ? table.getRowCount() : undefined)}
+            totalIsEstimate={totalIsEstimate}
             disabled={isLoading && rows.length === 0}
           />
         </div>

@@ -16,6 +16,8 @@ export interface PaginationProps {
   onPageSizeChange?: (pageSize: number) => void;
   /** Total rows across all pages; shows "21–40 of 312". */
   totalRows?: number;
+  /** The total is the database's estimate (a large archive): says "about", and offers no "Last page". */
+  totalIsEstimate?: boolean;
   /** Name of the navigation landmark; default "Pages". */
   label?: string;
   disabled?: boolean;
@@ -31,6 +33,7 @@ export function Pagination({
   pageSizeOptions = [25, 50, 100],
   onPageSizeChange,
   totalRows,
+  totalIsEstimate = false,
   label = 'Pages',
   disabled = false,
   className,
@@ -40,13 +43,14 @@ export function Pagination({
   const current = Math.min(Math.max(pageIndex, 0), lastIndex);
   const atStart = disabled || current <= 0;
   const atEnd = disabled || current >= lastIndex;
+  const about = totalIsEstimate ? 'about ' : '';
   const go = (index: number) => onPageChange(Math.min(Math.max(index, 0), lastIndex));
 
   const range =
     totalRows !== undefined && pageSize
       ? totalRows === 0
         ? 'No rows'
-        : `${formatNumber(current * pageSize + 1)}–${formatNumber(Math.min((current + 1) * pageSize, totalRows))} of ${formatNumber(totalRows)}`
+        : `${formatNumber(current * pageSize + 1)}–${formatNumber(Math.min((current + 1) * pageSize, totalRows))} of ${about}${formatNumber(totalRows)}`
       : null;
 
   return (
@@ -85,10 +89,10 @@ export function Pagination({
             onClick={() => go(current - 1)}
           />
           <span className="num min-w-24 px-2 text-center text-sm text-ink">
-            {pageCount > 0 ? `Page ${formatNumber(current + 1)} of ${formatNumber(pageCount)}` : 'Page 0 of 0'}
+            {pageCount > 0 ? `Page ${formatNumber(current + 1)} of ${about}${formatNumber(pageCount)}` : 'Page 0 of 0'}
           </span>
           <IconButton label="Next page" size="sm" icon={<Icon name="chevron-right" />} disabled={atEnd} onClick={() => go(current + 1)} />
-          <IconButton label="Last page" size="sm" icon={<Icon name="chevrons-right" />} disabled={atEnd} onClick={() => go(lastIndex)} />
+          {!totalIsEstimate && <IconButton label="Last page" size="sm" icon={<Icon name="chevrons-right" />} disabled={atEnd} onClick={() => go(lastIndex)} />}
         </div>
       </div>
     </nav>

@@ -2,7 +2,7 @@ import { Link } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
 import { STAFF, WORKSHOP } from '@shared/roles';
 import { Card, DataTable, ErrorState, Icon } from '@/components/ui';
-import { formatDate, formatDateTime, formatHp, formatRpm, formatTorque } from '@shared/format';
+import { formatDate, formatDateTime, formatHp, formatNumber, formatRpm, formatTorque } from '@shared/format';
 import { useCurrentUser } from '@/lib/auth';
 import { paths } from '@/config/paths';
 import { runQueries } from '../api/runs/run-queries';
@@ -29,7 +29,7 @@ export function BikeRunsSection({ bikeId }: { bikeId: string }) {
   return (
     <Card
       title="Dyno runs"
-      description={runs.data ? `${runs.data.total} ${runs.data.total === 1 ? 'run' : 'runs'} in the archive` : undefined}
+      description={runs.data ? `${runs.data.totalIsEstimate ? 'About ' : ''}${formatNumber(runs.data.total)} ${runs.data.total === 1 ? 'run' : 'runs'} in the archive` : undefined}
       actions={
         <div className="flex flex-wrap gap-2">
           {STAFF.includes(user.role) && (

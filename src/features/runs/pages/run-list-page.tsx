@@ -192,6 +192,7 @@ export function RunListPage() {
           getRowId={(r) => r.id}
           isLoading={runs.isFetching}
           totalRows={runs.data?.total}
+          totalIsEstimate={runs.data?.totalIsEstimate}
           sorting={sorting}
           onSortingChange={(updater) => {
             const next = typeof updater === 'function' ? updater(sorting) : updater;
