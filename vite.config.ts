@@ -43,7 +43,7 @@ export default defineConfig({
       output: {
         // The common-password list (about 190 kB gzip) in a chunk of its own, so the lazily
         // loaded password policy is two chunks under the per-chunk budget instead of one over it.
-        advancedChunks: { groups: [{ name: 'password-list', test: /@zxcvbn-ts[\\/]language-common[\\/]dist[\\/]passwords/ }] },
+        codeSplitting: { groups: [{ name: 'password-list', test: /@zxcvbn-ts[\\/]language-common[\\/]dist[\\/]passwords/ }] },
       },
     },
   },
