@@ -46,7 +46,8 @@ export async function listBikes(em: EntityManager, actor: Actor, query: ListQuer
   const orderBy = field === 'customer' ? { customer: { name: dir } } : { [field]: dir };
   const [rows, total] = await em.findAndCount(Bike, where, {
     populate: ['customer'],
-    orderBy: [orderBy, { id: 'asc' }],
+    // The tie-break runs the same way as the sort, so (shop_id, field, id) serves it from either end.
+    orderBy: [orderBy, { id: dir }],
     limit: query.pageSize,
     offset: (query.page - 1) * query.pageSize,
   });

@@ -52,7 +52,8 @@ export async function listCustomers(em: EntityManager, actor: Actor, query: List
   }
   const { field, dir } = parseSort(query.sort, 'name');
   const [rows, total] = await em.findAndCount(Customer, where, {
-    orderBy: { [field]: dir, id: 'asc' },
+    // The tie-break runs the same way as the sort, so (shop_id, field, id) serves it from either end.
+    orderBy: { [field]: dir, id: dir },
     limit: query.pageSize,
     offset: (query.page - 1) * query.pageSize,
   });
