@@ -53,6 +53,25 @@ describe('customers', () => {
 });
 
 describe('bikes', () => {
+  it('finds a bike by make, model, VIN, engine family or owner, across words, and after renames', async () => {
+    const desk = await t.signIn(a.users.desk);
+    const owner = (await desk.post('/api/customers').send({ name: 'Wrenfield Okoro' })).body;
+    const bike = (await desk.post('/api/bikes').send({ customerId: owner.id, make: 'Zephrane', model: 'Longhaul 117', vin: '1M8GDM9AXKP042788', engineFamily: 'Quarrel Twin', displacement: 1917, displacementUnit: 'cc', cylinders: 2 })).body;
+    const found = async (q: string) => ((await desk.get('/api/bikes').query({ q })).body.items as { id: string }[]).map((x) => x.id);
+    for (const q of ['zephrane', 'LONGHAUL', 'kp042788', 'quarrel tw', 'okoro', 'zephrane longhaul']) expect(await found(q), q).toEqual([bike.id]);
+    expect(await found('longhaul zephrane')).toEqual([]);
+    // Renaming the bike or its owner moves what the search finds.
+    await desk.put(`/api/bikes/${bike.id}`).send({ customerId: owner.id, make: 'Zephrane', model: 'Shortrun 90', vin: '1M8GDM9AXKP042788', engineFamily: 'Quarrel Twin', displacement: 1917, displacementUnit: 'cc', cylinders: 2 });
+    expect(await found('longhaul')).toEqual([]);
+    expect(await found('shortrun')).toEqual([bike.id]);
+    await desk.put(`/api/customers/${owner.id}`).send({ name: 'Wrenfield Adeyemi' });
+    expect(await found('okoro')).toEqual([]);
+    expect(await found('adeyemi')).toEqual([bike.id]);
+    // Another shop's desk finds nothing of it.
+    const other = await t.signIn(b.users.desk);
+    expect((await other.get('/api/bikes').query({ q: 'zephrane' })).body.items).toEqual([]);
+  });
+
   it('stores displacement entered in cubic inches as cm³ (1 in³ = 16.387064 cm³, NIST SP 811)', async () => {
     const desk = await t.signIn(a.users.desk);
     const res = await desk.post('/api/bikes').send({ customerId: a.customer.id, make: 'Testmake', model: 'Cubic', displacement: 107, displacementUnit: 'ci', cylinders: 2 });

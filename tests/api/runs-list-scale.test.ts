@@ -7,6 +7,8 @@ import { bikeListQuery } from '@shared/schemas/bike';
 import { customerListQuery } from '@shared/schemas/customer';
 import { listBikes } from '@server/modules/bikes/bike.service';
 import { listCustomers } from '@server/modules/customers/customer.service';
+import { listStages } from '@server/modules/stages/stage.service';
+import { sequenceScope } from '@server/modules/runs/run-sequence';
 
 /**
  * The run list at archive scale (server/modules/runs/run-list-sql.ts, Migration20261202170000):
@@ -227,6 +229,36 @@ describe('bikes and customers lists (EXPLAIN on 2 000 bikes and 3 000 customers)
       const text = rows.map((r) => r['QUERY PLAN']).join('\n');
       expect(text, text).toContain(index);
       expect(text, text).not.toMatch(/(^|\s)Sort(\s|$)|Sort Key/);
+    }
+  });
+
+  it('searches bikes through the trigram index of bike.search_text', async () => {
+    const statements = await statementsOf(() => listBikes(t.deps.orm.em.fork(), owner(), bikeListQuery.parse({ q: 'quillon rare' })));
+    const page = statements.find((s) => /from "bike"/.test(s.sql) && /search_text/.test(s.sql) && /limit/i.test(s.sql));
+    expect(page).toBeDefined();
+    // 2 000 bikes fit in a few pages, where reading them all is cheapest; with sequential scans
+    // priced out, the plan shows the index serves the search (the old OR across bike and
+    // customer could use none, so it read every bike of the shop at any size).
+    const text = await t.deps.orm.em.fork().getKnex().transaction(async (trx) => {
+      await trx.raw('set local enable_seqscan = off');
+      const res = (await trx.raw(`explain ${page!.sql}`, page!.params as never)) as { rows: { 'QUERY PLAN': string }[] };
+      return res.rows.map((r) => r['QUERY PLAN']).join('\n');
+    });
+    expect(text, text).toContain('bike_search_trgm');
+  });
+
+  it('counts a bike page’s stage runs and numbers a new pull without a sequential scan of run', async () => {
+    // Runs of the 20 000 here have no stage or session; the plans are what matters.
+    const agent = await t.signIn(shop.users.owner);
+    expect((await agent.post('/api/stages').send({ bikeId: shop.bike.id, name: 'Plan check stage' })).status).toBe(201);
+    const stageCounts = await statementsOf(() => listStages(t.deps.orm.em.fork(), owner(), shop.bike.id));
+    const sequence = sequenceScope(shop.bike.id, shop.bike.id);
+    const queries = [...stageCounts.filter((s) => /from run /.test(s.sql)), { sql: sequence.sql, params: sequence.params }];
+    expect(queries.length).toBe(2);
+    for (const q of queries) {
+      const rows = (await t.deps.orm.em.fork().getConnection().execute(`explain ${q.sql}`, q.params)) as { 'QUERY PLAN': string }[];
+      const text = rows.map((r) => r['QUERY PLAN']).join('\n');
+      expect(text, `${q.sql}\n${text}`).not.toMatch(SEQ_SCAN_ON_RUN);
     }
   });
 });

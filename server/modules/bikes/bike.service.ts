@@ -1,5 +1,5 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
-import type { FilterQuery } from '@mikro-orm/core';
+import { raw, type FilterQuery } from '@mikro-orm/core';
 import type { z } from 'zod';
 import type { Actor } from '../../http/actor';
 import { notFound } from '../../lib/errors';
@@ -32,16 +32,9 @@ export const toBikeDto = (b: Bike): BikeDto => ({
 export async function listBikes(em: EntityManager, actor: Actor, query: ListQuery): Promise<Page<BikeDto>> {
   const where = tenantScope<Bike>(actor, 'customer') as FilterQuery<Bike> & Record<string, unknown>;
   if (query.customerId) Object.assign(where, { customer: customerFilterOf(actor) ?? query.customerId });
-  if (query.q) {
-    const like = containsPattern(query.q);
-    where.$or = [
-      { make: { $ilike: like } },
-      { model: { $ilike: like } },
-      { vin: { $ilike: like } },
-      { engineFamily: { $ilike: like } },
-      { customer: { name: { $ilike: like } } },
-    ];
-  }
+  // bike.search_text (make, model, VIN, engine family, customer's name; kept by triggers,
+  // Migration20261202232000) under one trigram index.
+  if (query.q) where[raw((alias) => `${alias}.search_text`)] = { $ilike: containsPattern(query.q) };
   const { field, dir } = parseSort(query.sort, 'make');
   const orderBy = field === 'customer' ? { customer: { name: dir } } : { [field]: dir };
   const [rows, total] = await em.findAndCount(Bike, where, {

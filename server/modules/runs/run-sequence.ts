@@ -9,16 +9,17 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 export interface SequenceScope {
   /** Key of the transaction-scoped advisory lock: one per bike, sessions and no session alike. */
   lockKey: string;
-  /** SQL answering the highest number taken in the scope as `max` (null when none) for `param`. */
+  /** SQL answering the highest number taken in the scope as `max` (null when none) for `params`. */
   sql: string;
-  param: string;
+  params: string[];
 }
 
 /** Where a new run of this bike (and session, if any) counts from. */
 export function sequenceScope(bikeId: string, sessionId: string | null): SequenceScope {
   return sessionId
-    ? { lockKey: `run-seq:${bikeId}`, sql: 'select max(sequence) as max from run where session_id = ?', param: sessionId }
-    : { lockKey: `run-seq:${bikeId}`, sql: 'select max(sequence) as max from run where bike_id = ? and session_id is null', param: bikeId };
+    ? // A session's runs are all of one bike: bike_id first, so run's bike index serves it (no index leads with session_id).
+      { lockKey: `run-seq:${bikeId}`, sql: 'select max(sequence) as max from run where bike_id = ? and session_id = ?', params: [bikeId, sessionId] }
+    : { lockKey: `run-seq:${bikeId}`, sql: 'select max(sequence) as max from run where bike_id = ? and session_id is null', params: [bikeId] };
 }
 
 /** The number after the highest one taken; 1 for the first run. PostgreSQL may answer the maximum as text. */
@@ -33,6 +34,6 @@ export async function nextSequence(em: EntityManager, bikeId: string, sessionId:
   const scope = sequenceScope(bikeId, sessionId);
   const conn = em.getConnection();
   await conn.execute('select pg_advisory_xact_lock(hashtextextended(?, 0))', [scope.lockKey], 'all', em.getTransactionContext());
-  const rows = (await conn.execute(scope.sql, [scope.param], 'all', em.getTransactionContext())) as { max: number | string | null }[];
+  const rows = (await conn.execute(scope.sql, scope.params, 'all', em.getTransactionContext())) as { max: number | string | null }[];
   return sequenceAfter(rows[0]?.max);
 }

@@ -24,10 +24,10 @@ describe('run sequence numbers', () => {
 
   it('counts within the session when there is one, else within the bike’s runs without a session', () => {
     const inSession = sequenceScope(BIKE, SESSION);
-    expect(inSession.param).toBe(SESSION);
-    expect(inSession.sql).toMatch(/where session_id = \?$/);
+    expect(inSession.params).toEqual([BIKE, SESSION]);
+    expect(inSession.sql).toMatch(/where bike_id = \? and session_id = \?$/);
     const noSession = sequenceScope(BIKE, null);
-    expect(noSession.param).toBe(BIKE);
+    expect(noSession.params).toEqual([BIKE]);
     expect(noSession.sql).toMatch(/where bike_id = \? and session_id is null$/);
   });
 
