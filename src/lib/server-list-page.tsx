@@ -63,7 +63,7 @@ export function ServerListPage<TItem, TKey extends QueryKey>(props: ServerListPa
     <>
       <PageHeader
         title={props.title}
-        subtitle={total !== undefined ? `${formatNumber(total)} ${total === 1 ? one : many}${q ? ` matching “${q}”` : (props.unfilteredSuffix ?? '')}` : props.idleSubtitle}
+        subtitle={total !== undefined ? `${list.data?.totalIsEstimate ? 'About ' : ''}${formatNumber(total)} ${total === 1 ? one : many}${q ? ` matching “${q}”` : (props.unfilteredSuffix ?? '')}` : props.idleSubtitle}
         action={
           props.newButton && (
             <Button variant="primary" icon={<Icon name="plus" size={18} />} onClick={props.newButton.onClick}>

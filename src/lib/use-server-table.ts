@@ -53,6 +53,7 @@ export function useServerTable<TItem, TKey extends QueryKey>(options: {
       data: list.data?.items ?? [],
       isLoading: list.isFetching,
       totalRows: list.data?.total,
+      totalIsEstimate: list.data?.totalIsEstimate,
       sorting,
       onSortingChange,
       pagination,

@@ -1,5 +1,6 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
-import { raw, type FilterQuery } from '@mikro-orm/core';
+import { LoadStrategy, raw, type FilterQuery } from '@mikro-orm/core';
+import { boundedTotal } from '../../db/bounded-total';
 import type { z } from 'zod';
 import type { Actor } from '../../http/actor';
 import { notFound } from '../../lib/errors';
@@ -29,22 +30,43 @@ export const toBikeDto = (b: Bike): BikeDto => ({
   createdAt: b.createdAt.toISOString(),
 });
 
+/** Columns of the sorts the (shop_id, column, id) list indexes serve; sorting by customer joins. */
+const SORT_COLUMN: Partial<Record<string, string>> = { make: 'make', model: 'model', year: 'year', createdAt: 'created_at', displacementCc: 'displacement_cc' };
+
 export async function listBikes(em: EntityManager, actor: Actor, query: ListQuery): Promise<Page<BikeDto>> {
   const where = tenantScope<Bike>(actor, 'customer') as FilterQuery<Bike> & Record<string, unknown>;
-  if (query.customerId) Object.assign(where, { customer: customerFilterOf(actor) ?? query.customerId });
+  const customerId = customerFilterOf(actor) ?? query.customerId ?? null;
+  if (customerId) Object.assign(where, { customer: customerId });
   // bike.search_text (make, model, VIN, engine family, customer's name; kept by triggers,
   // Migration20261202232000) under one trigram index.
-  if (query.q) where[raw((alias) => `${alias}.search_text`)] = { $ilike: containsPattern(query.q) };
+  const like = query.q ? containsPattern(query.q) : null;
+  if (like) where[raw((alias) => `${alias}.search_text`)] = { $ilike: like };
   const { field, dir } = parseSort(query.sort, 'make');
   const orderBy = field === 'customer' ? { customer: { name: dir } } : { [field]: dir };
-  const [rows, total] = await em.findAndCount(Bike, where, {
+  const offset = (query.page - 1) * query.pageSize;
+  const rows = await em.find(Bike, where, {
     populate: ['customer'],
+    // The page's customers by id afterwards, not a join over every row the offset skips.
+    strategy: LoadStrategy.SELECT_IN,
     // The tie-break runs the same way as the sort, so (shop_id, field, id) serves it from either end.
     orderBy: [orderBy, { id: dir }],
     limit: query.pageSize,
-    offset: (query.page - 1) * query.pageSize,
+    offset,
   });
-  return { items: rows.map(toBikeDto), total, page: query.page, pageSize: query.pageSize };
+  // Exact up to one largest page, else the planner's estimate: a shop's 25 000 bikes are not counted per page.
+  const params: unknown[] = [actor.shopId];
+  let fromWhere = 'from bike b where b.shop_id = ?';
+  if (customerId) {
+    fromWhere += ' and b.customer_id = ?';
+    params.push(customerId);
+  }
+  if (like) {
+    fromWhere += ' and b.search_text ilike ?';
+    params.push(like);
+  }
+  const column = SORT_COLUMN[field];
+  const { total, exact } = await boundedTotal(em, fromWhere, params, { atLeast: offset + rows.length, orderBy: column ? `b.${column} ${dir}, b.id ${dir}` : undefined });
+  return { items: rows.map(toBikeDto), total, ...(exact ? {} : { totalIsEstimate: true }), page: query.page, pageSize: query.pageSize };
 }
 
 /** Load a bike the actor may see, or 404 (never 403: do not confirm it exists elsewhere). */

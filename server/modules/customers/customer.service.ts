@@ -14,6 +14,7 @@ import { Bike } from '../bikes/bike.entity';
 import { User } from '../users/user.entity';
 import { recordAudit } from '../audit/audit.service';
 import { PendingInvite } from '../users/pending-invite.entity';
+import { boundedTotal } from '../../db/bounded-total';
 
 type CustomerData = z.output<typeof customerInput>;
 type ListQuery = z.output<typeof customerListQuery>;
@@ -51,13 +52,24 @@ export async function listCustomers(em: EntityManager, actor: Actor, query: List
     where.$or = [{ name: { $ilike: like } }, { email: { $ilike: like } }, { phone: { $ilike: like } }];
   }
   const { field, dir } = parseSort(query.sort, 'name');
-  const [rows, total] = await em.findAndCount(Customer, where, {
+  const offset = (query.page - 1) * query.pageSize;
+  const rows = await em.find(Customer, where, {
     // The tie-break runs the same way as the sort, so (shop_id, field, id) serves it from either end.
     orderBy: { [field]: dir, id: dir },
     limit: query.pageSize,
-    offset: (query.page - 1) * query.pageSize,
+    offset,
   });
-  return { items: await decorate(em, rows), total, page: query.page, pageSize: query.pageSize };
+  // Exact up to one largest page, else the planner's estimate (said so), as the other lists.
+  const params: unknown[] = [actor.shopId];
+  let fromWhere = 'from customer c where c.shop_id = ?';
+  if (query.q) {
+    const like = containsPattern(query.q);
+    fromWhere += ' and (c.name ilike ? or c.email ilike ? or c.phone ilike ?)';
+    params.push(like, like, like);
+  }
+  const column = { name: 'name', createdAt: 'created_at', email: 'email' }[field] ?? 'name';
+  const { total, exact } = await boundedTotal(em, fromWhere, params, { atLeast: offset + rows.length, orderBy: `c.${column} ${dir}, c.id ${dir}` });
+  return { items: await decorate(em, rows), total, ...(exact ? {} : { totalIsEstimate: true }), page: query.page, pageSize: query.pageSize };
 }
 
 export async function getCustomerEntity(em: EntityManager, actor: Actor, id: string): Promise<Customer> {
