@@ -26,3 +26,14 @@ export async function boundedTotal(
   const [row] = (await conn.execute(`explain (format json) select 1 ${fromWhere}`, params)) as { 'QUERY PLAN': [{ Plan: { 'Plan Rows': number } }] }[];
   return { total: Math.max(Math.round(row['QUERY PLAN'][0].Plan['Plan Rows']), n, opts.atLeast ?? 0), exact: false };
 }
+
+/**
+ * The total without asking the database, when the first page already holds every match (it came
+ * back shorter than a page, or the query fetched one row more than a page and got none): a rare
+ * search then costs one statement instead of two. Null when the count is still needed.
+ */
+export function wholeListOnFirstPage(offset: number, shown: number, pageSize: number, more?: boolean): { total: number; exact: true } | null {
+  if (offset !== 0) return null;
+  const complete = more === undefined ? shown < pageSize : !more;
+  return complete ? { total: shown, exact: true } : null;
+}

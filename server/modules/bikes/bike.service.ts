@@ -1,6 +1,6 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { LoadStrategy, raw, type FilterQuery } from '@mikro-orm/core';
-import { boundedTotal } from '../../db/bounded-total';
+import { boundedTotal, wholeListOnFirstPage } from '../../db/bounded-total';
 import type { z } from 'zod';
 import type { Actor } from '../../http/actor';
 import { notFound } from '../../lib/errors';
@@ -65,7 +65,9 @@ export async function listBikes(em: EntityManager, actor: Actor, query: ListQuer
     params.push(like);
   }
   const column = SORT_COLUMN[field];
-  const { total, exact } = await boundedTotal(em, fromWhere, params, { atLeast: offset + rows.length, orderBy: column ? `b.${column} ${dir}, b.id ${dir}` : undefined });
+  const { total, exact } =
+    wholeListOnFirstPage(offset, rows.length, query.pageSize) ??
+    (await boundedTotal(em, fromWhere, params, { atLeast: offset + rows.length, orderBy: column ? `b.${column} ${dir}, b.id ${dir}` : undefined }));
   return { items: rows.map(toBikeDto), total, ...(exact ? {} : { totalIsEstimate: true }), page: query.page, pageSize: query.pageSize };
 }
 

@@ -14,7 +14,7 @@ import { Bike } from '../bikes/bike.entity';
 import { User } from '../users/user.entity';
 import { recordAudit } from '../audit/audit.service';
 import { PendingInvite } from '../users/pending-invite.entity';
-import { boundedTotal } from '../../db/bounded-total';
+import { boundedTotal, wholeListOnFirstPage } from '../../db/bounded-total';
 
 type CustomerData = z.output<typeof customerInput>;
 type ListQuery = z.output<typeof customerListQuery>;
@@ -68,7 +68,9 @@ export async function listCustomers(em: EntityManager, actor: Actor, query: List
     params.push(like, like, like);
   }
   const column = { name: 'name', createdAt: 'created_at', email: 'email' }[field] ?? 'name';
-  const { total, exact } = await boundedTotal(em, fromWhere, params, { atLeast: offset + rows.length, orderBy: `c.${column} ${dir}, c.id ${dir}` });
+  const { total, exact } =
+    wholeListOnFirstPage(offset, rows.length, query.pageSize) ??
+    (await boundedTotal(em, fromWhere, params, { atLeast: offset + rows.length, orderBy: `c.${column} ${dir}, c.id ${dir}` }));
   return { items: await decorate(em, rows), total, ...(exact ? {} : { totalIsEstimate: true }), page: query.page, pageSize: query.pageSize };
 }
 

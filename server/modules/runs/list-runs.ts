@@ -5,7 +5,7 @@ import type { ApiErrorCode } from '@shared/errors';
 import { bikeLabel } from '@shared/labels';
 import type { Page } from '@shared/schemas/common';
 import type { CorrectionId, RunStatusId, RunSummaryDto } from '@shared/schemas/run';
-import { boundedTotal } from '../../db/bounded-total';
+import { boundedTotal, wholeListOnFirstPage } from '../../db/bounded-total';
 import { encodeCursor, orderBy, pageSql, totalFromWhere, type RunListQuery, type RunListRow } from './run-list-sql';
 
 export type { RunListQuery } from './run-list-sql';
@@ -63,6 +63,8 @@ export async function listRuns(em: EntityManager, actor: Actor, query: RunListQu
   const before = query.cursor ? 0 : (query.page - 1) * query.pageSize;
   // Exact up to 200 matches (a bounded walk of the page's own index), else the planner's estimate, flagged.
   const all = totalFromWhere(actor, query);
-  const { total, exact } = await boundedTotal(em, all.sql, all.params, { orderBy: orderBy(spec), atLeast: before + shown.length + (more ? 1 : 0) });
+  const { total, exact } =
+    (query.cursor ? null : wholeListOnFirstPage(before, shown.length, query.pageSize, more)) ??
+    (await boundedTotal(em, all.sql, all.params, { orderBy: orderBy(spec), atLeast: before + shown.length + (more ? 1 : 0) }));
   return { items: shown.map(toRunListItem), total, ...(exact ? {} : { totalIsEstimate: true }), page, pageSize: query.pageSize, nextCursor };
 }
