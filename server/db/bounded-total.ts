@@ -23,8 +23,13 @@ export async function boundedTotal(
   const conn = em.getConnection();
   const [{ n }] = (await conn.execute(`select count(*)::int as n from (select 1 ${fromWhere}${opts.orderBy ? ` order by ${opts.orderBy}` : ''} limit ${limit + 1}) x`, params)) as { n: number }[];
   if (n <= limit) return { total: n, exact: true };
-  const [row] = (await conn.execute(`explain (format json) select 1 ${fromWhere}`, params)) as { 'QUERY PLAN': [{ Plan: { 'Plan Rows': number } }] }[];
-  return { total: Math.max(Math.round(row['QUERY PLAN'][0].Plan['Plan Rows']), n, opts.atLeast ?? 0), exact: false };
+  return estimatedTotal(em, fromWhere, params, Math.max(n, opts.atLeast ?? 0));
+}
+
+/** The planner's row estimate for `fromWhere` (planning only, no scan), never less than `atLeast`. */
+export async function estimatedTotal(em: EntityManager, fromWhere: string, params: unknown[], atLeast: number): Promise<{ total: number; exact: false }> {
+  const [row] = (await em.getConnection().execute(`explain (format json) select 1 ${fromWhere}`, params)) as { 'QUERY PLAN': [{ Plan: { 'Plan Rows': number } }] }[];
+  return { total: Math.max(Math.round(row['QUERY PLAN'][0].Plan['Plan Rows']), atLeast), exact: false };
 }
 
 /**

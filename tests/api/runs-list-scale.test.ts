@@ -58,8 +58,8 @@ const actorOf = (user: { id: string; customer?: { id: string } | null }, role: A
   customerId: role === 'customer' ? shop.customer.id : null,
 });
 
-async function plan(actor: Actor, query: Record<string, string>): Promise<string> {
-  const { sql, params } = pageSql(actor, runListQuery.parse(query));
+async function plan(actor: Actor, query: Record<string, string>, countUpTo = 0): Promise<string> {
+  const { sql, params } = pageSql(actor, runListQuery.parse(query), countUpTo);
   const rows = (await t.deps.orm.em.fork().getConnection().execute(`explain ${sql}`, params)) as { 'QUERY PLAN': string }[];
   return rows.map((r) => r['QUERY PLAN']).join('\n');
 }
@@ -87,10 +87,14 @@ describe('query plans (EXPLAIN on 20 000 runs)', () => {
       [{ customerId: shop.otherBike.customer.id }, /Index Cond: \((\(shop_id = [^)]*\) AND \()?bike_id = ANY/],
     ];
     for (const [query, index] of cases) {
-      const p = await plan(owner, query);
-      if (typeof index === 'string') expect(p, `${JSON.stringify(query)}\n${p}`).toContain(index);
-      else expect(p, `${JSON.stringify(query)}\n${p}`).toMatch(index);
-      expect(p, `${JSON.stringify(query)}\n${p}`).not.toMatch(SEQ_SCAN_ON_RUN);
+      // As listed, and as a first page that walks up to 201 matches once for rows and count.
+      for (const countUpTo of [0, 201]) {
+        const p = await plan(owner, query, countUpTo);
+        const what = `${JSON.stringify(query)} countUpTo ${countUpTo}\n${p}`;
+        if (typeof index === 'string') expect(p, what).toContain(index);
+        else expect(p, what).toMatch(index);
+        expect(p, what).not.toMatch(SEQ_SCAN_ON_RUN);
+      }
     }
   });
 
@@ -187,6 +191,15 @@ describe('paging and search', () => {
     expect(failed.body.totalIsEstimate).toBe(true);
     expect(failed.body.total).toBeGreaterThan(BIKES * 0.5);
     expect(failed.body.total).toBeLessThan(BIKES * 2);
+    // 11 bikes (Model 199, 1990–1999) × 10 runs: the first pages count them in the same walk, exactly.
+    const [{ n }] = (await t.deps.orm.em.fork().getConnection().execute(`select count(*)::int as n from run where shop_id = ? and search_text ilike '%model 199%'`, [shop.shop.id])) as { n: number }[];
+    expect(n).toBe(110);
+    for (const page of [1, 2, 5]) {
+      const res = (await owner.get('/api/runs').query({ q: 'model 199', page })).body;
+      expect(res.total, `page ${page}`).toBe(110);
+      expect(res.totalIsEstimate).toBeUndefined();
+      expect(res.items).toHaveLength(page === 5 ? 10 : 25);
+    }
     const one = await owner.get('/api/runs').query({ bikeId: shop.otherBike.id });
     expect(one.body).toMatchObject({ total: 0, items: [], nextCursor: null });
     expect(one.body.totalIsEstimate).toBeUndefined();

@@ -5,7 +5,7 @@ import type { ApiErrorCode } from '@shared/errors';
 import { bikeLabel } from '@shared/labels';
 import type { Page } from '@shared/schemas/common';
 import type { CorrectionId, RunStatusId, RunSummaryDto } from '@shared/schemas/run';
-import { boundedTotal, wholeListOnFirstPage } from '../../db/bounded-total';
+import { boundedTotal, estimatedTotal, EXACT_TOTAL_LIMIT, wholeListOnFirstPage } from '../../db/bounded-total';
 import { encodeCursor, orderBy, pageSql, totalFromWhere, type RunListQuery, type RunListRow } from './run-list-sql';
 
 export type { RunListQuery } from './run-list-sql';
@@ -53,7 +53,8 @@ export function toRunListItem(r: RunListRow): RunSummaryDto {
  * `page` pages by offset. Deleted runs are listed only for an owner who asks (`includeDeleted=true`).
  */
 export async function listRuns(em: EntityManager, actor: Actor, query: RunListQuery & { cursor?: string }): Promise<Page<RunSummaryDto>> {
-  const { sql, params, spec } = pageSql(actor, query);
+  // First pages walk up to one largest page + 1 matches once, for the rows and the bounded count together.
+  const { sql, params, spec, counts } = pageSql(actor, query, EXACT_TOTAL_LIMIT + 1);
   const rows = (await em.getConnection().execute(sql, params)) as RunListRow[];
   const more = rows.length > query.pageSize;
   const shown = rows.slice(0, query.pageSize);
@@ -63,8 +64,12 @@ export async function listRuns(em: EntityManager, actor: Actor, query: RunListQu
   const before = query.cursor ? 0 : (query.page - 1) * query.pageSize;
   // Exact up to 200 matches (a bounded walk of the page's own index), else the planner's estimate, flagged.
   const all = totalFromWhere(actor, query);
+  const atLeast = before + shown.length + (more ? 1 : 0);
+  const matched = counts && rows.length ? Number(rows[0].matched) : null;
   const { total, exact } =
     (query.cursor ? null : wholeListOnFirstPage(before, shown.length, query.pageSize, more)) ??
-    (await boundedTotal(em, all.sql, all.params, { orderBy: orderBy(spec), atLeast: before + shown.length + (more ? 1 : 0) }));
+    (matched !== null && matched <= EXACT_TOTAL_LIMIT ? { total: matched, exact: true } : null) ??
+    (matched !== null ? await estimatedTotal(em, all.sql, all.params, Math.max(matched, atLeast)) : null) ??
+    (await boundedTotal(em, all.sql, all.params, { orderBy: orderBy(spec), atLeast }));
   return { items: shown.map(toRunListItem), total, ...(exact ? {} : { totalIsEstimate: true }), page, pageSize: query.pageSize, nextCursor };
 }

@@ -128,25 +128,39 @@ const ROW_COLUMNS = `r.id, r.bike_id, b.make, b.model, b.year, c.name as custome
 /**
  * The page: `pageSize + 1` ids walked from `run` (the extra one tells whether more follow), then
  * those rows with their bike, customer and stage. Keyset when a cursor is given, else offset.
+ *
+ * An offset page that ends within the first `countUpTo` matches walks that many ids once, in a
+ * materialized CTE, and answers `matched` (how many of them there were) on every row: the page
+ * and its bounded count from one walk of the index (or one trigram bitmap) instead of two.
  */
-export function pageSql(actor: Actor, query: RunListQuery & { cursor?: string }): { sql: string; params: unknown[]; spec: SortSpec & { name: string } } {
+export function pageSql(
+  actor: Actor,
+  query: RunListQuery & { cursor?: string },
+  countUpTo = 0,
+): { sql: string; params: unknown[]; spec: SortSpec & { name: string }; counts: boolean } {
   const spec = sortSpec(query.sort);
   const s = new Sql();
   const conds = [whereOf(s, actor, query)];
   if (query.cursor) conds.push(afterCursor(s, spec, decodeCursor(query.cursor, spec.name)));
   const offset = query.cursor ? 0 : (query.page - 1) * query.pageSize;
-  const inner = `select r.id, r.created_at, ${spec.key}::text as sort_key, r.created_at::text as created_at_text, ${spec.key} as sort_value
+  const counts = !query.cursor && offset + query.pageSize + 1 <= countUpTo;
+  const walked = `select r.id, r.created_at, ${spec.key}::text as sort_key, r.created_at::text as created_at_text, ${spec.key} as sort_value
       from run r where ${conds.join(' and ')}
-     order by ${orderBy(spec)} limit ${s.p(query.pageSize + 1)} offset ${s.p(offset)}`;
+     order by ${orderBy(spec)}`;
   const order = spec.type === 'timestamptz' ? `p.sort_value ${spec.dir}, p.id asc` : `p.sort_value ${spec.dir}, p.created_at desc, p.id asc`;
-  const sql = `select ${ROW_COLUMNS}
+  // Placeholders are positional: bind in the order they appear in the text (head, then inner).
+  const head = counts ? `with m as materialized (${walked} limit ${s.p(countUpTo)}) ` : '';
+  const inner = counts
+    ? `select m.* from m order by ${order.replaceAll('p.', 'm.')} limit ${s.p(query.pageSize + 1)} offset ${s.p(offset)}`
+    : `${walked} limit ${s.p(query.pageSize + 1)} offset ${s.p(offset)}`;
+  const sql = `${head}select ${ROW_COLUMNS}${counts ? ', (select count(*) from m)::int as matched' : ''}
       from (${inner}) p
       join run r on r.id = p.id
       join bike b on b.id = r.bike_id
       join customer c on c.id = b.customer_id
       left join stage st on st.id = r.stage_id
      order by ${order}`;
-  return { sql, params: s.params, spec };
+  return { sql, params: s.params, spec, counts };
 }
 
 /** FROM … WHERE of every run the list matches (for boundedTotal; the cursor does not narrow it). */
@@ -191,4 +205,6 @@ export interface RunListRow {
   deleted_at: Date | string | null;
   sort_key: string;
   created_at_text: string;
+  /** With pageSql's `countUpTo`: how many matches the walk found, at most `countUpTo`. */
+  matched?: number;
 }
