@@ -62,14 +62,28 @@ export async function listRuns(em: EntityManager, actor: Actor, query: RunListQu
   const nextCursor = more && last ? encodeCursor({ sort: spec.name, key: last.sort_key, createdAt: last.created_at_text, id: last.id }) : null;
   const page = query.cursor ? 1 : query.page;
   const before = query.cursor ? 0 : (query.page - 1) * query.pageSize;
-  // Exact up to 200 matches (a bounded walk of the page's own index), else the planner's estimate, flagged.
-  const all = totalFromWhere(actor, query);
-  const atLeast = before + shown.length + (more ? 1 : 0);
   const matched = counts && rows.length ? Number(rows[0].matched) : null;
-  const { total, exact } =
-    (query.cursor ? null : wholeListOnFirstPage(before, shown.length, query.pageSize, more)) ??
-    (matched !== null && matched <= EXACT_TOTAL_LIMIT ? { total: matched, exact: true } : null) ??
-    (matched !== null ? await estimatedTotal(em, all.sql, all.params, Math.max(matched, atLeast)) : null) ??
-    (await boundedTotal(em, all.sql, all.params, { orderBy: orderBy(spec), atLeast }));
+  const { total, exact } = await totalOf(em, actor, query, spec, { before, shown: shown.length, more, matched });
   return { items: shown.map(toRunListItem), total, ...(exact ? {} : { totalIsEstimate: true }), page, pageSize: query.pageSize, nextCursor };
+}
+
+/**
+ * The list's total, exact up to 200 matches, else the planner's estimate (flagged). From the page
+ * itself when it can tell (a short first page, or the `matched` its walk counted), else a bounded
+ * walk of the page's own index.
+ */
+async function totalOf(
+  em: EntityManager,
+  actor: Actor,
+  query: RunListQuery & { cursor?: string },
+  spec: ReturnType<typeof pageSql>['spec'],
+  page: { before: number; shown: number; more: boolean; matched: number | null },
+): Promise<{ total: number; exact: boolean }> {
+  const whole = query.cursor ? null : wholeListOnFirstPage(page.before, page.shown, query.pageSize, page.more);
+  if (whole) return whole;
+  if (page.matched !== null && page.matched <= EXACT_TOTAL_LIMIT) return { total: page.matched, exact: true };
+  const all = totalFromWhere(actor, query);
+  const atLeast = page.before + page.shown + (page.more ? 1 : 0);
+  if (page.matched !== null) return estimatedTotal(em, all.sql, all.params, Math.max(page.matched, atLeast));
+  return boundedTotal(em, all.sql, all.params, { orderBy: orderBy(spec), atLeast });
 }
