@@ -105,8 +105,8 @@ export async function run(): Promise<void> {
     await page.getByRole('button', { name: 'Sign in' }).click();
     await page.waitForURL((u) => !u.pathname.startsWith('/login'));
     await page.goto(`${baseUrl}/bay/${dyno.id}`);
-    // Page-side expressions as strings: the bench compiles without the DOM's types.
-    await page.waitForFunction(`document.querySelector('[data-testid=live-state]')?.textContent === 'Live'`);
+    // Locators, not page-side expressions: the app's CSP (script-src 'self') refuses the eval a string predicate needs.
+    await page.getByTestId('live-state').filter({ hasText: /^Live$/ }).waitFor();
 
     const agent = startAgentProcess({ server: baseUrl, token, folder, journal: path.join(work, 'journal.json') });
     stopAgent = () => agent.stop();
@@ -122,7 +122,7 @@ export async function run(): Promise<void> {
       const from = agent.lines.length;
       const t0 = performance.now();
       fs.writeFileSync(path.join(folder, name), bytes);
-      await page.waitForFunction(`document.querySelectorAll('[data-testid=bay-pull]').length >= ${i + 1}`, undefined, { polling: 25, timeout: 30_000 });
+      await waitForCount(() => page.getByTestId('bay-pull').count(), i + 1, 30_000);
       const shown = performance.now();
       times.push(shown - t0);
       await agent.waitForLine(new RegExp(`^sent\\s+${name.replace('.', '\\.')}`), 10_000, from);
@@ -156,5 +156,14 @@ export async function run(): Promise<void> {
     for (const s of started.reverse()) await s.stop();
     fs.rmSync(dir, { recursive: true, force: true });
     fs.rmSync(work, { recursive: true, force: true });
+  }
+}
+
+/** Polls `count` every 25 ms until it reaches `n`. */
+async function waitForCount(count: () => Promise<number>, n: number, timeoutMs: number): Promise<void> {
+  const deadline = performance.now() + timeoutMs;
+  while ((await count()) < n) {
+    if (performance.now() > deadline) throw new Error(`timed out waiting for ${n} pulls on the bay board`);
+    await new Promise((r) => setTimeout(r, 25));
   }
 }
